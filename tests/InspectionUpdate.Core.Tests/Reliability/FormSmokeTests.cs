@@ -7,6 +7,7 @@ public class FormSmokeTests
 {
     // Cornell (1969): β = (μR − μS)/√(σR² + σS²) for the linear margin R − S of independent normals.
     [Fact]
+    [Reference("Cornell (1969), closed form for a linear margin of independent normals")]
     public void Linear_normal_margin_matches_Cornell_closed_form()
     {
         var model = new StochasticModel([new NormalVariable("R", 200, 20), new NormalVariable("S", 100, 30)]);
