@@ -32,8 +32,8 @@ public sealed record ProfileOptions
     /// <summary>True (default) to start each step's FORM from the previous step's design point.</summary>
     public bool WarmStart { get; init; } = true;
 
-    /// <summary>Recomputes non-converged steps; null leaves them as flagged FORM results.</summary>
-    public ISimulationFallback? Fallback { get; init; }
+    /// <summary>Recomputes non-converged steps (default: importance sampling at FORM's last iterate, then crude Monte Carlo); null leaves them as flagged FORM results.</summary>
+    public ISimulationFallback? Fallback { get; init; } = new ImportanceSamplingFallback();
 
     /// <summary>Union engine for annual-maximum loads; null uses <see cref="UnionBoundsEngine"/> until the system engine is wired.</summary>
     public ISeriesSystemEngine? SeriesEngine { get; init; }

@@ -275,33 +275,50 @@ public static class TimeVariantReliability
     private sealed class FormStepper(IDegradationModel model, IProbabilityTransformation transformation, ProfileOptions options)
     {
         private IReadOnlyList<double>? _warm = options.Form.StartPoint;
+        private double? _scale = options.Form.LimitStateScale;
 
         public StepOutcome Step(double timeYears)
         {
-            var problem = new ReliabilityProblem(transformation, new DegradationLimitState(model, timeYears));
-            var form = FormSolver.Solve(problem, options.Form with { StartPoint = _warm });
+            var limitState = new DegradationLimitState(model, timeYears);
+            var problem = new ReliabilityProblem(transformation, limitState);
+            var extra = 0;
+            if (_scale is null)
+            {
+                // One evaluation at the median point fixes the scale of |G| for every step, so warm starts need no
+                // extra evaluation at the origin.
+                var x = new double[transformation.PhysicalDimension];
+                transformation.ToPhysical(new double[transformation.StandardDimension], x);
+                var g0 = Math.Abs(limitState.Evaluate(x));
+                extra = 1;
+                _scale = g0 > 0 && double.IsFinite(g0) ? g0 : 1.0;
+            }
+
+            var form = FormSolver.Solve(problem, options.Form with { StartPoint = _warm, LimitStateScale = _scale });
             if (!form.Converged && _warm is not null)
             {
                 // A misleading warm start must not cost the step: retry once from the origin.
-                var cold = FormSolver.Solve(problem, options.Form with { StartPoint = null });
-                form = cold with { LimitStateEvaluations = cold.LimitStateEvaluations + form.LimitStateEvaluations };
+                var cold = FormSolver.Solve(problem, options.Form with { StartPoint = null, LimitStateScale = _scale });
+                extra += form.LimitStateEvaluations;
+                form = cold;
             }
 
+            var evaluations = form.LimitStateEvaluations + extra;
             if (form.Converged)
             {
                 if (options.WarmStart) _warm = form.DesignPointU;
-                return new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, true, form.LimitStateEvaluations, form, null, null);
+                return new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, true, evaluations, form, null, null);
             }
 
             if (options.Fallback is { } fallback)
             {
                 var sim = fallback.Run(problem, form);
                 var note = $"FORM did not converge ({form.Diagnostic}); recomputed by {sim.Method}";
-                return new StepOutcome(sim.FailureProbability, fallback.Route, sim.Converged, form.LimitStateEvaluations + (int)Math.Min(int.MaxValue, sim.LimitStateEvaluations), form, sim,
+                var route = sim.Method == CrudeMonteCarlo.MethodName ? ComputationRoute.MonteCarlo : fallback.Route;
+                return new StepOutcome(sim.FailureProbability, route, sim.Converged, evaluations + (int)Math.Min(int.MaxValue, sim.LimitStateEvaluations), form, sim,
                     sim.Converged ? note : $"{note}, which did not converge either ({sim.Diagnostic})");
             }
 
-            return new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, false, form.LimitStateEvaluations, form, null,
+            return new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, false, evaluations, form, null,
                 $"FORM did not converge ({form.Diagnostic}); no simulation fallback configured");
         }
     }
