@@ -34,6 +34,8 @@ internal sealed class FirstOrderUpdater
     private List<string>? _evidenceFlags;
     private int _evidenceEvaluations;
     private JointDesignPoint.Result? _denominatorPoint;
+    private LinearizedEvent[]? _denominatorLinear;
+    private readonly Dictionary<string, double[]> _jointWarm = new(StringComparer.Ordinal);
 
     public FirstOrderUpdater(EvidenceModel model, IProbabilityTransformation transformation, UpdatingOptions options)
     {
@@ -65,21 +67,24 @@ internal sealed class FirstOrderUpdater
         }
 
         var individual = GaussianConditioning.Evaluate(failure, ineq, eq);
-        var nonlinear = NonlinearityFlags(fn, failure);
-        flags.AddRange(nonlinear);
+        flags.AddRange(NonlinearityFlags(fn, failure));
         var evaluations = fn.Evaluations + _evidenceEvaluations;
-        if (nonlinear.Count == 0 && _evidenceFlags!.Count == 0 || individual.Problem is not null && nonlinear.Count == 0)
-        {
-            return Finish(individual, failure, converged, flags.Count == 0, joint: false, flags, evaluations);
-        }
 
-        // Individual linearizations mislead: re-linearize at the joint design points.
+        // Always re-linearize at the joint design points of F ∩ I ∩ E (numerator) and I ∩ E (denominator): individual
+        // design points can lie far from the region that carries P(F ∩ I ∩ E), and the disagreement of the two
+        // linearizations is the reliability check of the first-order result.
         var all = _events.Append(fn).ToArray();
         var active = all.Select(f => ReferenceEquals(f, fn)).ToArray();
-        var start = failure.PointU;
-        var numeratorPoint = JointDesignPoint.Find(all, active, start);
-        _denominatorPoint ??= JointDesignPoint.Find(_events, new bool[_events.Length], new double[_transformation.StandardDimension]);
+        var key = componentId + "#" + _model.RenewalStartYears(componentId, timeYears).ToString("R", System.Globalization.CultureInfo.InvariantCulture);
+        var start = _jointWarm.TryGetValue(key, out var w) ? w : failure.PointU;
         var before = all.Sum(f => f.Evaluations);
+        var numeratorPoint = JointDesignPoint.Find(all, active, start);
+        if (!numeratorPoint.Converged && !ReferenceEquals(start, failure.PointU))
+        {
+            numeratorPoint = JointDesignPoint.Find(all, active, failure.PointU);
+        }
+
+        _denominatorPoint ??= JointDesignPoint.Find(_events, new bool[_events.Length], new double[_transformation.StandardDimension]);
         if (!numeratorPoint.Converged || !_denominatorPoint.Converged)
         {
             flags.Add("Joint design point: " + (numeratorPoint.Diagnostic ?? _denominatorPoint.Diagnostic));
@@ -87,8 +92,10 @@ internal sealed class FirstOrderUpdater
             return Finish(individual, failure, converged, reliable: false, joint: false, flags, evaluations);
         }
 
+        _jointWarm[key] = numeratorPoint.U;
         var numLin = all.Select(f => f.LinearizeAt(numeratorPoint.U, true, null)).ToArray();
-        var denLin = _events.Select(f => f.LinearizeAt(_denominatorPoint.U, true, null)).ToArray();
+        _denominatorLinear ??= _events.Select(f => f.LinearizeAt(_denominatorPoint.U, true, null)).ToArray();
+        var denLin = _denominatorLinear;
         evaluations += all.Sum(f => f.Evaluations) - before;
         var fJoint = numLin[^1];
         var joint = GaussianConditioning.Evaluate(fJoint,
@@ -109,8 +116,7 @@ internal sealed class FirstOrderUpdater
                 $"Individual and joint linearizations disagree: {pi:G4} against {pj:G4}."));
         }
 
-        return Finish(joint, fJoint with { Beta = failure.Beta, Alpha = failure.Alpha, PointU = failure.PointU },
-            converged, agree, joint: true, flags, evaluations);
+        return Finish(joint, fJoint, converged, agree, joint: true, flags, evaluations);
     }
 
     private FirstOrderEstimate Finish(GaussianConditioning.Result r, LinearizedEvent failure, bool converged, bool reliable, bool joint,
@@ -132,11 +138,10 @@ internal sealed class FirstOrderUpdater
             for (var j = 0; j < _events.Length; j++)
             {
                 if (i == j) continue;
-                var delta = Deviation(_events[j], _linear[j], _linear[i].PointU);
-                if (delta > _options.NonlinearityTolerance)
+                if (Departs(_events[j], _linear[j], _linear[i].PointU, _options.NonlinearityTolerance))
                 {
                     _evidenceFlags.Add(FormattableString.Invariant(
-                        $"'{_linear[j].Name}' departs from its linearization by {delta:G3} σ at the design point of '{_linear[i].Name}'."));
+                        $"'{_linear[j].Name}' departs from its linearization by more than {_options.NonlinearityTolerance:G3} σ at the design point of '{_linear[i].Name}'."));
                 }
             }
 
@@ -148,29 +153,36 @@ internal sealed class FirstOrderUpdater
         var flags = new List<string>();
         for (var i = 0; i < _events.Length; i++)
         {
-            var a = Deviation(_events[i], _linear![i], failure.PointU);
-            var b = Deviation(fn, failure, _linear[i].PointU);
-            if (a > _options.NonlinearityTolerance)
+            var tol = _options.NonlinearityTolerance;
+            if (Departs(_events[i], _linear![i], failure.PointU, tol))
             {
-                flags.Add(FormattableString.Invariant($"'{_linear[i].Name}' departs from its linearization by {a:G3} σ at the failure design point."));
+                flags.Add(FormattableString.Invariant($"'{_linear[i].Name}' departs from its linearization by more than {tol:G3} σ at the failure design point."));
             }
 
-            if (b > _options.NonlinearityTolerance)
+            if (Departs(fn, failure, _linear[i].PointU, tol))
             {
-                flags.Add(FormattableString.Invariant($"The failure event departs from its linearization by {b:G3} σ at the design point of '{_linear[i].Name}'."));
+                flags.Add(FormattableString.Invariant($"The failure event departs from its linearization by more than {tol:G3} σ at the design point of '{_linear[i].Name}'."));
             }
         }
 
         return flags;
     }
 
-    /// <summary>|h(u)/‖∇h‖ − (β − αᵀu)|: how far the linearization is off at u, in standard deviations.</summary>
-    private static double Deviation(EventFunction f, LinearizedEvent lin, double[] u)
+    /// <summary>
+    /// True when the event's surface lies more than <paramref name="tolerance"/> (in u) from where its linearization
+    /// puts it, measured along α through u: the linearization predicts the crossing at s = β − αᵀu, so h(u + sα)
+    /// must change sign between s − tol and s + tol. Only signs are used, so the check does not depend on how h is
+    /// scaled or parametrized (a − A_d and ln a − ln A_d give the same answer).
+    /// </summary>
+    private static bool Departs(EventFunction f, LinearizedEvent lin, double[] u, double tolerance)
     {
-        if (!(lin.GradientNorm > 0)) return double.PositiveInfinity;
-        var actual = f.ValueAtU(u) / lin.GradientNorm;
-        var linear = lin.Beta - GaussianConditioning.Dot(lin.Alpha, u);
-        var d = Math.Abs(actual - linear);
-        return double.IsFinite(d) ? d : double.PositiveInfinity;
+        if (!lin.Converged) return true;
+        var s = lin.Beta - GaussianConditioning.Dot(lin.Alpha, u);
+        var w = new double[u.Length];
+        for (var i = 0; i < u.Length; i++) w[i] = u[i] + (s - tolerance) * lin.Alpha[i];
+        var before = f.ValueAtU(w);
+        for (var i = 0; i < u.Length; i++) w[i] = u[i] + (s + tolerance) * lin.Alpha[i];
+        var after = f.ValueAtU(w);
+        return !(before > 0 && after < 0);
     }
 }

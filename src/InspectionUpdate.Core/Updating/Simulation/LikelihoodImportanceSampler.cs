@@ -112,7 +112,7 @@ internal sealed class LikelihoodImportanceSampler
             shifted.ToU(form.DesignPointU.ToArray(), centre);
         }
 
-        var rng = new Random(unchecked(_options.Seed * 7919 + (int)Math.Round(timeYears * 1000) + componentId.GetHashCode(StringComparison.Ordinal)));
+        var rng = new Random(unchecked(_options.Seed * 7919 + (int)Math.Round(timeYears * 1000) + StableHash(componentId)));
         var logW = new List<double>();
         var u = new double[_d];
         double cov;
@@ -251,6 +251,14 @@ internal sealed class LikelihoodImportanceSampler
         mean = sum / n;
         var variance = Math.Max(0, sum2 / n - mean * mean) / (n - 1);
         return Math.Sqrt(variance) / mean;
+    }
+
+    // string.GetHashCode is randomized per process; results must be reproducible from the seed.
+    private static int StableHash(string s)
+    {
+        var h = unchecked((int)2166136261);
+        foreach (var ch in s) h = unchecked((h ^ ch) * 16777619);
+        return h;
     }
 
     private static double Gaussian(Random rng)
