@@ -28,7 +28,7 @@ public static class CliApp
             config.SetExceptionHandler((e, _) =>
             {
                 // Parse and binding errors: one sentence, exit code for bad input.
-                host.Error.WriteLine("error: " + OneLine(e.Message));
+                host.Error.WriteLine("error: " + NameTheOption(OneLine(e.Message), args));
                 if (verbose) host.Error.WriteLine(e.ToString());
                 return e is CommandAppException ? ExitCodes.BadInput : ExitCodes.InternalError;
             });
@@ -99,4 +99,27 @@ public static class CliApp
     }
 
     private static string OneLine(string s) => s.ReplaceLineEndings(" ").Trim();
+
+    /// <summary>
+    /// Spectre reports a value it cannot convert without the option's name ("Failed to convert 'abc' to Double."):
+    /// add the option that preceded the value so that the sentence names the field and the value.
+    /// </summary>
+    internal static string NameTheOption(string message, IReadOnlyList<string> args)
+    {
+        const string prefix = "Failed to convert '";
+        if (!message.StartsWith(prefix, StringComparison.Ordinal)) return message;
+        var end = message.IndexOf('\'', prefix.Length);
+        if (end < 0) return message;
+        var value = message[prefix.Length..end];
+        for (var i = 1; i < args.Count; i++)
+        {
+            if (args[i] == value && args[i - 1].StartsWith('-'))
+            {
+                var kind = message.EndsWith("Double.", StringComparison.Ordinal) ? "a number" : message[(end + 5)..].TrimEnd('.');
+                return $"{args[i - 1]} '{value}' is not {kind}.";
+            }
+        }
+
+        return message;
+    }
 }

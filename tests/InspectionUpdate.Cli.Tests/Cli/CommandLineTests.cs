@@ -85,3 +85,15 @@ public sealed class CommandLineTests
         Assert.Equal("verification_failed", ExitCodes.Name(ExitCodes.VerificationFailed));
     }
 }
+
+public sealed class OptionErrorTests
+{
+    [Fact]
+    public void A_value_that_is_not_a_number_is_reported_with_its_option()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("assess", "--model", "m.json", "--step-years", "abc");
+        Assert.Equal(InspectionUpdate.Cli.Infrastructure.ExitCodes.BadInput, run.ExitCode);
+        Assert.Contains("--step-years 'abc' is not a number.", run.Error, StringComparison.Ordinal);
+    }
+}
