@@ -64,7 +64,7 @@ public sealed class ExponentialVariable : RandomVariable
     public override double Pdf(double x) => x < Location ? 0 : Rate * Math.Exp(-Rate * (x - Location));
 
     /// <inheritdoc />
-    public override double Cdf(double x) => x <= Location ? 0 : -SpecialFunctions.Expm1(-Rate * (x - Location));
+    public override double Cdf(double x) => x <= Location ? 0 : -ElementaryFunctions.Expm1(-Rate * (x - Location));
 
     /// <inheritdoc />
     public override double Ccdf(double x) => x <= Location ? 1 : Math.Exp(-Rate * (x - Location));
@@ -74,7 +74,7 @@ public sealed class ExponentialVariable : RandomVariable
     {
         ProbabilityArgument.Check(p, nameof(p));
         if (p == 1) return double.PositiveInfinity;
-        return Location - SpecialFunctions.Log1p(-p) / Rate;
+        return Location - ElementaryFunctions.Log1p(-p) / Rate;
     }
 
     /// <inheritdoc />

@@ -67,7 +67,7 @@ internal static class FictiveCorrelations
         {
             var other = xi is NormalVariable ? xj : xi;
             var factor = other is LognormalVariable l
-                ? Math.Sqrt(MathNet.Numerics.SpecialFunctions.Expm1(l.Zeta * l.Zeta)) / l.Zeta
+                ? Math.Sqrt(ElementaryFunctions.Expm1(l.Zeta * l.Zeta)) / l.Zeta
                 : NormalFactor(other);
             return Checked(rho * factor, xi, xj, rho, entry, (-1 / factor, 1 / factor));
         }
@@ -106,7 +106,7 @@ internal static class FictiveCorrelations
         // ρ(ρ₀) = (exp(ρ₀ζᵢζⱼ) − 1)/(VᵢVⱼ) at ρ₀ = ±1.
         var vv = li.CoefficientOfVariation * lj.CoefficientOfVariation;
         var zz = li.Zeta * lj.Zeta;
-        return (MathNet.Numerics.SpecialFunctions.Expm1(-zz) / vv, MathNet.Numerics.SpecialFunctions.Expm1(zz) / vv);
+        return (ElementaryFunctions.Expm1(-zz) / vv, ElementaryFunctions.Expm1(zz) / vv);
     }
 
     private static double Checked(double r0, RandomVariable xi, RandomVariable xj, double rho, string entry, (double Min, double Max) bounds)

@@ -76,7 +76,7 @@ public sealed class GumbelVariable : RandomVariable
     public override double Cdf(double x) => Math.Exp(-Math.Exp(-(x - Location) / Scale));
 
     /// <inheritdoc />
-    public override double Ccdf(double x) => -MathNet.Numerics.SpecialFunctions.Expm1(-Math.Exp(-(x - Location) / Scale));
+    public override double Ccdf(double x) => -ElementaryFunctions.Expm1(-Math.Exp(-(x - Location) / Scale));
 
     /// <inheritdoc />
     public override double InverseCdf(double p)
@@ -95,6 +95,6 @@ public sealed class GumbelVariable : RandomVariable
         if (q == 0) return double.PositiveInfinity;
         if (q == 1) return double.NegativeInfinity;
         if (q > 0.5) return InverseCdf(1 - q);
-        return Location - Scale * Math.Log(-MathNet.Numerics.SpecialFunctions.Log1p(-q));
+        return Location - Scale * Math.Log(-ElementaryFunctions.Log1p(-q));
     }
 }

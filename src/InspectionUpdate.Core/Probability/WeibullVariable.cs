@@ -92,7 +92,7 @@ public sealed class WeibullVariable : RandomVariable
 
     /// <inheritdoc />
     public override double Cdf(double x) =>
-        x <= Location ? 0 : -MathNet.Numerics.SpecialFunctions.Expm1(-Math.Pow((x - Location) / Scale, Shape));
+        x <= Location ? 0 : -ElementaryFunctions.Expm1(-Math.Pow((x - Location) / Scale, Shape));
 
     /// <inheritdoc />
     public override double Ccdf(double x) =>
@@ -104,7 +104,7 @@ public sealed class WeibullVariable : RandomVariable
         ProbabilityArgument.Check(p, nameof(p));
         if (p == 0) return Location;
         if (p == 1) return double.PositiveInfinity;
-        return Location + Scale * Math.Pow(-MathNet.Numerics.SpecialFunctions.Log1p(-p), 1 / Shape);
+        return Location + Scale * Math.Pow(-ElementaryFunctions.Log1p(-p), 1 / Shape);
     }
 
     /// <inheritdoc />
@@ -118,7 +118,7 @@ public sealed class WeibullVariable : RandomVariable
 
     /// <summary>Γ(1 + 2/k)/Γ(1 + 1/k)² − 1, by expm1 of log-gammas so it stays accurate for large k.</summary>
     internal static double CovSquared(double k) =>
-        MathNet.Numerics.SpecialFunctions.Expm1(
+        ElementaryFunctions.Expm1(
             MathNet.Numerics.SpecialFunctions.GammaLn(1 + 2 / k) - 2 * MathNet.Numerics.SpecialFunctions.GammaLn(1 + 1 / k));
 
     private readonly struct CovResidual(double lnTargetCov) : IScalarFunction
