@@ -14,18 +14,18 @@ internal static class Migrations
     private const string NonBlank = "CHECK (length(trim({0})) > 0)";
     private const string IsoDate = "CHECK (date({0}) IS {0})";
 
-    /// <summary>Migration scripts; index i takes the schema from version i to i + 1.</summary>
-    public static IReadOnlyList<string> Scripts { get; } = [Version1(), Version2()];
-
-    /// <summary>The schema version this code writes and reads.</summary>
-    public static int Current => Scripts.Count;
-
-    /// <summary>Tables whose rows are never updated or deleted (enforced by triggers).</summary>
+    /// <summary>Tables whose rows are never updated or deleted (enforced by triggers). Declared before Scripts, which use it.</summary>
     public static IReadOnlyList<string> AppendOnlyTables { get; } =
     [
         "site", "component", "component_model_revision", "inspection_method", "finding", "finding_revision",
         "repair", "repair_revision", "audit_log", "import_batch",
     ];
+
+    /// <summary>Migration scripts; index i takes the schema from version i to i + 1.</summary>
+    public static IReadOnlyList<string> Scripts { get; } = [Version1(), Version2()];
+
+    /// <summary>The schema version this code writes and reads.</summary>
+    public static int Current => Scripts.Count;
 
     private static string F(string format, string column) => string.Format(CultureInfo.InvariantCulture, format, column);
 
