@@ -27,13 +27,23 @@ public sealed record FormResult
     /// </summary>
     public required IReadOnlyList<double> ImportanceFactors { get; init; }
 
+    /// <summary>
+    /// The signed importance vector γ (unit length, order of the model's random indices): equal to α for independent
+    /// inputs; for correlated inputs γ = αᵀJ_{u,x}D̂ / ‖αᵀJ_{u,x}D̂‖ (Der Kiureghian 2005). Null only when a
+    /// result was built by hand without it.
+    /// </summary>
+    public IReadOnlyList<double>? ImportanceVector { get; init; }
+
     /// <summary>Names of the random variables, matching <see cref="Alpha"/> and <see cref="ImportanceFactors"/>.</summary>
     public required IReadOnlyList<string> VariableNames { get; init; }
 
     /// <summary>Iterations used.</summary>
     public required int Iterations { get; init; }
 
-    /// <summary>Limit-state evaluations used (gradient evaluations by finite differences included).</summary>
+    /// <summary>
+    /// Limit-state evaluations used: every call of g, the finite-difference calls included; a call that returns g
+    /// with its analytic gradient counts once.
+    /// </summary>
     public required int LimitStateEvaluations { get; init; }
 
     /// <summary>True when both convergence criteria were met within the iteration cap.</summary>
@@ -41,6 +51,15 @@ public sealed record FormResult
 
     /// <summary>Why the run did not converge, or null.</summary>
     public string? Diagnostic { get; init; }
+
+    /// <summary>G at the reported design point (in the units of g); close to 0 when converged.</summary>
+    public double LimitStateValue { get; init; } = double.NaN;
+
+    /// <summary>‖∇ᵤG‖ at the reported design point (units of g per standard deviation).</summary>
+    public double GradientNorm { get; init; } = double.NaN;
+
+    /// <summary>The gradient route actually used: Analytic, ForwardDifference or CentralDifference.</summary>
+    public GradientMethod GradientMethod { get; init; } = GradientMethod.Automatic;
 
     /// <summary>Name of the algorithm, e.g. "FORM (iHL-RF)".</summary>
     public string Method { get; init; } = "FORM (iHL-RF)";

@@ -6,9 +6,12 @@ public enum GradientMethod
     /// <summary>Analytic when the limit state supplies one, else forward differences.</summary>
     Automatic,
 
-    /// <summary>Forward finite differences with relative steps (n extra evaluations).</summary>
+    /// <summary>Forward finite differences with relative steps (n extra evaluations per gradient).</summary>
     ForwardDifference,
 
-    /// <summary>Central finite differences with relative steps (2n extra evaluations, more accurate).</summary>
+    /// <summary>Central finite differences with relative steps (2n extra evaluations per gradient, more accurate).</summary>
     CentralDifference,
+
+    /// <summary>The limit state's analytic gradient; a solve throws if the limit state has none.</summary>
+    Analytic,
 }

@@ -1,0 +1,370 @@
+using System.Globalization;
+using System.Net;
+using System.Text;
+using InspectionUpdate.Reliability;
+using InspectionUpdate.Reporting.Plots;
+
+namespace InspectionUpdate.Reporting.Html;
+
+/// <summary>
+/// Self-contained HTML reports: one page per component and one for the register, every plot embedded as a base64
+/// PNG, a print style sheet, and no external resource.
+/// </summary>
+/// <remarks>
+/// Sections carry stable ids (<see cref="ComponentSections"/>, <see cref="PortfolioSections"/>) so that tests and
+/// users can link to them.
+/// </remarks>
+public static class HtmlReportWriter
+{
+    /// <summary>Ids of the sections of a component report, in page order.</summary>
+    public static IReadOnlyList<string> ComponentSections { get; } =
+        ["summary", "inputs", "findings", "results", "plots", "plan", "assumptions", "provenance", "cautions"];
+
+    /// <summary>Ids of the sections of a register report, in page order.</summary>
+    public static IReadOnlyList<string> PortfolioSections { get; } =
+        ["summary", "ranking", "due-dates", "components", "assumptions", "provenance", "cautions"];
+
+    /// <summary>The HTML page of one component.</summary>
+    public static string Component(ComponentReportData data)
+    {
+        ArgumentNullException.ThrowIfNull(data);
+        var h = new StringBuilder();
+        Head(h, $"{data.ComponentId} — {data.ComponentName}");
+        h.Append("<header><div class=\"kicker\">Component integrity report</div><h1>")
+            .Append(E(data.ComponentId)).Append(" · ").Append(E(data.ComponentName)).Append("</h1><div class=\"sub\">")
+            .Append(E(data.Site)).Append(" · ").Append(E(data.Model)).Append(" · evidence to ")
+            .Append(Date(data.Provenance.AssessedAsOf)).Append("</div></header>\n");
+        CautionBanner(h);
+
+        Section(h, "summary", "Summary");
+        var current = data.Updated ?? data.Prior;
+        var now = YearsSince(data.InServiceDate, data.Provenance.AssessedAsOf);
+        var point = current is null ? null : PointAt(current, now);
+        h.Append("<div class=\"cards\">");
+        Card(h, "In service since", Date(data.InServiceDate));
+        Card(h, "Annual Pf now (" + (data.Updated is null ? "prior" : "updated") + ")", point is null ? "not available" : ReportCharts.Probability(point.IntervalPf));
+        Card(h, "Route", point is null ? "-" : RouteText(point));
+        Card(h, "Next inspection", data.Plan?.Schedule.Count > 0 ? Date(data.Plan.Schedule[0].Date) : "not planned");
+        h.Append("</div>\n");
+        NotAvailable(h, data.NotAvailable);
+        EndSection(h);
+
+        Section(h, "inputs", "Inputs");
+        Table(h, ["input", "distribution", "unit", "source"], data.Inputs.Select(i => new[] { i.Name, i.Distribution, i.Unit, i.Source }));
+        EndSection(h);
+
+        Section(h, "findings", "Findings and repairs");
+        if (data.Findings.Count == 0) h.Append("<p>No finding recorded.</p>\n");
+        else
+        {
+            h.Append("<p>Every revision is listed; superseded revisions are struck through and are not used as evidence.</p>\n");
+            Table(h, ["reference", "date", "time (years)", "outcome", "method", "measured size (mm)", "revision", "recorded by", "reason"],
+                data.Findings.OrderBy(f => f.Date).ThenBy(f => f.Reference, StringComparer.Ordinal).ThenBy(f => f.Revision)
+                    .Select(f => new[]
+                    {
+                        f.Reference, Date(f.Date), Num(f.TimeYears, "0.00"), f.Outcome, f.Method,
+                        f.MeasuredSizeMm is { } m ? Num(m, "0.00") : "-", f.Revision.ToString(CultureInfo.InvariantCulture),
+                        f.RecordedBy, f.Reason ?? "-",
+                    }),
+                data.Findings.OrderBy(f => f.Date).ThenBy(f => f.Reference, StringComparer.Ordinal).ThenBy(f => f.Revision).Select(f => f.Superseded ? "superseded" : null).ToArray());
+        }
+
+        if (data.Repairs.Count > 0)
+        {
+            h.Append("<h3>Repairs</h3>\n");
+            Table(h, ["date", "time (years)", "description"], data.Repairs.Select(r => new[] { Date(r.Date), Num(r.TimeYears, "0.00"), r.Description }));
+        }
+
+        EndSection(h);
+
+        Section(h, "results", "Results");
+        h.Append("<p>Pf(t) is cumulative from entry into service; ΔPf(t) is the annual failure probability Pf(t) − Pf(t − 1); the hazard is ΔPf / (1 − Pf(t − 1)); β = −Φ⁻¹(Pf(t)). The route says how each number was computed.</p>\n");
+        foreach (var profile in new[] { data.Prior, data.Updated })
+        {
+            if (profile is null) continue;
+            h.Append("<h3>").Append(E(profile.Label)).Append("</h3>\n");
+            ProfileTable(h, profile);
+        }
+
+        if (data.Prior is null && data.Updated is null) h.Append("<p class=\"na\">No profile available.</p>\n");
+        if (data.PosteriorSummaries.Count > 0)
+        {
+            h.Append("<h3>Posterior of the inputs</h3>\n");
+            if (data.PosteriorRoute is not null) h.Append("<p>").Append(E(data.PosteriorRoute)).Append("</p>\n");
+            Table(h, ["input", "prior mean", "prior sd", "posterior mean", "posterior sd", "posterior 5 %", "posterior 95 %"],
+                data.PosteriorSummaries.Select(p => new[]
+                {
+                    p.Variable, G(p.PriorMean), G(p.PriorStandardDeviation), G(p.PosteriorMean), G(p.PosteriorStandardDeviation), G(p.Quantile05), G(p.Quantile95),
+                }));
+        }
+        EndSection(h);
+
+        Section(h, "plots", "Plots");
+        if (data.Prior is not null || data.Updated is not null)
+        {
+            var markers = new ChartMarkers(
+                data.Findings.Where(f => !f.Superseded).Select(f => f.TimeYears).Distinct().ToArray(),
+                data.Repairs.Select(r => r.TimeYears).ToArray(),
+                data.Plan?.Schedule.Select(s => s.TimeYears).ToArray() ?? []);
+            Figure(h, ReportCharts.Profile(ProfileQuantity.AnnualPf, data.Prior, data.Updated, data.Plan?.TargetAnnualPf, markers),
+                "Annual failure probability, prior (dashed) against updated (solid), with the target and the inspection, repair and planned-inspection times.");
+            Figure(h, ReportCharts.Profile(ProfileQuantity.Beta, data.Prior, data.Updated, null, markers),
+                "Reliability index β(t) of the cumulative failure probability.");
+            Figure(h, ReportCharts.Profile(ProfileQuantity.CumulativePf, data.Prior, data.Updated, null, markers),
+                "Cumulative failure probability Pf(t).");
+        }
+
+        if (data.Importance is not null) Figure(h, ReportCharts.Importance(data.Importance), "Importance factors α² at the design point: which inputs drive failure.");
+        if (data.PodCurves.Count > 0) Figure(h, ReportCharts.PodCurves(data.PodCurves), "Probability-of-detection curves of the inspection methods.");
+        foreach (var p in data.Posteriors.Where(p => p.Prior.Count + p.Posterior.Count >= 2))
+        {
+            Figure(h, ReportCharts.Posterior(p), "Prior and posterior samples of " + p.Variable + ".");
+        }
+
+        EndSection(h);
+
+        Section(h, "plan", "Inspection plan");
+        if (data.Plan is null) h.Append("<p class=\"na\">No plan: the planner was not run or is not available in this build.</p>\n");
+        else
+        {
+            h.Append("<p><strong>").Append(E(data.Plan.Status)).Append("</strong></p>\n<p>Target annual failure probability ")
+                .Append(E(ReportCharts.Probability(data.Plan.TargetAnnualPf))).Append(" per year (").Append(E(data.Plan.TargetSource)).Append(").</p>\n");
+            if (data.Plan.Schedule.Count > 0)
+            {
+                Table(h, ["#", "date", "time (years)", "method", "basis"],
+                    data.Plan.Schedule.Select((s, i) => new[] { (i + 1).ToString(CultureInfo.InvariantCulture), Date(s.Date), Num(s.TimeYears, "0.00"), s.Method, s.Basis }));
+            }
+
+            List(h, data.Plan.Notes);
+        }
+
+        EndSection(h);
+
+        Section(h, "assumptions", "Assumptions");
+        List(h, data.Assumptions.Count > 0 ? data.Assumptions : ["None stated."]);
+        EndSection(h);
+
+        Provenance(h, data.Provenance);
+        CautionSection(h);
+        h.Append("</main></body></html>\n");
+        return h.ToString();
+    }
+
+    /// <summary>The HTML page of the register: ranking, next due dates and links to the component pages.</summary>
+    public static string Portfolio(PortfolioReportData data)
+    {
+        ArgumentNullException.ThrowIfNull(data);
+        var h = new StringBuilder();
+        Head(h, data.Title);
+        h.Append("<header><div class=\"kicker\">Register integrity report</div><h1>").Append(E(data.Title))
+            .Append("</h1><div class=\"sub\">").Append(data.Rows.Count.ToString(CultureInfo.InvariantCulture)).Append(" components · evidence to ")
+            .Append(Date(data.Provenance.AssessedAsOf)).Append("</div></header>\n");
+        CautionBanner(h);
+
+        Section(h, "summary", "Summary");
+        var assessed = data.Rows.Where(r => r.CurrentAnnualPf is not null).ToArray();
+        h.Append("<div class=\"cards\">");
+        Card(h, "Components", data.Rows.Count.ToString(CultureInfo.InvariantCulture));
+        Card(h, "Assessed", assessed.Length.ToString(CultureInfo.InvariantCulture));
+        Card(h, "Target", data.TargetAnnualPf is { } t ? ReportCharts.Probability(t) + " per year" : "none");
+        var above = data.TargetAnnualPf is { } tt ? assessed.Count(r => r.CurrentAnnualPf >= tt) : 0;
+        Card(h, "At or above target now", above.ToString(CultureInfo.InvariantCulture));
+        h.Append("</div>\n");
+        NotAvailable(h, data.NotAvailable);
+        EndSection(h);
+
+        Section(h, "ranking", "Risk ranking");
+        if (data.Rows.Any(r => r.CurrentAnnualPf is not null && r.YearsToTarget is not null))
+        {
+            Figure(h, ReportCharts.RiskRanking(data.Rows, data.TargetAnnualPf),
+                "Current annual failure probability against the years left until it reaches the target; top left is most urgent.");
+        }
+        else h.Append("<p class=\"na\">No component has both a current annual Pf and a time to target.</p>\n");
+        Table(h, ["rank", "component", "site", "annual Pf now", "route", "years to target"],
+            data.Rows.OrderByDescending(r => r.CurrentAnnualPf ?? -1).Select((r, i) => new[]
+            {
+                (i + 1).ToString(CultureInfo.InvariantCulture), r.ComponentId, r.Site,
+                r.CurrentAnnualPf is { } p ? ReportCharts.Probability(p) : "not available", r.Route,
+                r.YearsToTarget is { } y ? (double.IsPositiveInfinity(y) ? "beyond horizon" : Num(y, "0.0")) : "-",
+            }));
+        EndSection(h);
+
+        Section(h, "due-dates", "Next due dates");
+        Table(h, ["next due", "component", "site", "status"],
+            data.Rows.OrderBy(r => r.NextDue ?? DateOnly.MaxValue).Select(r => new[]
+            {
+                r.NextDue is { } d ? Date(d) : "not planned", r.ComponentId, r.Site, r.Status,
+            }));
+        EndSection(h);
+
+        Section(h, "components", "Components");
+        h.Append("<ul>");
+        foreach (var r in data.Rows)
+        {
+            h.Append("<li>");
+            if (r.ReportFile is not null) h.Append("<a href=\"").Append(E(r.ReportFile)).Append("\">").Append(E(r.ComponentId)).Append("</a>");
+            else h.Append(E(r.ComponentId));
+            h.Append(" — ").Append(E(r.ComponentName)).Append(" (").Append(E(r.Site)).Append(")</li>");
+        }
+
+        h.Append("</ul>\n");
+        EndSection(h);
+
+        Section(h, "assumptions", "Assumptions");
+        List(h, data.Assumptions.Count > 0 ? data.Assumptions : ["None stated."]);
+        EndSection(h);
+        Provenance(h, data.Provenance);
+        CautionSection(h);
+        h.Append("</main></body></html>\n");
+        return h.ToString();
+    }
+
+    private static void ProfileTable(StringBuilder h, ReliabilityProfile profile)
+    {
+        // Long grids are thinned for reading; the CSV export carries every step.
+        var points = profile.Points;
+        var step = Math.Max(1, (int)Math.Ceiling(points.Count / 30.0));
+        var shown = points.Where((_, i) => i % step == 0 || i == points.Count - 1).ToArray();
+        Table(h, ["time (years)", "β", "Pf(t)", "ΔPf", "hazard", "route", "converged", "CoV", "note"],
+            shown.Select(p => new[]
+            {
+                Num(p.TimeYears, "0.##"), Num(p.Beta, "0.000"), ReportCharts.Probability(p.CumulativePf), ReportCharts.Probability(p.IntervalPf),
+                ReportCharts.Probability(p.Hazard), RouteName(p.Route), p.Converged ? "yes" : "NO",
+                p.CoefficientOfVariation is { } c ? Num(c, "0.000") : "-", p.Note ?? string.Empty,
+            }),
+            shown.Select(p => p.Converged ? null : "not-converged").ToArray());
+        if (step > 1) h.Append("<p class=\"small\">Every ").Append(step.ToString(CultureInfo.InvariantCulture)).Append("th step shown; the CSV export has all ").Append(points.Count.ToString(CultureInfo.InvariantCulture)).Append(".</p>\n");
+        if (!profile.AllConverged) h.Append("<p class=\"na\">Some steps did not converge: their numbers are best estimates only and must not be relied on.</p>\n");
+    }
+
+    /// <summary>Human-readable name of a route.</summary>
+    public static string RouteName(ComputationRoute route) => route switch
+    {
+        ComputationRoute.FirstOrder => "first order",
+        ComputationRoute.SecondOrder => "second order",
+        ComputationRoute.MonteCarlo => "Monte Carlo",
+        ComputationRoute.ImportanceSampling => "importance sampling",
+        ComputationRoute.SubsetSimulation => "subset simulation",
+        ComputationRoute.Exact => "exact",
+        _ => route.ToString(),
+    };
+
+    /// <summary>Route, convergence and CoV of one point in words.</summary>
+    public static string RouteText(ProfilePoint p) =>
+        RouteName(p.Route) + (p.Converged ? ", converged" : ", NOT converged")
+        + (p.CoefficientOfVariation is { } c ? ", CoV " + Num(c, "0.000") : string.Empty);
+
+    /// <summary>The point of <paramref name="profile"/> at the first time at or after <paramref name="timeYears"/> (the last point beyond the grid).</summary>
+    public static ProfilePoint? PointAt(ReliabilityProfile profile, double timeYears)
+    {
+        ArgumentNullException.ThrowIfNull(profile);
+        return profile.Points.FirstOrDefault(p => p.TimeYears >= timeYears) ?? (profile.Points.Count > 0 ? profile.Points[^1] : null);
+    }
+
+    private static double YearsSince(DateOnly from, DateOnly to) => (to.DayNumber - from.DayNumber) / 365.2425;
+
+    private static void Head(StringBuilder h, string title)
+    {
+        h.Append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"><meta name=\"viewport\" content=\"width=device-width, initial-scale=1\"><title>")
+            .Append(E(title)).Append("</title>\n<style>\n").Append(Css).Append("</style></head><body><main>\n");
+    }
+
+    private const string Css = """
+        body { font-family: "DejaVu Sans", "Segoe UI", Helvetica, Arial, sans-serif; color: #1f2430; background: #f4f5f7; margin: 0; }
+        main { max-width: 1000px; margin: 0 auto; background: #fff; padding: 24px 36px 48px; }
+        header { border-left: 8px solid #3d5a80; padding: 4px 0 4px 16px; margin-bottom: 16px; }
+        .kicker { text-transform: uppercase; letter-spacing: 0.12em; font-size: 12px; color: #5b6275; }
+        h1 { margin: 4px 0; font-size: 26px; } .sub { color: #5b6275; }
+        h2 { border-bottom: 2px solid #d9dce3; padding-bottom: 4px; margin-top: 32px; font-size: 20px; }
+        h3 { font-size: 16px; margin-bottom: 6px; }
+        .banner { background: #fff6e8; border: 1px solid #e07a1f; padding: 8px 12px; font-size: 14px; }
+        .cards { display: flex; flex-wrap: wrap; gap: 12px; }
+        .card { border: 1px solid #d9dce3; border-top: 4px solid #e07a1f; padding: 8px 14px; min-width: 190px; }
+        .card .k { font-size: 12px; color: #5b6275; } .card .v { font-size: 18px; font-weight: bold; }
+        table { border-collapse: collapse; width: 100%; font-size: 13px; margin: 8px 0; }
+        th { text-align: left; background: #eef0f4; border-bottom: 2px solid #3d5a80; padding: 4px 6px; }
+        td { border-bottom: 1px solid #e3e5ea; padding: 3px 6px; font-variant-numeric: tabular-nums; }
+        tr.superseded td { text-decoration: line-through; color: #8a8d91; }
+        tr.not-converged td { background: #fbe9ec; }
+        figure { margin: 16px 0; page-break-inside: avoid; } figure img { width: 100%; border: 1px solid #e3e5ea; }
+        figcaption { font-size: 13px; color: #5b6275; }
+        .na { color: #9b2335; font-weight: bold; } .small { font-size: 12px; color: #5b6275; }
+        dl { display: grid; grid-template-columns: max-content auto; gap: 4px 16px; } dt { font-weight: bold; }
+        @media print { body { background: #fff; } main { padding: 0; max-width: none; } h2 { page-break-after: avoid; } }
+
+        """;
+
+    private static void CautionBanner(StringBuilder h) =>
+        h.Append("<p class=\"banner\">").Append(E(Cautions.Line)).Append(" See <a href=\"#cautions\">Cautions</a>.</p>\n");
+
+    private static void CautionSection(StringBuilder h)
+    {
+        Section(h, "cautions", "Cautions");
+        foreach (var p in Cautions.Paragraphs) h.Append("<p>").Append(E(p)).Append("</p>\n");
+        EndSection(h);
+    }
+
+    private static void Provenance(StringBuilder h, ReportProvenance p)
+    {
+        Section(h, "provenance", "Provenance");
+        h.Append("<dl><dt>Tool</dt><dd>InspectionUpdate ").Append(E(p.ToolVersion)).Append("</dd><dt>Source</dt><dd>").Append(E(p.Source))
+            .Append("</dd><dt>Fingerprint</dt><dd><code>").Append(E(p.RegisterFingerprint)).Append("</code></dd><dt>Evidence to</dt><dd>")
+            .Append(Date(p.AssessedAsOf)).Append("</dd><dt>Generated</dt><dd>")
+            .Append(E(p.GeneratedAtUtc.UtcDateTime.ToString("yyyy-MM-dd'T'HH:mm:ss'Z'", CultureInfo.InvariantCulture))).Append("</dd></dl>\n")
+            .Append("<p class=\"small\">The same tool version on a register with the same fingerprint reproduces these numbers.</p>\n");
+        EndSection(h);
+    }
+
+    private static void NotAvailable(StringBuilder h, IReadOnlyList<string> items)
+    {
+        if (items.Count == 0) return;
+        h.Append("<div class=\"na-list\"><p class=\"na\">Not available in this build:</p>");
+        List(h, items);
+        h.Append("</div>\n");
+    }
+
+    private static void Section(StringBuilder h, string id, string title) =>
+        h.Append("<section id=\"").Append(id).Append("\"><h2>").Append(E(title)).Append("</h2>\n");
+
+    private static void EndSection(StringBuilder h) => h.Append("</section>\n");
+
+    private static void Card(StringBuilder h, string key, string value) =>
+        h.Append("<div class=\"card\"><div class=\"k\">").Append(E(key)).Append("</div><div class=\"v\">").Append(E(value)).Append("</div></div>");
+
+    private static void Figure(StringBuilder h, byte[] png, string caption) =>
+        h.Append("<figure><img alt=\"").Append(E(caption)).Append("\" src=\"data:image/png;base64,").Append(Convert.ToBase64String(png))
+            .Append("\"><figcaption>").Append(E(caption)).Append("</figcaption></figure>\n");
+
+    private static void List(StringBuilder h, IEnumerable<string> items)
+    {
+        h.Append("<ul>");
+        foreach (var i in items) h.Append("<li>").Append(E(i)).Append("</li>");
+        h.Append("</ul>\n");
+    }
+
+    private static void Table(StringBuilder h, IReadOnlyList<string> headers, IEnumerable<string[]> rows, string?[]? rowClasses = null)
+    {
+        h.Append("<table><thead><tr>");
+        foreach (var c in headers) h.Append("<th>").Append(E(c)).Append("</th>");
+        h.Append("</tr></thead><tbody>\n");
+        var i = 0;
+        foreach (var r in rows)
+        {
+            var cls = rowClasses is not null && i < rowClasses.Length ? rowClasses[i] : null;
+            h.Append(cls is null ? "<tr>" : "<tr class=\"" + cls + "\">");
+            foreach (var c in r) h.Append("<td>").Append(E(c)).Append("</td>");
+            h.Append("</tr>\n");
+            i++;
+        }
+
+        h.Append("</tbody></table>\n");
+    }
+
+    private static string E(string s) => WebUtility.HtmlEncode(s);
+
+    private static string Date(DateOnly d) => d.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
+
+    private static string G(double v) => v.ToString("G4", CultureInfo.InvariantCulture);
+
+    private static string Num(double v, string format) => v.ToString(format, CultureInfo.InvariantCulture);
+}

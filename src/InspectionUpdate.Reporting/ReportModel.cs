@@ -1,0 +1,198 @@
+using InspectionUpdate.Reliability;
+
+namespace InspectionUpdate.Reporting;
+
+/// <summary>Where a report's numbers come from, so that they can be reproduced.</summary>
+/// <param name="ToolVersion">Version of InspectionUpdate that produced the report.</param>
+/// <param name="RegisterFingerprint">Fingerprint of the register state (or of the model and findings files) the numbers were computed from.</param>
+/// <param name="Source">The register file or the model file, as the user named it.</param>
+/// <param name="GeneratedAtUtc">When the report was written (UTC).</param>
+/// <param name="AssessedAsOf">The date the evidence was taken up to.</param>
+public sealed record ReportProvenance(string ToolVersion, string RegisterFingerprint, string Source, DateTimeOffset GeneratedAtUtc, DateOnly AssessedAsOf);
+
+/// <summary>One uncertain or fixed input of a component model, as the report states it.</summary>
+/// <param name="Name">Input name with its unit in the name, e.g. "rate_mmPerYear".</param>
+/// <param name="Distribution">Distribution and parameters in words, e.g. "lognormal, mean 0.20, CoV 0.30".</param>
+/// <param name="Unit">Unit, e.g. "mm/year"; "-" when dimensionless.</param>
+/// <param name="Source">Where the value comes from (a standard, a data set, a judgement).</param>
+public sealed record ReportInput(string Name, string Distribution, string Unit, string Source);
+
+/// <summary>One revision of one finding, as recorded in the register.</summary>
+/// <param name="Reference">Finding identifier with revision, e.g. "F-12 r2".</param>
+/// <param name="Date">Inspection date.</param>
+/// <param name="TimeYears">Years since the component entered service.</param>
+/// <param name="Outcome">"no indication", "indication, not sized", "sized indication", "in service".</param>
+/// <param name="Method">Inspection method name, or "-".</param>
+/// <param name="MeasuredSizeMm">Measured size for a sized indication, else null.</param>
+/// <param name="Revision">Revision number, 1 for the first record.</param>
+/// <param name="RecordedBy">Who recorded this revision.</param>
+/// <param name="Reason">Why this revision was made (null for the first).</param>
+/// <param name="Superseded">True when a later revision replaces this one (it is then not used as evidence).</param>
+public sealed record ReportFinding(string Reference, DateOnly Date, double TimeYears, string Outcome, string Method,
+    double? MeasuredSizeMm, int Revision, string RecordedBy, string? Reason, bool Superseded);
+
+/// <summary>A repair of the component.</summary>
+/// <param name="Date">Repair date.</param>
+/// <param name="TimeYears">Years since the component entered service.</param>
+/// <param name="Description">What was done.</param>
+public sealed record ReportRepair(DateOnly Date, double TimeYears, string Description);
+
+/// <summary>A probability-of-detection curve sampled for plotting.</summary>
+/// <param name="Method">Method name.</param>
+/// <param name="SizesMm">Defect sizes (mm), increasing.</param>
+/// <param name="Probabilities">PoD at each size, in [0, 1].</param>
+public sealed record ReportPodCurve(string Method, IReadOnlyList<double> SizesMm, IReadOnlyList<double> Probabilities);
+
+/// <summary>Samples of one input before and after updating (e.g. from the simulation route).</summary>
+/// <param name="Variable">Input name with unit.</param>
+/// <param name="Prior">Prior samples.</param>
+/// <param name="Posterior">Posterior samples.</param>
+/// <param name="Route">How the posterior samples were drawn.</param>
+public sealed record ReportPosterior(string Variable, IReadOnlyList<double> Prior, IReadOnlyList<double> Posterior, string Route);
+
+/// <summary>Prior and posterior summary of one input, as the updater reports it.</summary>
+/// <param name="Variable">Input name with unit.</param>
+/// <param name="PriorMean">Prior mean.</param>
+/// <param name="PriorStandardDeviation">Prior standard deviation.</param>
+/// <param name="PosteriorMean">Posterior mean.</param>
+/// <param name="PosteriorStandardDeviation">Posterior standard deviation.</param>
+/// <param name="Quantile05">Posterior 5 % quantile.</param>
+/// <param name="Quantile95">Posterior 95 % quantile.</param>
+public sealed record ReportPosteriorSummary(string Variable, double PriorMean, double PriorStandardDeviation, double PosteriorMean,
+    double PosteriorStandardDeviation, double Quantile05, double Quantile95);
+
+/// <summary>Importance factors at one time: α² per input (they sum to 1 for independent inputs).</summary>
+/// <param name="TimeYears">Time of the design point.</param>
+/// <param name="Names">Input names.</param>
+/// <param name="Values">Importance factors in [0, 1].</param>
+/// <param name="Label">e.g. "prior, design point at 20 years".</param>
+public sealed record ReportImportance(double TimeYears, IReadOnlyList<string> Names, IReadOnlyList<double> Values, string Label);
+
+/// <summary>One inspection proposed by the plan.</summary>
+/// <param name="TimeYears">Years since entry into service.</param>
+/// <param name="Date">Calendar date.</param>
+/// <param name="Method">Method assumed.</param>
+/// <param name="Basis">Why it is due then, e.g. "annual Pf reaches 1e-4".</param>
+public sealed record ReportPlannedInspection(double TimeYears, DateOnly Date, string Method, string Basis);
+
+/// <summary>The plan of a component as the report states it.</summary>
+/// <param name="TargetAnnualPf">Target annual failure probability ΔPf per year.</param>
+/// <param name="TargetSource">Where the target comes from.</param>
+/// <param name="Schedule">Planned inspections in time order (the first is the next due).</param>
+/// <param name="Status">One-line status, e.g. "next inspection due 2029-04-17".</param>
+/// <param name="Notes">Assumptions of the plan (e.g. "each planned inspection finds nothing").</param>
+public sealed record ReportPlan(double TargetAnnualPf, string TargetSource, IReadOnlyList<ReportPlannedInspection> Schedule,
+    string Status, IReadOnlyList<string> Notes);
+
+/// <summary>Everything one component report shows. Missing pieces are null and the report says they are not available.</summary>
+public sealed record ComponentReportData
+{
+    /// <summary>Component identifier, e.g. "WI-07".</summary>
+    public required string ComponentId { get; init; }
+
+    /// <summary>Descriptive name.</summary>
+    public required string ComponentName { get; init; }
+
+    /// <summary>Site name.</summary>
+    public required string Site { get; init; }
+
+    /// <summary>Degradation model name and version.</summary>
+    public required string Model { get; init; }
+
+    /// <summary>Date the component entered service (time zero of every profile).</summary>
+    public required DateOnly InServiceDate { get; init; }
+
+    /// <summary>Model inputs.</summary>
+    public required IReadOnlyList<ReportInput> Inputs { get; init; }
+
+    /// <summary>Every revision of every finding.</summary>
+    public IReadOnlyList<ReportFinding> Findings { get; init; } = [];
+
+    /// <summary>Repairs.</summary>
+    public IReadOnlyList<ReportRepair> Repairs { get; init; } = [];
+
+    /// <summary>Prior profile (no inspection evidence).</summary>
+    public ReliabilityProfile? Prior { get; init; }
+
+    /// <summary>Profile updated with the findings and repairs.</summary>
+    public ReliabilityProfile? Updated { get; init; }
+
+    /// <summary>Importance factors.</summary>
+    public ReportImportance? Importance { get; init; }
+
+    /// <summary>PoD curves of the methods used or planned.</summary>
+    public IReadOnlyList<ReportPodCurve> PodCurves { get; init; } = [];
+
+    /// <summary>Posterior samples of updated inputs.</summary>
+    public IReadOnlyList<ReportPosterior> Posteriors { get; init; } = [];
+
+    /// <summary>Posterior summaries of the inputs (means, deviations, quantiles).</summary>
+    public IReadOnlyList<ReportPosteriorSummary> PosteriorSummaries { get; init; } = [];
+
+    /// <summary>How the posterior summaries were obtained (route, samples, convergence), or null.</summary>
+    public string? PosteriorRoute { get; init; }
+
+    /// <summary>The plan.</summary>
+    public ReportPlan? Plan { get; init; }
+
+    /// <summary>Assumptions behind the numbers.</summary>
+    public IReadOnlyList<string> Assumptions { get; init; } = [];
+
+    /// <summary>Parts the tool could not compute in this build, each as a sentence.</summary>
+    public IReadOnlyList<string> NotAvailable { get; init; } = [];
+
+    /// <summary>Provenance.</summary>
+    public required ReportProvenance Provenance { get; init; }
+}
+
+/// <summary>One row of the register (portfolio) report.</summary>
+/// <param name="ComponentId">Component identifier.</param>
+/// <param name="ComponentName">Name.</param>
+/// <param name="Site">Site.</param>
+/// <param name="CurrentAnnualPf">Updated annual failure probability ΔPf in the year of the assessment date; null when not computed.</param>
+/// <param name="Route">Route of that number, e.g. "first order, converged".</param>
+/// <param name="YearsToTarget">Years from the assessment date until the updated ΔPf reaches the target without further inspection; null when not computed, +∞ when never within the horizon.</param>
+/// <param name="NextDue">Date of the next inspection proposed by the plan; null when not planned.</param>
+/// <param name="Status">One-line status.</param>
+/// <param name="ReportFile">File name of the component report, relative to the portfolio report, or null.</param>
+public sealed record PortfolioRow(string ComponentId, string ComponentName, string Site, double? CurrentAnnualPf, string Route,
+    double? YearsToTarget, DateOnly? NextDue, string Status, string? ReportFile);
+
+/// <summary>Everything the register report shows.</summary>
+public sealed record PortfolioReportData
+{
+    /// <summary>Title, e.g. the register name.</summary>
+    public required string Title { get; init; }
+
+    /// <summary>One row per component.</summary>
+    public required IReadOnlyList<PortfolioRow> Rows { get; init; }
+
+    /// <summary>Target annual failure probability used for ranking and plans.</summary>
+    public double? TargetAnnualPf { get; init; }
+
+    /// <summary>Assumptions behind the numbers.</summary>
+    public IReadOnlyList<string> Assumptions { get; init; } = [];
+
+    /// <summary>Parts not available in this build.</summary>
+    public IReadOnlyList<string> NotAvailable { get; init; } = [];
+
+    /// <summary>Provenance.</summary>
+    public required ReportProvenance Provenance { get; init; }
+}
+
+/// <summary>Wording that every user-facing output carries.</summary>
+public static class Cautions
+{
+    /// <summary>The one-line caution printed under results in the terminal.</summary>
+    public const string Line =
+        "Caution: these results support, and never replace, engineering judgement; defer to the applicable codes and licensed practice.";
+
+    /// <summary>The cautions of a report, one paragraph each.</summary>
+    public static IReadOnlyList<string> Paragraphs { get; } =
+    [
+        "The results in this report support, and never replace, the judgement of a competent engineer.",
+        "Defer to the applicable design and assessment codes, to the operator's integrity management system and to licensed professional practice.",
+        "Check every model input, every finding and every result before acting on it. A number marked as not converged is a best estimate only.",
+        "Probabilities depend on the model and on the inputs stated here; they are not frequencies observed in service.",
+    ];
+}
