@@ -1,3 +1,4 @@
+using InspectionUpdate.Inspection;
 using InspectionUpdate.Probability;
 using InspectionUpdate.Reliability;
 using InspectionUpdate.Updating;
@@ -13,7 +14,7 @@ namespace InspectionUpdate.Tests.Updating;
 public class CrackGrowthNoIndicationTests
 {
     private const double InspectionYears = 10, AssessYears = 20;
-    private static readonly ProbitPod Pod = new(Math.Log(1.5), 0.5);
+    private static readonly CumulativeLognormalPod Pod = new(Math.Log(1.5), 0.5);
 
     private static (double P, double Se, double Evidence) LikelihoodWeightedMonteCarlo(int samples, int seed)
     {

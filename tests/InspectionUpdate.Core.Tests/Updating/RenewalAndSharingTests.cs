@@ -10,7 +10,7 @@ namespace InspectionUpdate.Tests.Updating;
 public class RenewalAndSharingTests
 {
     private const double D0Mean = 1.0, D0Sd = 0.3, RMean = 0.25, RSd = 0.08, CriticalMm = 8.0;
-    private static readonly InspectionMethod Ut = TestModels.Method(new ProbitPod(0, 0.4), SizingErrorKind.AdditiveNormal, 0, 0.25);
+    private static readonly InspectionMethod Ut = TestModels.Method(new CumulativeLognormalPod(0, 0.4), SizingErrorKind.AdditiveNormal, 0, 0.25);
     private static readonly (double T, double Mm)[] Readings = [(5, 2.6), (10, 4.1)];
 
     private static TestDegradationModel Model() => TestModels.LinearDepth(D0Mean, D0Sd, RMean, RSd, CriticalMm);

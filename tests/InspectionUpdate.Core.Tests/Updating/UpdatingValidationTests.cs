@@ -7,7 +7,7 @@ namespace InspectionUpdate.Tests.Updating;
 [Reference("Common practice, no source: bad input is refused at the public boundary with the field named")]
 public class UpdatingValidationTests
 {
-    private static readonly InspectionMethod Ut = TestModels.Method(new ProbitPod(0, 0.4));
+    private static readonly InspectionMethod Ut = TestModels.Method(new CumulativeLognormalPod(0, 0.4));
 
     private static TestDegradationModel Model() => TestModels.LinearDepth(1, 0.3, 0.25, 0.08, 8);
 

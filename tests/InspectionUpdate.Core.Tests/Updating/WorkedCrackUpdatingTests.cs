@@ -14,7 +14,7 @@ namespace InspectionUpdate.Tests.Updating;
 public class WorkedCrackUpdatingTests
 {
     private static readonly double Ln05 = Math.Log(0.5), Ln2 = Math.Log(2), Ln20 = Math.Log(20);
-    private static readonly InspectionMethod Mpi = TestModels.Method(new ProbitPod(Math.Log(2), 0.5), SizingErrorKind.MultiplicativeLognormal, 0, 0.25);
+    private static readonly InspectionMethod Mpi = TestModels.Method(new CumulativeLognormalPod(Math.Log(2), 0.5), SizingErrorKind.MultiplicativeLognormal, 0, 0.25);
 
     // Y = ln a(t) − ln a_c (failure when > 0), W = ln a(10) − ln A_d (no detection when < 0).
     private static (double MuY, double SdY) Failure(double t) => (Ln05 + 0.10 * t - Ln20, Math.Sqrt(0.25 + t * t * 0.0004));
