@@ -20,7 +20,7 @@ namespace InspectionUpdate.Planning;
 /// each planned inspection finds nothing (JCSS Probabilistic Model Code Part 1, Annex B event-tree updating with
 /// the "no indication" branch).
 /// </remarks>
-public sealed class InspectionPlanner
+public sealed partial class InspectionPlanner
 {
     /// <summary>The caution every user-facing planning output carries.</summary>
     public const string Caution =
