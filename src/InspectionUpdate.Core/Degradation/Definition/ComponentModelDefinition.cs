@@ -224,6 +224,9 @@ public sealed class ComponentModelDefinition
     /// <summary>Walks the JSON, collecting every problem instead of stopping at the first.</summary>
     private sealed class Reader(List<DefinitionProblem> problems)
     {
+        // Every input name written in the file, valid or not, so one bad input is not also reported as missing.
+        private readonly HashSet<string> _declared = new(StringComparer.Ordinal);
+
         private static readonly string[] TopKeys = ["schemaVersion", "name", "description", "serviceLife_years", "mechanism", "inputs", "correlations"];
 
         public ComponentModelDefinition? Read(JsonElement root, string json)
@@ -460,6 +463,7 @@ public sealed class ComponentModelDefinition
             foreach (var prop in o.Value.EnumerateObject())
             {
                 var path = $"$.inputs.{prop.Name}";
+                _declared.Add(prop.Name);
                 var spec = ReadInput(prop.Name, prop.Value, path);
                 if (spec is null) continue;
                 try
@@ -472,7 +476,7 @@ public sealed class ComponentModelDefinition
                     var param = e.ParamName;
                     var at = param is not null && spec.Parameters.ContainsKey(param) ? $"{path}.{param}" : param == "family" ? $"{path}.family" : path;
                     var value = param is not null && spec.Parameters.TryGetValue(param, out var pv) ? pv.ToString("R", CultureInfo.InvariantCulture) : null;
-                    Add(at, value, e.Message);
+                    Add(at, value, WithoutParameterSuffix(e));
                 }
             }
 
@@ -480,7 +484,7 @@ public sealed class ComponentModelDefinition
             {
                 foreach (var s in CrackGrowthPresets.All[preset].Inputs)
                 {
-                    if (list.All(i => i.Name != s.Name)) list.Add(s);
+                    if (_declared.Add(s.Name)) list.Add(s);
                 }
             }
 
@@ -557,7 +561,7 @@ public sealed class ComponentModelDefinition
 
                 foreach (var n in between)
                 {
-                    if (inputs is not null && inputs.All(s => s.Name != n)) Add($"{path}.between", n, "is not one of the inputs");
+                    if (inputs is not null && !_declared.Contains(n)) Add($"{path}.between", n, "is not one of the inputs");
                 }
 
                 var key = string.CompareOrdinal(between[0], between[1]) < 0 ? (between[0], between[1]) : (between[1], between[0]);
@@ -614,14 +618,14 @@ public sealed class ComponentModelDefinition
             };
             if (expected is not null)
             {
-                foreach (var e in expected.Where(e => e.Required && inputs.All(i => i.Name != e.Name)))
+                foreach (var e in expected.Where(e => e.Required && !_declared.Contains(e.Name)))
                 {
                     Add("$.inputs", null, $"required input '{e.Name}' ({e.Meaning}, {e.Unit}) is missing");
                 }
 
-                foreach (var i in inputs.Where(i => expected.All(e => e.Name != i.Name)))
+                foreach (var name in _declared.Where(n => expected.All(e => e.Name != n)))
                 {
-                    Add($"$.inputs.{i.Name}", null, $"this mechanism does not use '{i.Name}' (it reads: {string.Join(", ", expected.Select(e => e.Name))})");
+                    Add($"$.inputs.{name}", null, $"this mechanism does not use '{name}' (it reads: {string.Join(", ", expected.Select(e => e.Name))})");
                 }
 
                 return;
@@ -629,9 +633,9 @@ public sealed class ComponentModelDefinition
 
             if (kind == MechanismKind.Expression && expr is not null)
             {
-                if (inputs.Count == 0) Add("$.inputs", null, "an expression model needs at least one input");
-                foreach (var r in expr.RenewedOnRepair.Where(r => inputs.All(i => i.Name != r))) Add("$.mechanism.renewedOnRepair", r, "is not one of the inputs");
-                if (expr.AnnualMaximumInput is { } am && inputs.All(i => i.Name != am)) Add("$.mechanism.annualMaximumInput", am, "is not one of the inputs");
+                if (_declared.Count == 0) Add("$.inputs", null, "an expression model needs at least one input");
+                foreach (var r in expr.RenewedOnRepair.Where(r => !_declared.Contains(r))) Add("$.mechanism.renewedOnRepair", r, "is not one of the inputs");
+                if (expr.AnnualMaximumInput is { } am && !_declared.Contains(am)) Add("$.mechanism.annualMaximumInput", am, "is not one of the inputs");
             }
         }
 
@@ -688,7 +692,7 @@ public sealed class ComponentModelDefinition
 
             if (!allowed.Contains(s))
             {
-                Add($"{path}.{key}", s, $"must be one of: {string.Join(", ", allowed)}");
+                Add($"{path}.{key}", o.GetProperty(key), $"must be one of: {string.Join(", ", allowed)}");
                 return null;
             }
 
@@ -760,6 +764,13 @@ public sealed class ComponentModelDefinition
             problems.Add(new DefinitionProblem(path, Render(value), message));
 
         private void Add(string path, string? value, string message) => problems.Add(new DefinitionProblem(path, value, message));
+
+        private static string WithoutParameterSuffix(ArgumentException e)
+        {
+            var m = e.Message;
+            var i = m.LastIndexOf(" (Parameter '", StringComparison.Ordinal);
+            return i > 0 ? m[..i] : m;
+        }
 
         private static string Render(JsonElement v)
         {
