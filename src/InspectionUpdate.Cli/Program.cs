@@ -1,3 +1,4 @@
-// Placeholder entry point until the command line lands.
-System.Console.WriteLine("inspection-update: command line under construction.");
-return 0;
+using InspectionUpdate.Cli;
+using InspectionUpdate.Cli.Infrastructure;
+
+return CliApp.Run(args, CliHost.FromProcess());

@@ -50,6 +50,17 @@ public sealed record ReportPodCurve(string Method, IReadOnlyList<double> SizesMm
 /// <param name="Route">How the posterior samples were drawn.</param>
 public sealed record ReportPosterior(string Variable, IReadOnlyList<double> Prior, IReadOnlyList<double> Posterior, string Route);
 
+/// <summary>Prior and posterior summary of one input, as the updater reports it.</summary>
+/// <param name="Variable">Input name with unit.</param>
+/// <param name="PriorMean">Prior mean.</param>
+/// <param name="PriorStandardDeviation">Prior standard deviation.</param>
+/// <param name="PosteriorMean">Posterior mean.</param>
+/// <param name="PosteriorStandardDeviation">Posterior standard deviation.</param>
+/// <param name="Quantile05">Posterior 5 % quantile.</param>
+/// <param name="Quantile95">Posterior 95 % quantile.</param>
+public sealed record ReportPosteriorSummary(string Variable, double PriorMean, double PriorStandardDeviation, double PosteriorMean,
+    double PosteriorStandardDeviation, double Quantile05, double Quantile95);
+
 /// <summary>Importance factors at one time: α² per input (they sum to 1 for independent inputs).</summary>
 /// <param name="TimeYears">Time of the design point.</param>
 /// <param name="Names">Input names.</param>
@@ -114,6 +125,12 @@ public sealed record ComponentReportData
 
     /// <summary>Posterior samples of updated inputs.</summary>
     public IReadOnlyList<ReportPosterior> Posteriors { get; init; } = [];
+
+    /// <summary>Posterior summaries of the inputs (means, deviations, quantiles).</summary>
+    public IReadOnlyList<ReportPosteriorSummary> PosteriorSummaries { get; init; } = [];
+
+    /// <summary>How the posterior summaries were obtained (route, samples, convergence), or null.</summary>
+    public string? PosteriorRoute { get; init; }
 
     /// <summary>The plan.</summary>
     public ReportPlan? Plan { get; init; }

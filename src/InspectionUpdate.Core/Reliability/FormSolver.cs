@@ -20,7 +20,9 @@ namespace InspectionUpdate.Reliability;
 /// </para>
 /// <para>
 /// Convergence: |G(u)|/G_scale ≤ <see cref="FormOptions.LimitStateTolerance"/> and
-/// ‖u − (αᵀu)α‖ ≤ <see cref="FormOptions.AlignmentTolerance"/>·max(‖u‖, 1). The result is signed:
+/// ‖u − (αᵀu)α‖ ≤ <see cref="FormOptions.AlignmentTolerance"/>·max(‖u‖, 1), and, as a guard against limit states
+/// that decay towards zero without crossing it, the distance to the linearized surface |G|/‖∇G‖ ≤ 10⁻³·max(‖u‖, 1).
+/// The result is signed:
 /// β = αᵀu* is negative when G(0) &lt; 0. A run that stops for any other reason (iteration cap, zero or non-finite
 /// gradient, non-finite limit state, failed line search) returns its last iterate with
 /// <see cref="FormResult.Converged"/> false and a <see cref="FormResult.Diagnostic"/>.
@@ -32,6 +34,7 @@ public static class FormSolver
     private const double ArmijoShrink = 0.5;
     private const int MaxLineSearchSteps = 30;
     private const double PenaltyFactor = 2.0;
+    private const double SurfaceDistanceGuard = 1e-3;
 
     /// <summary>Runs FORM. Never throws for non-convergence: check <see cref="FormResult.Converged"/>.</summary>
     /// <param name="problem">The random inputs, their transformation and the limit state.</param>
@@ -146,18 +149,23 @@ public static class FormSolver
 
                 var gradNorm = Math.Sqrt(gradNorm2);
                 alignment = AlignmentResidual(u, grad, gradNorm);
+                var uNorm = Norm(u);
                 if (Math.Abs(g) / gScale <= _options.LimitStateTolerance
-                    && alignment <= _options.AlignmentTolerance * Math.Max(Norm(u), 1.0))
+                    && alignment <= _options.AlignmentTolerance * Math.Max(uNorm, 1.0))
                 {
-                    converged = true;
-                    break;
+                    // Guard: a small |G| far from the linearized surface (|G|/‖∇G‖ is that distance in u) means G
+                    // decays without crossing zero, as exp(u) does; keep iterating so the run reports it.
+                    if (Math.Abs(g) / gradNorm <= SurfaceDistanceGuard * Math.Max(uNorm, 1.0))
+                    {
+                        converged = true;
+                        break;
+                    }
                 }
 
                 if (iterations >= _options.MaxIterations)
                 {
                     diagnostic = Invariant(
                         $"No convergence within {_options.MaxIterations} iterations: |G|/G_scale = {Math.Abs(g) / gScale:G3}, alignment residual = {alignment:G3}, ‖u‖ = {Norm(u):G6}.");
-                    if (Norm(u) > 10) diagnostic += " ‖u‖ keeps growing: the limit state may never reach zero.";
                     break;
                 }
 
@@ -212,7 +220,7 @@ public static class FormSolver
                 if (!accepted)
                 {
                     diagnostic = sawFinite
-                        ? Invariant($"The line search found no step that lowers the merit function at iteration {iterations} (|G|/G_scale = {Math.Abs(g) / gScale:G3}, alignment residual = {alignment:G3}).")
+                        ? Invariant($"The line search found no step that lowers the merit function at iteration {iterations} (|G|/G_scale = {Math.Abs(g) / gScale:G3}, alignment residual = {alignment:G3}, ‖∇G‖ = {gradNorm:G3}).")
                         : Invariant($"The line search found no point with a finite limit-state value at iteration {iterations}.");
                     break;
                 }
@@ -223,6 +231,13 @@ public static class FormSolver
                 g = gTrial;
                 gradientOk = GradientU(u, x, g, gradX, grad);
                 iterations++;
+            }
+
+            if (!converged)
+            {
+                // Hints for the usual cause: a limit state that never reaches zero.
+                if (Norm(u) > 10) diagnostic += " ‖u‖ is far out: the limit state may never reach zero.";
+                else if (Math.Abs(g) / gScale > 0.1) diagnostic += " |G| stays far from zero: the limit state may never reach zero.";
             }
 
             return BuildResult(u, x, g, grad, iterations, converged, diagnostic);

@@ -5,7 +5,14 @@ namespace InspectionUpdate.TimeVariant;
 /// <param name="TimeYears">The crossing time (years), or the window end when not found.</param>
 /// <param name="AlreadyExceededAtStart">True when the function is already at or above the target at the window start.</param>
 /// <param name="Evaluations">Function evaluations used.</param>
-public sealed record CrossingResult(bool Found, double TimeYears, bool AlreadyExceededAtStart, int Evaluations);
+public sealed record CrossingResult(bool Found, double TimeYears, bool AlreadyExceededAtStart, int Evaluations)
+{
+    /// <summary>False when some evaluation of the time function did not converge (e.g. a FORM run); the crossing is then a best estimate.</summary>
+    public bool Converged { get; init; } = true;
+
+    /// <summary>Why the crossing is not fully trustworthy, or null.</summary>
+    public string? Note { get; init; }
+}
 
 /// <summary>
 /// Finds the first time t in [start, end] with f(t) ≥ target by scanning a grid (to catch the first crossing, not

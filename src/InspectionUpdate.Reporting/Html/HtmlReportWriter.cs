@@ -87,6 +87,16 @@ public static class HtmlReportWriter
         }
 
         if (data.Prior is null && data.Updated is null) h.Append("<p class=\"na\">No profile available.</p>\n");
+        if (data.PosteriorSummaries.Count > 0)
+        {
+            h.Append("<h3>Posterior of the inputs</h3>\n");
+            if (data.PosteriorRoute is not null) h.Append("<p>").Append(E(data.PosteriorRoute)).Append("</p>\n");
+            Table(h, ["input", "prior mean", "prior sd", "posterior mean", "posterior sd", "posterior 5 %", "posterior 95 %"],
+                data.PosteriorSummaries.Select(p => new[]
+                {
+                    p.Variable, G(p.PriorMean), G(p.PriorStandardDeviation), G(p.PosteriorMean), G(p.PosteriorStandardDeviation), G(p.Quantile05), G(p.Quantile95),
+                }));
+        }
         EndSection(h);
 
         Section(h, "plots", "Plots");
@@ -353,6 +363,8 @@ public static class HtmlReportWriter
     private static string E(string s) => WebUtility.HtmlEncode(s);
 
     private static string Date(DateOnly d) => d.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
+
+    private static string G(double v) => v.ToString("G4", CultureInfo.InvariantCulture);
 
     private static string Num(double v, string format) => v.ToString(format, CultureInfo.InvariantCulture);
 }

@@ -53,6 +53,8 @@ public sealed class HtmlReportWriterTests
         Assert.Contains("test: posterior from simulation", html, StringComparison.Ordinal);
         Assert.Contains("mm/year", html, StringComparison.Ordinal);
         Assert.Contains("2026-08-12", html, StringComparison.Ordinal);
+        Assert.Contains("Posterior of the inputs", html, StringComparison.Ordinal);
+        Assert.Contains("test route", html, StringComparison.Ordinal);
     }
 
     [Fact]

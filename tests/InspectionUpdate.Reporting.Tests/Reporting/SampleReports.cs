@@ -62,6 +62,8 @@ internal static class SampleReports
         Importance = new ReportImportance(20, ["rate_mmPerYear", "wall_mm"], [0.64, 0.36], "updated, 20 years"),
         PodCurves = [new ReportPodCurve("UT", [0, 1, 2, 3, 4, 5], [0, 0.3, 0.7, 0.9, 0.96, 0.99]), new ReportPodCurve("MFL", [0, 1, 2, 3, 4, 5], [0, 0.1, 0.4, 0.7, 0.85, 0.93])],
         Posteriors = [new ReportPosterior("rate_mmPerYear", Samples(0.2, 0.06, 500, 1), Samples(0.15, 0.03, 500, 2), "test samples")],
+        PosteriorSummaries = [new ReportPosteriorSummary("rate_mmPerYear", 0.2, 0.06, 0.15, 0.03, 0.1, 0.2)],
+        PosteriorRoute = "test route",
         Plan = withPlan
             ? new ReportPlan(1e-4, "test target", [new ReportPlannedInspection(14.2, new DateOnly(2026, 8, 12), "UT", "annual Pf reaches the target")], "next inspection due 2026-08-12", ["each planned inspection finds nothing"])
             : null,

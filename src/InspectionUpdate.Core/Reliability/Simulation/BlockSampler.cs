@@ -51,13 +51,15 @@ internal static class BlockSampler
         var max = options.MaxSamples;
         var blocks = (max + blockSize - 1) / blockSize;
         var threads = options.MaxDegreeOfParallelism ?? Environment.ProcessorCount;
-        // The round size only schedules work; results are combined and tested block by block.
-        var perRound = threads == 1 ? 1 : 2 * threads;
-        var results = new SampleSums[perRound];
+        // The round size only schedules work (results are combined and tested block by block): one block per
+        // thread at first, doubling to four per thread, so an early stop wastes little.
+        var maxPerRound = threads == 1 ? 1 : 4 * threads;
+        var perRound = threads;
+        var results = new SampleSums[maxPerRound];
         var parallel = new ParallelOptions { MaxDegreeOfParallelism = threads, CancellationToken = cancellationToken };
         var total = default(SampleSums);
         long evaluated = 0;
-        for (long first = 0; first < blocks; first += perRound)
+        for (long first = 0; first < blocks; first += perRound, perRound = Math.Min(2 * perRound, maxPerRound))
         {
             var count = (int)Math.Min(perRound, blocks - first);
             var start = first;

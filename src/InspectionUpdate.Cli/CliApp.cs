@@ -1,0 +1,126 @@
+using InspectionUpdate.Cli.Commands;
+using InspectionUpdate.Cli.Infrastructure;
+using Spectre.Console.Cli;
+
+namespace InspectionUpdate.Cli;
+
+/// <summary>The command tree of inspection-update. Verbs on the nouns of the work (docs/cli.md).</summary>
+public static class CliApp
+{
+    /// <summary>The tool version shown in reports and --version.</summary>
+    public static string Version { get; } =
+        typeof(CliApp).Assembly.GetName().Version is { } v ? $"{v.Major}.{v.Minor}.{v.Build}" : "0.0.0";
+
+    /// <summary>Runs the command line on <paramref name="host"/> and returns the exit code.</summary>
+    public static int Run(string[] args, CliHost host)
+    {
+        ArgumentNullException.ThrowIfNull(args);
+        ArgumentNullException.ThrowIfNull(host);
+        var registrar = new TypeRegistrar();
+        registrar.RegisterInstance(typeof(CliHost), host);
+        var app = new CommandApp(registrar);
+        var verbose = args.Contains("--verbose");
+        app.Configure(config =>
+        {
+            config.SetApplicationName("inspection-update");
+            config.SetApplicationVersion(Version);
+            config.ConfigureConsole(host.Console);
+            config.SetExceptionHandler((e, _) =>
+            {
+                // Parse and binding errors: one sentence, exit code for bad input.
+                host.Error.WriteLine("error: " + NameTheOption(OneLine(e.Message), args));
+                if (verbose) host.Error.WriteLine(e.ToString());
+                return e is CommandAppException ? ExitCodes.BadInput : ExitCodes.InternalError;
+            });
+
+            config.AddBranch("register", b =>
+            {
+                b.SetDescription("Create and check a register (the SQLite file of sites, components, methods, findings, repairs).");
+                b.AddCommand<RegisterCreateCommand>("create").WithDescription("Create an empty register file.")
+                    .WithExample("register", "create", "plant.register");
+                b.AddCommand<RegisterCheckCommand>("check").WithDescription("Check the register's integrity and print its fingerprint.")
+                    .WithExample("register", "check", "-r", "plant.register");
+            });
+            config.AddBranch("site", b =>
+            {
+                b.SetDescription("Sites: places that hold components.");
+                b.AddCommand<SiteAddCommand>("add").WithDescription("Add a site.")
+                    .WithExample("site", "add", "NORTH-BAY", "--name", "North Bay injection station", "-r", "plant.register");
+                b.AddCommand<SiteListCommand>("list").WithDescription("List the sites.").WithExample("site", "list", "-r", "plant.register");
+            });
+            config.AddBranch("component", b =>
+            {
+                b.SetDescription("Components and their degradation models.");
+                b.AddCommand<ComponentAddCommand>("add").WithDescription("Add a component with its model file.")
+                    .WithExample("component", "add", "WI-03", "--site", "NORTH-BAY", "--name", "Injection line spool 3", "--model", "wi-03.model.json", "--in-service", "2011-04-01", "-r", "plant.register");
+                b.AddCommand<ComponentListCommand>("list").WithDescription("List the components.").WithExample("component", "list", "-r", "plant.register");
+            });
+            config.AddBranch("method", b =>
+            {
+                b.SetDescription("Inspection methods: probability of detection and sizing error.");
+                b.AddCommand<MethodAddCommand>("add").WithDescription("Add a method from a method file.")
+                    .WithExample("method", "add", "UT-AUTO", "--file", "ut-auto.method.json", "-r", "plant.register");
+                b.AddCommand<MethodFitCommand>("fit").WithDescription("Fit a method's PoD curve from qualification data and add it.")
+                    .WithExample("method", "fit", "EC-SPLASH", "--data", "ec-trials.csv", "--kind", "hit-miss", "-r", "plant.register");
+                b.AddCommand<MethodListCommand>("list").WithDescription("List the methods.").WithExample("method", "list", "-r", "plant.register");
+            });
+            config.AddBranch("finding", b =>
+            {
+                b.SetDescription("Inspection findings (never overwritten: a correction is a new revision).");
+                b.AddCommand<FindingLogCommand>("log").WithDescription("Log one finding.")
+                    .WithExample("finding", "log", "WI-03", "--date", "2024-05-14", "--method", "UT-AUTO", "--outcome", "sized", "--size-mm", "2.4", "--by", "a.engineer", "-r", "plant.register");
+                b.AddCommand<FindingImportCommand>("import").WithDescription("Import findings from a CSV file (all rows or none).")
+                    .WithExample("finding", "import", "campaign-2024.csv", "--by", "a.engineer", "-r", "plant.register");
+                b.AddCommand<FindingCorrectCommand>("correct").WithDescription("Correct a finding: records a new revision with who and why.")
+                    .WithExample("finding", "correct", "7", "--size-mm", "2.1", "--by", "a.engineer", "--reason", "transcription error", "-r", "plant.register");
+                b.AddCommand<FindingListCommand>("list").WithDescription("List findings.").WithExample("finding", "list", "WI-03", "--all-revisions", "-r", "plant.register");
+            });
+            config.AddBranch("repair", b =>
+            {
+                b.SetDescription("Repairs (the component's degradation restarts).");
+                b.AddCommand<RepairLogCommand>("log").WithDescription("Log a repair.")
+                    .WithExample("repair", "log", "WI-03", "--date", "2023-09-02", "--description", "clamp and sleeve fitted", "--by", "a.engineer", "-r", "plant.register");
+            });
+            config.AddCommand<AssessCommand>("assess").WithDescription("Assess: prior and updated profile Pf(t), ΔPf(t), β(t) of a component.")
+                .WithExample("assess", "WI-03", "-r", "plant.register")
+                .WithExample("assess", "--model", "wi-03.model.json", "--findings", "wi-03.findings.csv");
+            config.AddCommand<PlanCommand>("plan").WithDescription("Plan: the latest date of the next inspection and a schedule over the remaining life.")
+                .WithExample("plan", "WI-03", "--target-annual-pf", "1e-4", "-r", "plant.register")
+                .WithExample("plan", "--model", "wi-03.model.json", "--target-annual-pf", "1e-4");
+            config.AddCommand<ReportCommand>("report").WithDescription("Write HTML reports (one per component and one for the register) with CSV and JSON exports.")
+                .WithExample("report", "--out", "reports", "-r", "plant.register");
+            config.AddCommand<VerifyCommand>("verify").WithDescription("Run the verification cases on this installation.")
+                .WithExample("verify").WithExample("verify", "--write-doc", "docs/verification.md");
+            config.AddCommand<DemoCommand>("demo").WithDescription("Build a demo register from sample-data, assess, plan and report.")
+                .WithExample("demo").WithExample("demo", "--out", "demo-output");
+        });
+
+        return app.Run(args);
+    }
+
+    private static string OneLine(string s) => s.ReplaceLineEndings(" ").Trim();
+
+    /// <summary>
+    /// Spectre reports a value it cannot convert without the option's name ("Failed to convert 'abc' to Double."):
+    /// add the option that preceded the value so that the sentence names the field and the value.
+    /// </summary>
+    internal static string NameTheOption(string message, IReadOnlyList<string> args)
+    {
+        const string prefix = "Failed to convert '";
+        if (!message.StartsWith(prefix, StringComparison.Ordinal)) return message;
+        var end = message.IndexOf('\'', prefix.Length);
+        if (end < 0) return message;
+        var value = message[prefix.Length..end];
+        for (var i = 1; i < args.Count; i++)
+        {
+            if (args[i] == value && args[i - 1].StartsWith('-'))
+            {
+                var kind = message.EndsWith("Double.", StringComparison.Ordinal) ? "a number"
+                    : message.EndsWith("Int32.", StringComparison.Ordinal) ? "a whole number" : "of the expected type";
+                return $"{args[i - 1]} '{value}' is not {kind}.";
+            }
+        }
+
+        return message;
+    }
+}

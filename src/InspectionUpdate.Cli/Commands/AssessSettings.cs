@@ -1,0 +1,93 @@
+using System.ComponentModel;
+using System.Globalization;
+using InspectionUpdate.Cli.Infrastructure;
+using Spectre.Console;
+using Spectre.Console.Cli;
+
+namespace InspectionUpdate.Cli.Commands;
+
+/// <summary>Settings of <c>assess</c>: a component of the register, or a model file with an optional findings file.</summary>
+public class AssessSettings : RegisterSettings
+{
+    /// <summary>Component of the register.</summary>
+    [CommandArgument(0, "[COMPONENT]")]
+    [Description("Component identifier in the register (leave out with --model).")]
+    public string? Component { get; init; }
+
+    /// <summary>Model file route.</summary>
+    [CommandOption("--model <FILE>")]
+    [Description("Run on a component model file instead of the register (what-if studies).")]
+    public string? Model { get; init; }
+
+    /// <summary>Findings beside the model file.</summary>
+    [CommandOption("--findings <FILE>")]
+    [Description("Findings file (CSV) for --model; default: <model>.findings.csv beside the model when it exists.")]
+    public string? Findings { get; init; }
+
+    /// <summary>Evidence date.</summary>
+    [CommandOption("--as-of <DATE>")]
+    [Description("Use findings up to this date (ISO 8601); default today.")]
+    public string? AsOf { get; init; }
+
+    /// <summary>Profile horizon.</summary>
+    [CommandOption("--horizon-years <YEARS>")]
+    [Description("Profile horizon in years of service.")]
+    [DefaultValue(40.0)]
+    public double HorizonYears { get; init; } = 40;
+
+    /// <summary>Grid steps per year.</summary>
+    [CommandOption("--steps-per-year <N>")]
+    [Description("Grid steps per year, 1 to 12 (1 gives annual failure probabilities).")]
+    [DefaultValue(1)]
+    public int StepsPerYear { get; init; } = 1;
+
+    /// <inheritdoc />
+    public override ValidationResult Validate()
+    {
+        if (Model is null && Component is null) return ValidationResult.Error("Name a COMPONENT of the register or give --model FILE.");
+        if (Model is not null && Component is not null) return ValidationResult.Error($"Give either COMPONENT '{Component}' or --model '{Model}', not both.");
+        if (!(HorizonYears > 0) || !double.IsFinite(HorizonYears)) return ValidationResult.Error($"--horizon-years '{HorizonYears.ToString(CultureInfo.InvariantCulture)}' must be a positive number of years.");
+        if (StepsPerYear is < 1 or > 12) return ValidationResult.Error($"--steps-per-year '{StepsPerYear.ToString(CultureInfo.InvariantCulture)}' must be a whole number from 1 to 12.");
+        if (HorizonYears > 200) return ValidationResult.Error($"--horizon-years '{HorizonYears.ToString(CultureInfo.InvariantCulture)}' is more than 200 years of service.");
+        if (AsOf is not null && !DateOnly.TryParseExact(AsOf, "yyyy-MM-dd", CultureInfo.InvariantCulture, DateTimeStyles.None, out _))
+        {
+            return ValidationResult.Error($"--as-of '{AsOf}' is not an ISO 8601 date (yyyy-MM-dd).");
+        }
+
+        return ValidationResult.Success();
+    }
+
+    /// <summary>The evidence date.</summary>
+    public DateOnly AsOfDate(CliHost host) =>
+        AsOf is null ? host.Today() : DateOnly.ParseExact(AsOf, "yyyy-MM-dd", CultureInfo.InvariantCulture);
+}
+
+/// <summary>Settings of <c>plan</c>.</summary>
+public sealed class PlanSettings : AssessSettings
+{
+    /// <summary>Target annual failure probability.</summary>
+    [CommandOption("--target-annual-pf <P>")]
+    [Description("Target annual failure probability ΔPf per year, e.g. 1e-4.")]
+    public double? TargetAnnualPf { get; init; }
+
+    /// <summary>Target annual reliability index.</summary>
+    [CommandOption("--target-beta <BETA>")]
+    [Description("Target annual reliability index (instead of --target-annual-pf), e.g. 3.7.")]
+    public double? TargetBeta { get; init; }
+
+    /// <summary>Method assumed for planned inspections.</summary>
+    [CommandOption("--method <METHOD>")]
+    [Description("Inspection method assumed for the planned inspections (default: the last one used).")]
+    public string? Method { get; init; }
+
+    /// <inheritdoc />
+    public override ValidationResult Validate()
+    {
+        var baseResult = base.Validate();
+        if (!baseResult.Successful) return baseResult;
+        if (TargetAnnualPf is not null && TargetBeta is not null) return ValidationResult.Error("Give --target-annual-pf or --target-beta, not both.");
+        if (TargetAnnualPf is { } p && !(p > 0 && p < 1)) return ValidationResult.Error($"--target-annual-pf '{p.ToString(CultureInfo.InvariantCulture)}' must be a probability strictly between 0 and 1.");
+        if (TargetBeta is { } b && !double.IsFinite(b)) return ValidationResult.Error($"--target-beta '{b.ToString(CultureInfo.InvariantCulture)}' must be a finite number.");
+        return ValidationResult.Success();
+    }
+}

@@ -1,0 +1,352 @@
+using InspectionUpdate.Degradation;
+using InspectionUpdate.Probability;
+using InspectionUpdate.Reliability;
+using InspectionUpdate.Reliability.Simulation;
+
+namespace InspectionUpdate.TimeVariant;
+
+/// <summary>A time-stepped run: the profile and, per point, the FORM run behind it.</summary>
+public sealed record TimeVariantResult
+{
+    /// <summary>The profile: Pf(t), ΔPf(t), hazard, β(t), α(t), design points, route per step.</summary>
+    public required ReliabilityProfile Profile { get; init; }
+
+    /// <summary>Per profile point, the FORM run of the event at that time (for an annual maximum: the event of that year).</summary>
+    public required IReadOnlyList<FormResult> FormResults { get; init; }
+
+    /// <summary>Per profile point, the simulation that replaced a non-converged FORM run, or null.</summary>
+    public required IReadOnlyList<SimulationResult?> Simulations { get; init; }
+
+    /// <summary>Cumulative Pf at the grid start (0 when the grid starts at 0).</summary>
+    public required double StartPf { get; init; }
+
+    /// <summary>Limit-state evaluations over the whole run (the start point included).</summary>
+    public required long TotalEvaluations { get; init; }
+}
+
+/// <summary>
+/// Time-stepped reliability of a degradation model: FORM at each grid time, warm-started from the previous design
+/// point, giving the cumulative Pf(t) = P(g(X, t) ≤ 0), the interval probability ΔPf(t) = Pf(t) − Pf(t_prev) (the
+/// annual failure probability on a yearly grid), the hazard ΔPf/(1 − Pf(t_prev)), β(t), α(t) and design points.
+/// </summary>
+/// <remarks>
+/// <para>Pf(t) = P(g(X, t) ≤ 0) holds for monotone degradation under time-invariant inputs. With an annual-maximum
+/// input (<see cref="IDegradationModel.AnnualMaximumInput"/>) the cumulative Pf(t) is the series system of the yearly
+/// events {g(X, Pⱼ, j) ≤ 0}, j = 1…t, with independent yearly maxima Pⱼ: each year's event is linearized by FORM and
+/// the union is evaluated by <see cref="ProfileOptions.SeriesEngine"/> with correlations ρᵢⱼ = Σₖ αᵢₖαⱼₖ over the
+/// shared (non-renewed) inputs.</para>
+/// <para>A step whose FORM run does not converge is recomputed by <see cref="ProfileOptions.Fallback"/> when one is
+/// given; either way the profile point records its route and whether it converged.</para>
+/// </remarks>
+public static class TimeVariantReliability
+{
+    /// <summary>The profile of <paramref name="model"/> on <paramref name="grid"/>.</summary>
+    public static ReliabilityProfile Profile(IDegradationModel model, TimeGrid grid, ProfileOptions? options = null) =>
+        Run(model, grid, options).Profile;
+
+    /// <summary>The profile with the FORM runs behind it.</summary>
+    /// <exception cref="ArgumentException">An annual-maximum model on a grid that is not in whole years, or an annual-maximum input that is correlated with others.</exception>
+    public static TimeVariantResult Run(IDegradationModel model, TimeGrid grid, ProfileOptions? options = null)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        ArgumentNullException.ThrowIfNull(grid);
+        options ??= ProfileOptions.Default;
+        var transformation = new NatafTransformation(model.Inputs);
+        return model.AnnualMaximumInput is null
+            ? RunTimeInvariant(model, transformation, grid, options)
+            : RunAnnualMaximum(model, transformation, grid, options);
+    }
+
+    /// <summary>Cumulative Pf at one time by FORM (for time-invariant inputs), falling back to simulation when configured.</summary>
+    public static ProfilePoint CumulativeAt(IDegradationModel model, double timeYears, ProfileOptions? options = null)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        var grid = TimeGrid.FromTimes([timeYears], 0);
+        return Run(model, grid, options).Profile.Points[0];
+    }
+
+    /// <summary>
+    /// The first time in [startYears, endYears] at which the annual failure probability ΔPf(t) = Pf(t) − Pf(t − 1)
+    /// reaches <paramref name="targetAnnualPf"/>, by root finding on continuous time (<see cref="TargetCrossing"/>).
+    /// </summary>
+    /// <exception cref="NotSupportedException">The model has an annual-maximum input: its ΔPf is defined per whole year; read it from the yearly profile.</exception>
+    public static CrossingResult FindAnnualPfCrossing(IDegradationModel model, double targetAnnualPf, double startYears, double endYears,
+        ProfileOptions? options = null, double scanStepYears = 0.25, double toleranceYears = 1e-3)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        if (!(targetAnnualPf > 0 && targetAnnualPf < 1)) throw new ArgumentOutOfRangeException(nameof(targetAnnualPf), targetAnnualPf, "The target must lie in (0, 1).");
+        if (!(startYears >= 1)) throw new ArgumentOutOfRangeException(nameof(startYears), startYears, "The annual failure probability needs t ≥ 1 year.");
+        RequireTimeInvariant(model);
+        var pf = new CachedPf(model, options ?? ProfileOptions.Default);
+        return pf.Flag(TargetCrossing.FindFirst(t => pf.At(t) - pf.At(t - 1), targetAnnualPf, startYears, endYears, scanStepYears, toleranceYears));
+    }
+
+    /// <summary>The first time in [startYears, endYears] at which β(t) falls to <paramref name="targetBeta"/> (or below).</summary>
+    /// <exception cref="NotSupportedException">The model has an annual-maximum input.</exception>
+    public static CrossingResult FindBetaCrossing(IDegradationModel model, double targetBeta, double startYears, double endYears,
+        ProfileOptions? options = null, double scanStepYears = 0.25, double toleranceYears = 1e-3)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        if (!double.IsFinite(targetBeta)) throw new ArgumentOutOfRangeException(nameof(targetBeta), targetBeta, "The target must be finite.");
+        if (!(startYears > 0)) throw new ArgumentOutOfRangeException(nameof(startYears), startYears, "The window must start after 0.");
+        RequireTimeInvariant(model);
+        var pf = new CachedPf(model, options ?? ProfileOptions.Default);
+        // β(t) ≤ target ⇔ Pf(t) ≥ Φ(−target): search on Pf, which is what FORM returns.
+        return pf.Flag(TargetCrossing.FindFirst(pf.At, StandardNormal.Cdf(-targetBeta), startYears, endYears, scanStepYears, toleranceYears));
+    }
+
+    private static void RequireTimeInvariant(IDegradationModel model)
+    {
+        if (model.AnnualMaximumInput is not null)
+        {
+            throw new NotSupportedException($"Model '{model.Name}' has the annual-maximum input '{model.AnnualMaximumInput}': its annual failure probability is defined per whole year; use the yearly profile.");
+        }
+    }
+
+    private static TimeVariantResult RunTimeInvariant(IDegradationModel model, IProbabilityTransformation transformation, TimeGrid grid, ProfileOptions options)
+    {
+        var names = RandomNames(model.Inputs);
+        var stepper = new FormStepper(model, transformation, options);
+        long total = 0;
+        var startPf = 0.0;
+        if (grid.StartYears > 0)
+        {
+            var start = stepper.Step(grid.StartYears);
+            startPf = start.Pf;
+            total += start.Evaluations;
+        }
+
+        var points = new List<ProfilePoint>();
+        var forms = new List<FormResult>();
+        var sims = new List<SimulationResult?>();
+        var previous = startPf;
+        foreach (var t in grid.TimesYears)
+        {
+            var s = stepper.Step(t);
+            total += s.Evaluations;
+            points.Add(MakePoint(t, s.Pf, previous, s.Route, s.Converged, s.Evaluations, s.Form, s.Simulation?.CoefficientOfVariation, s.Note));
+            forms.Add(s.Form);
+            sims.Add(s.Simulation);
+            previous = s.Pf;
+        }
+
+        return new TimeVariantResult
+        {
+            Profile = new ReliabilityProfile { Label = options.Label, VariableNames = names, Points = points },
+            FormResults = forms,
+            Simulations = sims,
+            StartPf = startPf,
+            TotalEvaluations = total,
+        };
+    }
+
+    private static TimeVariantResult RunAnnualMaximum(IDegradationModel model, IProbabilityTransformation transformation, TimeGrid grid, ProfileOptions options)
+    {
+        if (!grid.IsWholeYears)
+        {
+            throw new ArgumentException($"Model '{model.Name}' has an annual-maximum input: the time grid must be in whole years (events are yearly).", nameof(grid));
+        }
+
+        var inputs = model.Inputs;
+        var pIndex = inputs.IndexOf(model.AnnualMaximumInput!);
+        if (pIndex < 0) throw new ArgumentException($"The annual-maximum input '{model.AnnualMaximumInput}' is not among the model's inputs.", nameof(model));
+        if (inputs.Correlation is { } r)
+        {
+            for (var j = 0; j < inputs.PhysicalDimension; j++)
+            {
+                if (j != pIndex && r[pIndex, j] != 0)
+                {
+                    throw new ArgumentException($"The annual-maximum input '{model.AnnualMaximumInput}' is correlated with '{inputs.Variables[j].Name}'; yearly maxima must be independent of the other inputs.", nameof(model));
+                }
+            }
+        }
+
+        // Position of the renewed input in u (absent when it is deterministic: the yearly events are then fully dependent).
+        var uIndex = -1;
+        for (var k = 0; k < inputs.RandomIndices.Count; k++)
+        {
+            if (inputs.RandomIndices[k] == pIndex) uIndex = k;
+        }
+
+        // A deterministic annual maximum makes the yearly events nested under monotone degradation: the union is the last year's event.
+        var engine = uIndex < 0 ? NestedEventsEngine.Instance : options.SeriesEngine ?? UnionBoundsEngine.Instance;
+        var stepper = new FormStepper(model, transformation, options with { Fallback = null });
+        var lastYear = (int)Math.Round(grid.TimesYears[^1]);
+        var yearly = new List<StepOutcome>(lastYear);
+        long total = 0;
+        for (var year = 1; year <= lastYear; year++)
+        {
+            var s = stepper.Step(year);
+            yearly.Add(s);
+            total += s.Evaluations;
+        }
+
+        var startYear = (int)Math.Round(grid.StartYears);
+        var startPf = startYear > 0 ? Union(yearly, startYear, uIndex, engine).Probability : 0.0;
+        var points = new List<ProfilePoint>();
+        var forms = new List<FormResult>();
+        var previous = startPf;
+        var previousYear = startYear;
+        foreach (var t in grid.TimesYears)
+        {
+            var year = (int)Math.Round(t);
+            var union = Union(yearly, year, uIndex, engine);
+            var own = yearly[year - 1];
+            var allConverged = union.Converged && yearly.Take(year).All(y => y.Form.Converged);
+            var evaluations = yearly.Skip(previousYear).Take(year - previousYear).Sum(y => y.Evaluations);
+            var note = union.Note;
+            if (!yearly.Take(year).All(y => y.Form.Converged))
+            {
+                var bad = yearly.Take(year).Select((y, i) => (y, i)).Where(p => !p.y.Form.Converged).Select(p => p.i + 1);
+                note = Join(note, $"FORM did not converge for the events of years {string.Join(", ", bad)}");
+            }
+
+            points.Add(MakePoint(t, union.Probability, previous, union.Route, allConverged, evaluations, own.Form, null, note));
+            forms.Add(own.Form);
+            previous = union.Probability;
+            previousYear = year;
+        }
+
+        return new TimeVariantResult
+        {
+            Profile = new ReliabilityProfile { Label = options.Label, VariableNames = RandomNames(inputs), Points = points },
+            FormResults = forms,
+            Simulations = new SimulationResult?[points.Count],
+            StartPf = startPf,
+            TotalEvaluations = total,
+        };
+    }
+
+    private static SeriesEstimate Union(List<StepOutcome> yearly, int years, int renewedU, ISeriesSystemEngine engine)
+    {
+        var betas = new double[years];
+        var r = new double[years, years];
+        for (var i = 0; i < years; i++)
+        {
+            betas[i] = yearly[i].Form.Beta;
+            r[i, i] = 1;
+            var ai = yearly[i].Form.Alpha;
+            for (var j = 0; j < i; j++)
+            {
+                var aj = yearly[j].Form.Alpha;
+                var rho = 0.0;
+                for (var k = 0; k < ai.Count; k++)
+                {
+                    if (k != renewedU) rho += ai[k] * aj[k];
+                }
+
+                r[i, j] = rho;
+                r[j, i] = rho;
+            }
+        }
+
+        return engine.Union(betas, r);
+    }
+
+    private static ProfilePoint MakePoint(double t, double pf, double previousPf, ComputationRoute route, bool converged, int evaluations,
+        FormResult form, double? cov, string? note)
+    {
+        var interval = pf - previousPf;
+        var survivor = 1 - previousPf;
+        return new ProfilePoint
+        {
+            TimeYears = t,
+            Beta = -StandardNormal.InverseCdf(Math.Clamp(pf, 0, 1)),
+            CumulativePf = pf,
+            IntervalPf = interval,
+            Hazard = survivor > 0 ? interval / survivor : double.NaN,
+            Route = route,
+            Converged = converged,
+            CoefficientOfVariation = cov,
+            Evaluations = evaluations,
+            Alpha = route == ComputationRoute.FirstOrder ? form.Alpha : null,
+            DesignPointX = route == ComputationRoute.FirstOrder ? form.DesignPointX : null,
+            Note = note,
+        };
+    }
+
+    private static string? Join(string? a, string b) => a is null ? b : $"{a}; {b}";
+
+    private static string[] RandomNames(StochasticModel model) => model.RandomIndices.Select(i => model.Variables[i].Name).ToArray();
+
+    private readonly record struct StepOutcome(double Pf, ComputationRoute Route, bool Converged, int Evaluations, FormResult Form, SimulationResult? Simulation, string? Note);
+
+    /// <summary>FORM over successive times with warm starts and the simulation fallback.</summary>
+    private sealed class FormStepper(IDegradationModel model, IProbabilityTransformation transformation, ProfileOptions options)
+    {
+        private IReadOnlyList<double>? _warm = options.Form.StartPoint;
+        private double? _scale = options.Form.LimitStateScale;
+
+        public StepOutcome Step(double timeYears)
+        {
+            var limitState = new DegradationLimitState(model, timeYears);
+            var problem = new ReliabilityProblem(transformation, limitState);
+            var extra = 0;
+            if (_scale is null)
+            {
+                // One evaluation at the median point fixes the scale of |G| for every step, so warm starts need no
+                // extra evaluation at the origin.
+                var x = new double[transformation.PhysicalDimension];
+                transformation.ToPhysical(new double[transformation.StandardDimension], x);
+                var g0 = Math.Abs(limitState.Evaluate(x));
+                extra = 1;
+                _scale = g0 > 0 && double.IsFinite(g0) ? g0 : 1.0;
+            }
+
+            var form = FormSolver.Solve(problem, options.Form with { StartPoint = _warm, LimitStateScale = _scale });
+            if (!form.Converged && _warm is not null)
+            {
+                // A misleading warm start must not cost the step: retry once from the origin.
+                var cold = FormSolver.Solve(problem, options.Form with { StartPoint = null, LimitStateScale = _scale });
+                extra += form.LimitStateEvaluations;
+                form = cold;
+            }
+
+            var evaluations = form.LimitStateEvaluations + extra;
+            if (form.Converged)
+            {
+                if (options.WarmStart) _warm = form.DesignPointU;
+                return new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, true, evaluations, form, null, null);
+            }
+
+            if (options.Fallback is { } fallback)
+            {
+                var sim = fallback.Run(problem, form);
+                var note = $"FORM did not converge ({form.Diagnostic}); recomputed by {sim.Method}";
+                var route = sim.Method == CrudeMonteCarlo.MethodName ? ComputationRoute.MonteCarlo : fallback.Route;
+                return new StepOutcome(sim.FailureProbability, route, sim.Converged, evaluations + (int)Math.Min(int.MaxValue, sim.LimitStateEvaluations), form, sim,
+                    sim.Converged ? note : $"{note}, which did not converge either ({sim.Diagnostic})");
+            }
+
+            return new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, false, evaluations, form, null,
+                $"FORM did not converge ({form.Diagnostic}); no simulation fallback configured");
+        }
+    }
+
+    /// <summary>Pf(t) by FORM with a memo and warm starts, for root finding on time.</summary>
+    private sealed class CachedPf(IDegradationModel model, ProfileOptions options)
+    {
+        private readonly Dictionary<double, double> _memo = [];
+        private readonly FormStepper _stepper = new(model, new NatafTransformation(model.Inputs), options);
+        private readonly List<double> _failedTimes = [];
+
+        public double At(double t)
+        {
+            if (t <= 0) return 0;
+            if (_memo.TryGetValue(t, out var v)) return v;
+            var s = _stepper.Step(t);
+            if (!s.Converged) _failedTimes.Add(t);
+            _memo[t] = s.Pf;
+            return s.Pf;
+        }
+
+        public CrossingResult Flag(CrossingResult r) =>
+            _failedTimes.Count == 0
+                ? r
+                : r with
+                {
+                    Converged = false,
+                    Note = FormattableString.Invariant($"Pf did not converge at {_failedTimes.Count} of the times evaluated (first at t = {_failedTimes[0]:0.###} years)"),
+                };
+    }
+}

@@ -1,0 +1,112 @@
+using MathNet.Numerics.LinearAlgebra;
+
+namespace InspectionUpdate.Updating.FirstOrder;
+
+/// <summary>
+/// First-order updating on linearized events (Madsen 1987; DESIGN §3): with Z_i = −α_iᵀU, ρ_ij = α_iᵀα_j, the
+/// equalities fix Z_E = −β_E; the others are conditionally normal with mean R_OE R_EE⁻¹(−β_E) and covariance
+/// R_OO − R_OE R_EE⁻¹ R_EO, and P(F | I, E) = P(F ∩ I | E) / P(I | E) are multinormal orthant probabilities.
+/// </summary>
+internal static class GaussianConditioning
+{
+    /// <summary>Result of one conditioning.</summary>
+    /// <param name="Joint">P(F ∩ I | E) (or P(I | E) without a failure event).</param>
+    /// <param name="Evidence">P(I | E) (1 without inequalities).</param>
+    /// <param name="Error">Integration error bound of <see cref="Joint"/>/<see cref="Evidence"/> (relative, combined).</param>
+    /// <param name="Problem">Why the computation is not valid, or null.</param>
+    public sealed record Result(double Joint, double Evidence, double Error, string? Problem)
+    {
+        public double Conditional => Joint / Evidence;
+    }
+
+    /// <summary>P(F ∩ I | E) and P(I | E) with F, I, E linearized. <paramref name="failure"/> null gives P(I | E) twice.</summary>
+    public static Result Evaluate(LinearizedEvent? failure, IReadOnlyList<LinearizedEvent> inequalities, IReadOnlyList<LinearizedEvent> equalities,
+        IReadOnlyList<LinearizedEvent>? denominatorInequalities = null, IReadOnlyList<LinearizedEvent>? denominatorEqualities = null)
+    {
+        var others = new List<LinearizedEvent>();
+        if (failure is not null) others.Add(failure);
+        others.AddRange(inequalities);
+        var (joint, e1, p1) = Orthant(others, equalities);
+        if (p1 is not null) return new Result(joint, double.NaN, double.NaN, p1);
+        if (failure is null) return new Result(joint, joint, e1, null);
+        var (evidence, e2, p2) = Orthant(denominatorInequalities ?? inequalities, denominatorEqualities ?? equalities);
+        if (p2 is not null) return new Result(joint, evidence, double.NaN, p2);
+        if (!(evidence > 0))
+        {
+            return new Result(joint, evidence, double.NaN, "The linearized evidence has probability 0: the findings contradict the model at first order.");
+        }
+
+        var rel = (joint > 0 ? e1 / joint : 0) + e2 / evidence;
+        return new Result(joint, evidence, rel, null);
+    }
+
+    private static (double Value, double Error, string? Problem) Orthant(IReadOnlyList<LinearizedEvent> ineq, IReadOnlyList<LinearizedEvent> eq)
+    {
+        var m = eq.Count;
+        var n = ineq.Count;
+        if (n == 0) return (1.0, 0.0, null);
+        var mean = new double[n];
+        var cov = new double[n, n];
+        for (var i = 0; i < n; i++)
+            for (var j = 0; j < n; j++) cov[i, j] = Dot(ineq[i].Alpha, ineq[j].Alpha);
+
+        if (m > 0)
+        {
+            var ree = Matrix<double>.Build.Dense(m, m, (i, j) => Dot(eq[i].Alpha, eq[j].Alpha));
+            var roe = Matrix<double>.Build.Dense(n, m, (i, j) => Dot(ineq[i].Alpha, eq[j].Alpha));
+            var zE = Vector<double>.Build.Dense(m, j => -eq[j].Beta);
+            var evd = ree.Evd(MathNet.Numerics.LinearAlgebra.Symmetricity.Symmetric);
+            var minEig = evd.EigenValues.Real().Minimum();
+            if (!(minEig > 1e-10))
+            {
+                return (double.NaN, double.NaN, FormattableString.Invariant(
+                    $"The equality events are (nearly) linearly dependent at first order (smallest eigenvalue of their correlation matrix {minEig:G3}): two measurements carry the same information without independent errors."));
+            }
+
+            var chol = ree.Cholesky();
+            var w = chol.Solve(zE);
+            var k = chol.Solve(roe.Transpose()); // m × n: R_EE⁻¹ R_EO
+            var mu = roe * w;
+            var reduce = roe * k;
+            for (var i = 0; i < n; i++)
+            {
+                mean[i] = mu[i];
+                for (var j = 0; j < n; j++) cov[i, j] -= reduce[i, j];
+            }
+        }
+
+        // Standardize; an event whose conditional variance vanishes is decided by the equalities.
+        var limits = new List<double>();
+        var keep = new List<int>();
+        for (var i = 0; i < n; i++)
+        {
+            var variance = cov[i, i];
+            var limit = -ineq[i].Beta - mean[i];
+            if (variance < 1e-14)
+            {
+                if (limit < 0) return (0.0, 0.0, null);
+                continue;
+            }
+
+            keep.Add(i);
+            limits.Add(limit / Math.Sqrt(variance));
+        }
+
+        var r = new double[keep.Count, keep.Count];
+        for (var a = 0; a < keep.Count; a++)
+            for (var b = 0; b < keep.Count; b++)
+            {
+                r[a, b] = a == b ? 1.0 : Math.Clamp(cov[keep[a], keep[b]] / Math.Sqrt(cov[keep[a], keep[a]] * cov[keep[b], keep[b]]), -1.0, 1.0);
+            }
+
+        var (value, error) = InterimMultinormal.Cdf(limits.ToArray(), r);
+        return (value, error, null);
+    }
+
+    internal static double Dot(IReadOnlyList<double> a, IReadOnlyList<double> b)
+    {
+        var s = 0.0;
+        for (var i = 0; i < a.Count; i++) s += a[i] * b[i];
+        return s;
+    }
+}

@@ -1,0 +1,202 @@
+using InspectionUpdate.Probability;
+using InspectionUpdate.Reliability;
+using InspectionUpdate.Updating.FirstOrder;
+using InspectionUpdate.Updating.Simulation;
+
+namespace InspectionUpdate.Updating;
+
+/// <summary>
+/// An updating problem prepared once: the augmented model, the linearized evidence and the simulated evidence are
+/// cached, so repeated estimates at many times (a profile, a planner's root search) pay for the findings once.
+/// Obtain one from <see cref="ReliabilityUpdater.Prepare(UpdatingCase)"/>. Thread-safe (calls are serialized).
+/// </summary>
+public sealed class UpdatingSession
+{
+    private readonly Lock _gate = new();
+    private readonly UpdatingOptions _options;
+    private readonly FirstOrderUpdater _firstOrder;
+    private readonly LikelihoodImportanceSampler _sampler;
+    private readonly Dictionary<string, double[]> _warm = new(StringComparer.Ordinal);
+
+    internal UpdatingSession(UpdatingCase updatingCase, UpdatingOptions options)
+    {
+        Case = updatingCase;
+        _options = options;
+        Model = EvidenceModel.Build(updatingCase);
+        var transformation = new NatafTransformation(Model.Model);
+        _firstOrder = new FirstOrderUpdater(Model, transformation, options);
+        _sampler = new LikelihoodImportanceSampler(Model, options);
+        VariableNames = Model.Model.RandomIndices.Select(i => Model.Model.Variables[i].Name).ToArray();
+    }
+
+    /// <summary>The case this session updates.</summary>
+    public UpdatingCase Case { get; }
+
+    /// <summary>The augmented model and its events.</summary>
+    public EvidenceModel Model { get; }
+
+    /// <summary>Names of the augmented random variables, matching the α of first-order profile points.</summary>
+    public IReadOnlyList<string> VariableNames { get; }
+
+    /// <summary>P(F(t) | all findings of the case) for one component, cumulative.</summary>
+    /// <exception cref="ArgumentException">Unknown component.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">t not finite or negative.</exception>
+    public UpdatedEstimate Estimate(string componentId, double timeYears) => EstimateDetailed(componentId, timeYears).Estimate;
+
+    /// <summary>Updated profile of a component on a strictly increasing time grid (years since entry into service).</summary>
+    /// <remarks>
+    /// ΔPf of a step is Pf(t) − Pf(t_prev); for the first point it is Pf(t₀) (from entry into service). Where a repair
+    /// falls in (t_prev, t] the profile restarts: ΔPf = Pf(t) and the hazard is Pf(t), with a note. FORM runs are
+    /// warm-started from the previous step's design point within one renewal period.
+    /// </remarks>
+    public ReliabilityProfile Profile(string componentId, IReadOnlyList<double> timesYears, string label)
+    {
+        ArgumentNullException.ThrowIfNull(timesYears);
+        for (var i = 0; i < timesYears.Count; i++)
+        {
+            var t = timesYears[i];
+            if (!double.IsFinite(t) || t < 0) throw new ArgumentOutOfRangeException(nameof(timesYears), t, $"Time [{i}] must be finite and ≥ 0 years.");
+            if (i > 0 && !(t > timesYears[i - 1])) throw new ArgumentOutOfRangeException(nameof(timesYears), t, $"Times must increase strictly (entry {i}).");
+        }
+
+        var points = new List<ProfilePoint>(timesYears.Count);
+        var prevPf = 0.0;
+        var prevT = double.NegativeInfinity;
+        foreach (var t in timesYears)
+        {
+            var (est, alpha, x, evaluations) = EstimateDetailed(componentId, t);
+            var renewal = Model.RenewalStartYears(componentId, t);
+            var restarted = renewal > 0 && renewal >= prevT;
+            var basePf = restarted ? 0.0 : prevPf;
+            var interval = est.CumulativePf - basePf;
+            var hazard = basePf < 1 ? interval / (1 - basePf) : double.NaN;
+            var note = est.Note;
+            if (restarted && double.IsFinite(prevT))
+            {
+                note = FormattableString.Invariant($"renewed by a repair at {renewal:0.###} y; ΔPf counts from the renewal") + (note is null ? "" : "; " + note);
+            }
+
+            points.Add(new ProfilePoint
+            {
+                TimeYears = t,
+                Beta = est.Beta,
+                CumulativePf = est.CumulativePf,
+                IntervalPf = interval,
+                Hazard = hazard,
+                Route = est.Route,
+                Converged = est.Converged,
+                CoefficientOfVariation = est.CoefficientOfVariation,
+                Evaluations = evaluations,
+                Alpha = alpha,
+                DesignPointX = x,
+                Note = note,
+            });
+            prevPf = est.CumulativePf;
+            prevT = t;
+        }
+
+        return new ReliabilityProfile { Label = label, VariableNames = VariableNames, Points = points };
+    }
+
+    /// <summary>Posterior summaries of the model inputs given every finding (likelihood-weighted importance sampling).</summary>
+    public PosteriorSummary Posterior()
+    {
+        lock (_gate)
+        {
+            var samples = _sampler.Evidence();
+            var model = Model.InputModel;
+            var inputs = new List<InputPosterior>();
+            var w = samples.Weights;
+            var total = w.Sum();
+            foreach (var i in model.RandomIndices)
+            {
+                var v = model.Variables[i];
+                var values = samples.X.Select(x => x[i]).ToArray();
+                var mean = 0.0;
+                for (var k = 0; k < values.Length; k++) mean += w[k] * values[k];
+                mean /= total;
+                var var2 = 0.0;
+                for (var k = 0; k < values.Length; k++) var2 += w[k] * (values[k] - mean) * (values[k] - mean);
+                var sd = Math.Sqrt(var2 / total);
+                var order = Enumerable.Range(0, values.Length).OrderBy(k => values[k]).ToArray();
+                inputs.Add(new InputPosterior(v.Name, v.Mean, v.StandardDeviation, mean, sd,
+                    Quantile(order, values, w, total, 0.05), Quantile(order, values, w, total, 0.50), Quantile(order, values, w, total, 0.95)));
+            }
+
+            var ev = samples.Evidence;
+            return new PosteriorSummary
+            {
+                Inputs = inputs,
+                EffectiveSampleSize = samples.EffectiveSampleSize,
+                Samples = w.Length,
+                Route = ComputationRoute.ImportanceSampling,
+                Converged = ev.Converged && samples.EffectiveSampleSize >= 200,
+                Note = ev.Note,
+            };
+        }
+    }
+
+    private static double Quantile(int[] order, double[] values, double[] w, double total, double p)
+    {
+        var target = p * total;
+        var cum = 0.0;
+        foreach (var k in order)
+        {
+            cum += w[k];
+            if (cum >= target) return values[k];
+        }
+
+        return values[order[^1]];
+    }
+
+    internal (UpdatedEstimate Estimate, IReadOnlyList<double>? Alpha, IReadOnlyList<double>? X, int Evaluations) EstimateDetailed(string componentId, double timeYears)
+    {
+        lock (_gate)
+        {
+            var pEvidenceKnown = !Model.Events.Any(e => e.Kind == EvidenceEventKind.Equality);
+            string? flagNote = null;
+            if (_options.Route != UpdatingRoute.Simulation)
+            {
+                var key = componentId + "#" + Model.RenewalStartYears(componentId, timeYears).ToString("R", System.Globalization.CultureInfo.InvariantCulture);
+                _warm.TryGetValue(key, out var warm);
+                var fo = _firstOrder.Estimate(componentId, timeYears, warm);
+                if (fo.Failure.Converged) _warm[key] = fo.Failure.PointU;
+                var flags = fo.Flags.Count == 0 ? null : string.Join(" ", fo.Flags);
+                if (_options.Route == UpdatingRoute.FirstOrder || fo.Reliable && fo.Converged)
+                {
+                    var note = (fo.Joint ? "linearized at the joint design points" : null) is { } j
+                        ? j + (flags is null ? "" : "; " + flags)
+                        : flags is null ? null : "first-order flags: " + flags;
+                    if (fo.Problem is not null) note = fo.Problem + (note is null ? "" : "; " + note);
+                    var x = new double[Model.Model.PhysicalDimension];
+                    new NatafTransformation(Model.Model).ToPhysical(fo.Failure.PointU, x);
+                    return (new UpdatedEstimate
+                    {
+                        CumulativePf = fo.Pf,
+                        Beta = -StandardNormal.InverseCdf(Math.Clamp(fo.Pf, 0, 1)),
+                        EvidenceProbability = fo.EvidenceProbability,
+                        Route = ComputationRoute.FirstOrder,
+                        Converged = fo.Converged && double.IsFinite(fo.Pf),
+                        CoefficientOfVariation = null,
+                        Note = note,
+                    }, fo.Failure.Alpha, x, fo.Evaluations);
+                }
+
+                flagNote = "first order flagged unreliable, simulated instead: " + (fo.Problem ?? flags ?? "not converged");
+            }
+
+            var sim = _sampler.Conditional(componentId, timeYears);
+            var ev = _sampler.Evidence().Evidence;
+            return (new UpdatedEstimate
+            {
+                CumulativePf = sim.Value,
+                Beta = -StandardNormal.InverseCdf(sim.Value),
+                EvidenceProbability = pEvidenceKnown ? ev.Value : double.NaN,
+                Route = ComputationRoute.ImportanceSampling,
+                Converged = sim.Converged,
+                CoefficientOfVariation = sim.CoefficientOfVariation,
+                Note = flagNote is null ? sim.Note : flagNote + "; " + sim.Note,
+            }, null, null, (int)Math.Min(int.MaxValue, sim.Evaluations));
+        }
+    }
+}

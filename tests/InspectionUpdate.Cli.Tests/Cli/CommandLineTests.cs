@@ -1,0 +1,99 @@
+using InspectionUpdate.Cli.Infrastructure;
+
+namespace InspectionUpdate.Tests.Cli;
+
+public sealed class CommandLineTests
+{
+    [Theory]
+    [InlineData("register", "create")]
+    [InlineData("register", "check")]
+    [InlineData("site", "add")]
+    [InlineData("site", "list")]
+    [InlineData("component", "add")]
+    [InlineData("component", "list")]
+    [InlineData("method", "add")]
+    [InlineData("method", "fit")]
+    [InlineData("method", "list")]
+    [InlineData("finding", "log")]
+    [InlineData("finding", "import")]
+    [InlineData("finding", "correct")]
+    [InlineData("finding", "list")]
+    [InlineData("repair", "log")]
+    [InlineData("assess", null)]
+    [InlineData("plan", null)]
+    [InlineData("report", null)]
+    [InlineData("verify", null)]
+    [InlineData("demo", null)]
+    public void Every_command_has_help_with_an_example_and_the_json_option(string noun, string? verb)
+    {
+        using var cli = new CliRunner();
+        var run = verb is null ? cli.Run(noun, "--help") : cli.Run(noun, verb, "--help");
+        Assert.Equal(ExitCodes.Ok, run.ExitCode);
+        Assert.Contains("EXAMPLES:", run.Output, StringComparison.Ordinal);
+        Assert.Contains("--json", run.Output, StringComparison.Ordinal);
+        Assert.Contains("inspection-update " + noun, run.Output, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Unknown_command_is_bad_input_with_one_sentence_and_no_stack_trace()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("inspect-everything");
+        Assert.Equal(ExitCodes.BadInput, run.ExitCode);
+        Assert.Single(run.Error.Split('\n', StringSplitOptions.RemoveEmptyEntries));
+        Assert.DoesNotContain("   at ", run.Error, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Invalid_option_value_names_the_option_and_the_value()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("plan", "--model", "m.json", "--target-annual-pf", "1.5");
+        Assert.Equal(ExitCodes.BadInput, run.ExitCode);
+        Assert.Contains("--target-annual-pf '1.5'", run.Error, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Assess_needs_a_component_or_a_model_file()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("assess");
+        Assert.Equal(ExitCodes.BadInput, run.ExitCode);
+        Assert.Contains("--model", run.Error, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Register_commands_without_a_register_name_it_as_missing()
+    {
+        using var cli = new CliRunner();
+        Environment.SetEnvironmentVariable(RegisterSettings.EnvironmentVariable, null);
+        var run = cli.Run("site", "list", "--json");
+        Assert.True(run.ExitCode is ExitCodes.BadInput or ExitCodes.NotAvailable, run.Error);
+        var error = run.Json().GetProperty("error");
+        Assert.Equal(run.ExitCode, error.GetProperty("exit_code").GetInt32());
+        Assert.False(string.IsNullOrWhiteSpace(error.GetProperty("message").GetString()));
+    }
+
+    [Fact]
+    public void Exit_code_names_are_stable()
+    {
+        // The names are part of the documented --json error document (docs/cli.md).
+        Assert.Equal("bad_input", ExitCodes.Name(ExitCodes.BadInput));
+        Assert.Equal("not_converged", ExitCodes.Name(ExitCodes.NotConverged));
+        Assert.Equal("register_error", ExitCodes.Name(ExitCodes.RegisterError));
+        Assert.Equal("not_available", ExitCodes.Name(ExitCodes.NotAvailable));
+        Assert.Equal("verification_failed", ExitCodes.Name(ExitCodes.VerificationFailed));
+    }
+}
+
+public sealed class OptionErrorTests
+{
+    [Fact]
+    public void A_value_that_is_not_a_number_is_reported_with_its_option()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("assess", "--model", "m.json", "--horizon-years", "abc");
+        Assert.Equal(InspectionUpdate.Cli.Infrastructure.ExitCodes.BadInput, run.ExitCode);
+        Assert.Contains("--horizon-years 'abc' is not a number.", run.Error, StringComparison.Ordinal);
+    }
+}

@@ -1,0 +1,238 @@
+using InspectionUpdate.Probability;
+using InspectionUpdate.Reliability;
+
+namespace InspectionUpdate.Tests.Reliability.Form;
+
+/// <summary>Warm start, gradient routes, evaluation counting, non-convergence and bad input.</summary>
+public class FormSolverRobustnessTests
+{
+    private static ReliabilityProblem TwoNormals(LimitStateFunction g) =>
+        new(new StochasticModel([new NormalVariable("A", 1, 1), new NormalVariable("B", 1, 1)]), new LimitState("g", g));
+
+    public class Warm_start
+    {
+        [Fact]
+        [Reference("REFERENCES.md [derived]: g = X1·X2 − X3, β = 3.049073 (the same answer from any start)")]
+        public void Gives_the_same_answer_with_fewer_evaluations()
+        {
+            var problem = FormTestModels.ProductOfNormals();
+            var cold = FormSolver.Solve(problem);
+            // A nearby start, as a time step passes to the next one: 5 % off the previous design point.
+            var start = cold.DesignPointU.Select(v => 0.95 * v).ToArray();
+            var warm = FormSolver.Solve(problem, new FormOptions { StartPoint = start, LimitStateScale = 1000 });
+            Assert.True(warm.Converged, warm.Diagnostic);
+            Assert.Equal(cold.Beta, warm.Beta, 1e-6);
+            Assert.Equal(3.049073, warm.Beta, 5e-6);
+            Assert.True(warm.LimitStateEvaluations < cold.LimitStateEvaluations,
+                $"warm {warm.LimitStateEvaluations} vs cold {cold.LimitStateEvaluations} evaluations");
+        }
+
+        [Fact]
+        [Reference("Closed form: Cornell (1969) β for R − S; a start at the design point meets both criteria at once")]
+        public void At_the_design_point_converges_without_iterating()
+        {
+            var problem = new ReliabilityProblem(
+                new StochasticModel([new NormalVariable("R", 200, 20), new NormalVariable("S", 100, 30)]),
+                new LimitState("R-S", x => x[0] - x[1]));
+            var cold = FormSolver.Solve(problem);
+            var warm = FormSolver.Solve(problem, new FormOptions { StartPoint = cold.DesignPointU });
+            Assert.True(warm.Converged, warm.Diagnostic);
+            Assert.Equal(0, warm.Iterations);
+            Assert.Equal(100 / Math.Sqrt(1300), warm.Beta, 1e-9);
+        }
+
+        [Fact]
+        public void Start_point_of_the_wrong_length_is_rejected_naming_the_option()
+        {
+            var problem = FormTestModels.ProductOfNormals();
+            var ex = Assert.Throws<ArgumentException>(() => FormSolver.Solve(problem, new FormOptions { StartPoint = [0.0, 1.0] }));
+            Assert.Equal("StartPoint", ex.ParamName);
+            Assert.Contains("3 random variables", ex.Message, StringComparison.Ordinal);
+        }
+
+        [Fact]
+        public void Start_point_with_a_non_finite_entry_is_rejected()
+        {
+            var problem = FormTestModels.ProductOfNormals();
+            var ex = Assert.Throws<ArgumentException>(() => FormSolver.Solve(problem, new FormOptions { StartPoint = [0.0, double.NaN, 0.0] }));
+            Assert.Equal("StartPoint", ex.ParamName);
+            Assert.Contains("StartPoint[1]", ex.Message, StringComparison.Ordinal);
+        }
+    }
+
+    public class Gradients
+    {
+        [Theory]
+        [Reference("REFERENCES.md [derived]: g = X1·X2 − X3, β = 3.049073")]
+        [InlineData(GradientMethod.Automatic, true)]
+        [InlineData(GradientMethod.Analytic, true)]
+        [InlineData(GradientMethod.ForwardDifference, false)]
+        [InlineData(GradientMethod.CentralDifference, false)]
+        public void Every_route_reaches_the_same_design_point(GradientMethod method, bool analytic)
+        {
+            var result = FormSolver.Solve(FormTestModels.ProductOfNormals(analytic), new FormOptions { Gradient = method });
+            Assert.True(result.Converged, result.Diagnostic);
+            Assert.Equal(3.049073, result.Beta, 5e-6);
+            var expected = method == GradientMethod.Automatic ? GradientMethod.Analytic : method;
+            Assert.Equal(expected, result.GradientMethod);
+        }
+
+        [Fact]
+        public void Analytic_route_without_a_gradient_is_rejected()
+        {
+            var ex = Assert.Throws<ArgumentException>(() =>
+                FormSolver.Solve(FormTestModels.ProductOfNormals(), new FormOptions { Gradient = GradientMethod.Analytic }));
+            Assert.Equal("options", ex.ParamName);
+        }
+
+        [Theory]
+        [InlineData(GradientMethod.Analytic, true)]
+        [InlineData(GradientMethod.ForwardDifference, false)]
+        [InlineData(GradientMethod.CentralDifference, false)]
+        [InlineData(GradientMethod.ForwardDifference, true)]
+        public void Reported_evaluations_equal_the_calls_of_the_limit_state(GradientMethod method, bool analytic)
+        {
+            var inner = FormTestModels.ProductOfNormals(analytic);
+            var counting = new CountingLimitState(inner.LimitState);
+            var problem = new ReliabilityProblem(inner.Transformation, counting);
+            var result = FormSolver.Solve(problem, new FormOptions { Gradient = method });
+            Assert.True(result.Converged, result.Diagnostic);
+            Assert.Equal(counting.Calls, result.LimitStateEvaluations);
+        }
+
+        [Fact]
+        public void Warm_start_counts_the_extra_evaluation_at_the_origin()
+        {
+            var inner = FormTestModels.ProductOfNormals();
+            var counting = new CountingLimitState(inner.LimitState);
+            var problem = new ReliabilityProblem(inner.Transformation, counting);
+            var result = FormSolver.Solve(problem, new FormOptions { StartPoint = [-1.0, -0.5, 1.0] });
+            Assert.Equal(counting.Calls, result.LimitStateEvaluations);
+        }
+
+        [Fact]
+        [Reference("Closed form: Cornell (1969), β = 100/√1300, s* = 100 + 30·(30/√1300)·β = 169.2308")]
+        public void Forward_step_outside_the_domain_is_retried_backwards()
+        {
+            // g = R − S, but undefined (NaN) a hair above the design value of S: the forward difference in S at the
+            // design point (step 1e-6·169 ≈ 1.7e-4) leaves the domain, so only the backward retry gives a gradient.
+            var sStar = 100 + 30 * (30 / Math.Sqrt(1300)) * (100 / Math.Sqrt(1300));
+            var cut = sStar + 1e-5;
+            var problem = new ReliabilityProblem(
+                new StochasticModel([new NormalVariable("R", 200, 20), new NormalVariable("S", 100, 30)]),
+                new LimitState("R-S", x => x[1] > cut ? double.NaN : x[0] - x[1]));
+            var result = FormSolver.Solve(problem);
+            Assert.True(result.Converged, result.Diagnostic);
+            Assert.Equal(100 / Math.Sqrt(1300), result.Beta, 1e-7);
+        }
+    }
+
+    public class Non_convergence
+    {
+        [Fact]
+        [Reference("Closed form: g = 1 + x1² + x2² ≥ 1 never reaches zero")]
+        public void Limit_state_that_never_crosses_zero_is_reported_not_converged()
+        {
+            var result = FormSolver.Solve(TwoNormals(x => 1 + x[0] * x[0] + x[1] * x[1]));
+            Assert.False(result.Converged);
+            Assert.NotNull(result.Diagnostic);
+            Assert.Contains("never reach zero", result.Diagnostic, StringComparison.Ordinal);
+        }
+
+        [Fact]
+        [Reference("Closed form: g = exp(x) > 0 decays towards zero without crossing it")]
+        public void Limit_state_that_only_decays_towards_zero_is_not_reported_converged()
+        {
+            // |G|/|G(0)| falls below 1e-6 after about 14 HL-RF steps, but the point is a unit distance from the
+            // linearized surface at every step: the surface-distance guard must keep the run from claiming a design point.
+            var result = FormSolver.Solve(TwoNormals(x => Math.Exp(x[0])));
+            Assert.False(result.Converged);
+            Assert.NotNull(result.Diagnostic);
+        }
+
+        [Fact]
+        public void Non_finite_limit_state_at_the_start_is_reported()
+        {
+            var result = FormSolver.Solve(TwoNormals(_ => double.NaN));
+            Assert.False(result.Converged);
+            Assert.Contains("NaN", result.Diagnostic, StringComparison.Ordinal);
+            Assert.Equal(1, result.LimitStateEvaluations);
+        }
+
+        [Fact]
+        public void Exact_zero_gradient_is_reported()
+        {
+            // A step function of x: the finite differences see no slope at the start.
+            var result = FormSolver.Solve(TwoNormals(x => x[0] < -3 ? -1 : 1));
+            Assert.False(result.Converged);
+            Assert.Contains("gradient vanished", result.Diagnostic, StringComparison.Ordinal);
+        }
+
+        [Fact]
+        [Reference("REFERENCES.md [derived]: g = X1·X2 − X3 needs several iHL-RF steps")]
+        public void Iteration_cap_is_reported_with_the_residuals()
+        {
+            var result = FormSolver.Solve(FormTestModels.ProductOfNormals(), new FormOptions { MaxIterations = 1 });
+            Assert.False(result.Converged);
+            Assert.Equal(1, result.Iterations);
+            Assert.Contains("No convergence within 1 iterations", result.Diagnostic, StringComparison.Ordinal);
+            Assert.False(FormSolver.TrySolve(FormTestModels.ProductOfNormals(), new FormOptions { MaxIterations = 1 }, out var again));
+            Assert.False(again.Converged);
+        }
+
+        [Fact]
+        [Reference("Closed form: g = √(x1 + 6) − 0.5 with x1 ~ N(1, 1) fails for x1 ≤ −5.75, so β = 6.75")]
+        public void Non_finite_region_is_avoided_by_the_line_search()
+        {
+            // NaN for x1 < −6; the full HL-RF step from the origin lands at x1 ≈ −10.3, so the line search must back off.
+            var nanCalls = 0;
+            var result = FormSolver.Solve(TwoNormals(x =>
+            {
+                var g = Math.Sqrt(x[0] + 6) - 0.5;
+                if (double.IsNaN(g)) Interlocked.Increment(ref nanCalls);
+                return g;
+            }));
+            Assert.True(nanCalls > 0, "the scenario must visit the undefined region");
+            Assert.True(result.Converged, result.Diagnostic);
+            Assert.Equal(6.75, result.Beta, 1e-6);
+        }
+    }
+
+    public class Options
+    {
+        public static TheoryData<FormOptions, string> BadOptions => new()
+        {
+            { new FormOptions { MaxIterations = -1 }, "MaxIterations" },
+            { new FormOptions { LimitStateTolerance = 0 }, "LimitStateTolerance" },
+            { new FormOptions { LimitStateTolerance = double.NaN }, "LimitStateTolerance" },
+            { new FormOptions { AlignmentTolerance = -1e-3 }, "AlignmentTolerance" },
+            { new FormOptions { RelativeStep = 0 }, "RelativeStep" },
+            { new FormOptions { RelativeStep = 0.5 }, "RelativeStep" },
+            { new FormOptions { LimitStateScale = 0 }, "LimitStateScale" },
+            { new FormOptions { LimitStateScale = double.PositiveInfinity }, "LimitStateScale" },
+            { new FormOptions { Gradient = (GradientMethod)42 }, "Gradient" },
+        };
+
+        [Theory]
+        [MemberData(nameof(BadOptions))]
+        public void Each_bad_setting_is_rejected_naming_it(FormOptions options, string name)
+        {
+            var ex = Assert.Throws<ArgumentOutOfRangeException>(() => FormSolver.Solve(FormTestModels.ProductOfNormals(), options));
+            Assert.Equal(name, ex.ParamName);
+        }
+
+        [Fact]
+        [Reference("Closed form: Cornell (1969)")]
+        public void Zero_iterations_reports_the_linearization_at_the_start_point()
+        {
+            var problem = new ReliabilityProblem(
+                new StochasticModel([new NormalVariable("R", 200, 20), new NormalVariable("S", 100, 30)]),
+                new LimitState("R-S", x => x[0] - x[1]));
+            var result = FormSolver.Solve(problem, new FormOptions { MaxIterations = 0 });
+            Assert.False(result.Converged);
+            Assert.Equal(0, result.Iterations);
+            // α is exact for a linear margin from any point.
+            Assert.Equal(-20 / Math.Sqrt(1300), result.Alpha[0], 1e-9);
+        }
+    }
+}
