@@ -53,6 +53,22 @@ internal sealed class EventFunction
         return h;
     }
 
+    /// <summary>h(u) and ∇ᵤh by forward differences (step 1e-6): cheaper, for the iterations of a search.</summary>
+    public double ValueAndForwardGradientAtU(double[] u, double[] gradient)
+    {
+        const double step = 1e-6;
+        var h = ValueAtU(u);
+        var work = (double[])u.Clone();
+        for (var i = 0; i < u.Length; i++)
+        {
+            work[i] = u[i] + step;
+            gradient[i] = (ValueAtU(work) - h) / step;
+            work[i] = u[i];
+        }
+
+        return h;
+    }
+
     /// <summary>Linearizes h at u: β = αᵀu + h(u)/‖∇h‖ (so that an on-surface point gives β = αᵀu).</summary>
     public LinearizedEvent LinearizeAt(double[] u, bool converged, string? diagnostic)
     {

@@ -51,7 +51,7 @@ internal static class JointDesignPoint
                 var worst = 0.0;
                 for (var a = 0; a < idx.Length; a++)
                 {
-                    var h = functions[idx[a]].ValueAndGradientAtU(u, grad);
+                    var h = functions[idx[a]].ValueAndForwardGradientAtU(u, grad);
                     var norm = Math.Sqrt(grad.Sum(g => g * g));
                     if (!(norm > 0) || !double.IsFinite(h)) return new Result(u, false, $"'{functions[idx[a]].Name}' has no usable gradient at the joint design point.");
                     c[a] = h;
@@ -109,7 +109,7 @@ internal static class JointDesignPoint
             for (var i = 0; i < k; i++)
             {
                 if (active[i] || functions[i].IsEquality) continue;
-                var h = functions[i].ValueAndGradientAtU(u, grad);
+                var h = functions[i].ValueAndForwardGradientAtU(u, grad);
                 var norm = Math.Sqrt(grad.Sum(g => g * g));
                 if (h / Math.Max(norm, 1e-300) > 1e-7)
                 {
