@@ -8,9 +8,11 @@ internal sealed class EventFunction
 {
     private readonly IProbabilityTransformation _transformation;
     private readonly double[] _x;
+    private readonly ILimitState? _limitState;
 
-    public EventFunction(string name, bool isEquality, LimitStateFunction function, IProbabilityTransformation transformation)
+    public EventFunction(string name, bool isEquality, LimitStateFunction function, IProbabilityTransformation transformation, ILimitState? limitState = null)
     {
+        _limitState = limitState;
         Name = name;
         IsEquality = isEquality;
         Function = function;
@@ -99,7 +101,7 @@ internal sealed class EventFunction
     /// <summary>FORM on h (equality or inequality alike: the nearest point of h = 0), then the linearization there.</summary>
     public LinearizedEvent LinearizeAtDesignPoint(FormOptions options, IReadOnlyList<double>? start)
     {
-        var problem = new ReliabilityProblem(_transformation, new LimitState(Name, Function));
+        var problem = new ReliabilityProblem(_transformation, _limitState ?? new LimitState(Name, Function));
         var form = FormSolver.Solve(problem, start is null ? options : options with { StartPoint = start });
         var u = form.DesignPointU.ToArray();
         if (!form.Converged)

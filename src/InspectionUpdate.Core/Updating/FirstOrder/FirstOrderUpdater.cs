@@ -53,8 +53,8 @@ internal sealed class FirstOrderUpdater
     {
         EnsureEvidence();
         var linear = _linear!;
-        var fn = new EventFunction(FormattableString.Invariant($"failure of {componentId} at {timeYears:0.###} y"), false,
-            _model.FailureFunction(componentId, timeYears), _transformation);
+        var limitState = _model.FailureLimitState(componentId, timeYears);
+        var fn = new EventFunction(limitState.Name, false, _model.FailureFunction(componentId, timeYears), _transformation, limitState);
         var failure = fn.LinearizeAtDesignPoint(_options.Form, warmStart);
         var flags = new List<string>(_evidenceFlags!);
         if (!failure.Converged) flags.Add($"FORM on the failure event did not converge: {failure.Diagnostic}");

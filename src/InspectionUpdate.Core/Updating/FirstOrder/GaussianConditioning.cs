@@ -22,7 +22,7 @@ internal static class GaussianConditioning
     /// <summary>P(F ∩ I | E) and P(I | E) with F, I, E linearized. <paramref name="failure"/> null gives P(I | E) twice.</summary>
     /// <remarks><paramref name="denominator"/>, when given, is P(I | E) computed before (it does not depend on time).</remarks>
     public static Result Evaluate(LinearizedEvent? failure, IReadOnlyList<LinearizedEvent> inequalities, IReadOnlyList<LinearizedEvent> equalities,
-        (double Value, double Error, string? Problem)? denominator = null, double relativeError = 2e-3)
+        (double Value, double Error, string? Problem)? denominator = null, double relativeError = 5e-3)
     {
         var others = new List<LinearizedEvent>();
         if (failure is not null) others.Add(failure);
@@ -42,7 +42,7 @@ internal static class GaussianConditioning
     }
 
     /// <summary>P(Z_I ≤ −β_I | Z_E = −β_E) with its error, or the reason it cannot be computed.</summary>
-    public static (double Value, double Error, string? Problem) Orthant(IReadOnlyList<LinearizedEvent> ineq, IReadOnlyList<LinearizedEvent> eq, double relativeError = 2e-3)
+    public static (double Value, double Error, string? Problem) Orthant(IReadOnlyList<LinearizedEvent> ineq, IReadOnlyList<LinearizedEvent> eq, double relativeError = 5e-3)
     {
         var m = eq.Count;
         var n = ineq.Count;

@@ -23,7 +23,7 @@ internal static class InterimMultinormal
     /// fixed, so the integration error is a smooth function of the limits (common random numbers): differences such as
     /// ΔPf(t) = Pf(t) − Pf(t − 1) do not pick up lattice noise.
     /// </summary>
-    public static (double Value, double Error) Cdf(double[] b, double[,] r, double relativeError = 2e-3, int initialPoints = 128, int maxPoints = 8192)
+    public static (double Value, double Error) Cdf(double[] b, double[,] r, double relativeError = 5e-3, int initialPoints = 64, int maxPoints = 8192)
     {
         var keep = Enumerable.Range(0, b.Length).Where(i => !(b[i] > CertainLimit)).ToArray();
         if (keep.Any(i => double.IsNegativeInfinity(b[i]))) return (0.0, 0.0);
