@@ -14,8 +14,8 @@ namespace InspectionUpdate.Planning;
 /// <remarks>
 /// The annual measure at t is ΔPf(t) = Pf(t | E) − Pf(t − 1 | E) or the hazard ΔPf/(1 − Pf(t − 1 | E)) of the
 /// updated cumulative Pf (see <see cref="AnnualMeasure"/>). Due dates are the first crossing of the target on
-/// continuous time: a scan every <see cref="PlanningOptions.ScanStepYears"/> brackets it and bisection
-/// (<see cref="TimeVariant.TargetCrossing"/>) narrows the bracket to <see cref="PlanningOptions.ToleranceYears"/>;
+/// continuous time: a scan every <see cref="PlanningOptions.ScanStepYears"/> (<see cref="TimeVariant.TargetCrossing"/>)
+/// brackets it and regula falsi (Illinois) narrows the bracket to <see cref="PlanningOptions.ToleranceYears"/>;
 /// the date reported is the bracket's lower end, where the measure is still below the target. A schedule assumes
 /// each planned inspection finds nothing (JCSS Probabilistic Model Code Part 1, Annex B event-tree updating with
 /// the "no indication" branch).
@@ -453,7 +453,7 @@ public sealed partial class InspectionPlanner
                 ? "Annual measure: the hazard ΔPf(t)/(1 − Pf(t − 1)) of the updated cumulative failure probability, over the year ending at t."
                 : "Annual measure: ΔPf(t) = Pf(t) − Pf(t − 1) of the updated cumulative failure probability, over the year ending at t.",
             "In the first year after entry into service or after a repair the annual window starts at that time, not a year earlier.",
-            Invariant($"Due dates are the last time still under the target: a scan every {options.ScanStepYears:0.###} years brackets the first crossing and bisection narrows it to {options.ToleranceYears:0.####} years ({options.ToleranceYears * ServiceTime.DaysPerYear:0.0#} days); a crossing that starts and ends between two scan points would be missed."),
+            Invariant($"Due dates are the last time still under the target: a scan every {options.ScanStepYears:0.###} years brackets the first crossing and regula falsi narrows it to {options.ToleranceYears:0.####} years ({options.ToleranceYears * ServiceTime.DaysPerYear:0.0#} days); a crossing that starts and ends between two scan points would be missed."),
             Invariant($"Evidence used: {request.Evidence.Count} finding(s) and repair(s) up to {request.LatestEvidenceYears:0.###} years; service time is counted from {Iso(request.InServiceDate)} in years of 365.2425 days."),
         };
         if (method is not null)

@@ -86,6 +86,18 @@ internal sealed class EventFunction
         var problem = new ReliabilityProblem(_transformation, new LimitState(Name, Function));
         var form = FormSolver.Solve(problem, start is null ? options : options with { StartPoint = start });
         var u = form.DesignPointU.ToArray();
+        if (!form.Converged)
+        {
+            // Second attempt from FORM's last iterate: the Newton projection onto h = 0 (the one-constraint case of
+            // the joint search), which does not need the alignment test that FORM can miss on noisy gradients.
+            var projection = JointDesignPoint.Find([new EventFunction(Name, true, Function, _transformation)], [true], u);
+            if (projection.Converged)
+            {
+                var retry = LinearizeAt(projection.U, true, null);
+                return retry with { Evaluations = retry.Evaluations + form.LimitStateEvaluations + projection.Evaluations };
+            }
+        }
+
         var lin = LinearizeAt(u, form.Converged, form.Converged ? null : form.Diagnostic);
         // FORM's own β and α are the reference at its design point; the central-difference normal is used for the
         // nonlinearity checks only.

@@ -93,8 +93,11 @@ internal sealed class FirstOrderUpdater
         }
 
         _jointWarm[key] = numeratorPoint.U;
-        var numLin = all.Select(f => f.LinearizeAt(numeratorPoint.U, true, null)).ToArray();
-        _denominatorLinear ??= _events.Select(f => f.LinearizeAt(_denominatorPoint.U, true, null)).ToArray();
+        // Active events are linearized at the joint point; inactive ones do not bound the intersection there and keep
+        // their own design-point linearization.
+        var individualAll = linear.Append(failure).ToArray();
+        var numLin = all.Select((f, i) => numeratorPoint.Active![i] ? f.LinearizeAt(numeratorPoint.U, true, null) : individualAll[i]).ToArray();
+        _denominatorLinear ??= _events.Select((f, i) => _denominatorPoint.Active![i] ? f.LinearizeAt(_denominatorPoint.U, true, null) : linear[i]).ToArray();
         var denLin = _denominatorLinear;
         evaluations += all.Sum(f => f.Evaluations) - before;
         var fJoint = numLin[^1];
@@ -116,7 +119,8 @@ internal sealed class FirstOrderUpdater
                 $"Individual and joint linearizations disagree: {pi:G4} against {pj:G4}."));
         }
 
-        return Finish(joint, fJoint, converged, agree, joint: true, flags, evaluations);
+        // Any flag (a departure of an event from its linearization, or the disagreement) marks the result unreliable.
+        return Finish(joint, fJoint, converged, reliable: flags.Count == 0, joint: true, flags, evaluations);
     }
 
     private FirstOrderEstimate Finish(GaussianConditioning.Result r, LinearizedEvent failure, bool converged, bool reliable, bool joint,

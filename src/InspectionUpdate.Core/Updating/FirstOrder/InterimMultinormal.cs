@@ -1,67 +1,27 @@
 using InspectionUpdate.Probability;
-using MathNet.Numerics.Integration;
+using InspectionUpdate.Reliability.Multinormal;
 
 namespace InspectionUpdate.Updating.FirstOrder;
 
 /// <summary>
 /// Multinormal orthant probabilities P(Z ≤ b), Z ~ N(0, R) with unit variances, for the first-order updating route.
-/// Interim: to be replaced by the shared multinormal integrator of the Reliability layer when it lands.
+/// n ≥ 3 is interim: to be replaced by the Reliability layer's multinormal integrator when it lands.
 /// </summary>
 /// <remarks>
-/// n = 1: Φ. n = 2: the one-dimensional conditioning integral ∫ φ(z) Φ((b₂ − ρz)/√(1 − ρ²)) dz over z ≤ b₁ by
-/// composite Gauss–Legendre, split at the kink z = b₂/ρ (relative error ~1e-12). n ≥ 3: Genz (1992) separation of
-/// variables with a randomly shifted Richtmyer lattice; the error is three standard errors over the shifts.
+/// n = 1: Φ. n = 2: <see cref="BivariateNormal.Cdf"/> (Genz 2004). n ≥ 3: Genz (1992) separation of variables with a
+/// randomly shifted Richtmyer lattice (tent-transformed), fixed shifts so results are reproducible; the error is
+/// three standard errors over the shifts.
 /// </remarks>
 internal static class InterimMultinormal
 {
-    private const int Panels = 24;
-    private const int GaussOrder = 16;
-
     /// <summary>P(Z ≤ b) and an error estimate (0 for n ≤ 2).</summary>
     public static (double Value, double Error) Cdf(double[] b, double[,] r, int latticePoints = 4096, int shifts = 8)
     {
         var n = b.Length;
         if (n == 0) return (1.0, 0.0);
         if (n == 1) return (StandardNormal.Cdf(b[0]), 0.0);
-        if (n == 2) return (Bivariate(b[0], b[1], r[0, 1]), 0.0);
+        if (n == 2) return (BivariateNormal.Cdf(b[0], b[1], Math.Clamp(r[0, 1], -1.0, 1.0)), 0.0);
         return Genz(b, r, latticePoints, shifts);
-    }
-
-    /// <summary>Φ₂(h, k; ρ).</summary>
-    public static double Bivariate(double h, double k, double rho)
-    {
-        if (double.IsNegativeInfinity(h) || double.IsNegativeInfinity(k)) return 0.0;
-        if (double.IsPositiveInfinity(h)) return StandardNormal.Cdf(k);
-        if (double.IsPositiveInfinity(k)) return StandardNormal.Cdf(h);
-        if (rho >= 1 - 1e-14) return StandardNormal.Cdf(Math.Min(h, k));
-        if (rho <= -1 + 1e-14) return Math.Max(0.0, StandardNormal.Cdf(h) - StandardNormal.Cdf(-k));
-        // Integrate over the more restrictive variable.
-        if (k < h) (h, k) = (k, h);
-        var s = Math.Sqrt((1 - rho) * (1 + rho));
-        var upper = Math.Min(h, 9.0);
-        var lower = upper < 0 ? upper - 9.0 : -9.0;
-        if (upper <= lower) return 0.0;
-        double F(double z) => StandardNormal.Pdf(z) * StandardNormal.Cdf((k - rho * z) / s);
-        var cuts = new List<double> { lower, upper };
-        if (Math.Abs(rho) > 1e-12)
-        {
-            var kink = k / rho;
-            if (kink > lower && kink < upper) cuts.Add(kink);
-        }
-
-        cuts.Sort();
-        var total = 0.0;
-        for (var c = 0; c + 1 < cuts.Count; c++)
-        {
-            var width = (cuts[c + 1] - cuts[c]) / Panels;
-            for (var p = 0; p < Panels; p++)
-            {
-                var a = cuts[c] + p * width;
-                total += GaussLegendreRule.Integrate(F, a, a + width, GaussOrder);
-            }
-        }
-
-        return Math.Clamp(total, 0.0, 1.0);
     }
 
     private static readonly int[] Primes = [2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41, 43, 47, 53, 59, 61, 67, 71, 73, 79, 83, 89, 97, 101, 103, 107, 109, 113];

@@ -10,15 +10,22 @@ namespace InspectionUpdate.Updating.FirstOrder;
 /// </summary>
 /// <remarks>
 /// Interim, local to first-order updating: to be replaced by the Reliability layer's joint design-point search of
-/// parallel systems when it lands.
+/// parallel systems when it lands. Events inactive at the joint point keep their individual linearization.
 /// </remarks>
 internal static class JointDesignPoint
 {
     private const double MaxStep = 2.0;
 
-    public sealed record Result(double[] U, bool Converged, string? Diagnostic);
+    public sealed record Result(double[] U, bool Converged, string? Diagnostic, bool[]? Active = null, int Evaluations = 0);
 
     public static Result Find(IReadOnlyList<EventFunction> functions, IReadOnlyList<bool> initiallyActive, double[] start, int maxIterations = 80)
+    {
+        var before = functions.Sum(f => f.Evaluations);
+        var result = FindCore(functions, initiallyActive, start, maxIterations);
+        return result with { Evaluations = functions.Sum(f => f.Evaluations) - before };
+    }
+
+    private static Result FindCore(IReadOnlyList<EventFunction> functions, IReadOnlyList<bool> initiallyActive, double[] start, int maxIterations)
     {
         var k = functions.Count;
         var d = start.Length;
@@ -33,7 +40,7 @@ internal static class JointDesignPoint
         for (var round = 0; round < 2 * k + 2; round++)
         {
             var idx = Enumerable.Range(0, k).Where(i => active[i]).ToArray();
-            if (idx.Length == 0) return new Result(new double[d], true, null); // the origin lies in the intersection
+            if (idx.Length == 0) return new Result(new double[d], true, null, active); // the origin lies in the intersection
             if (idx.Length > d) return new Result(u, false, "More active constraints than random variables at the joint design point.");
             Vector<double>? lambda = null;
             var inner = false;
@@ -111,7 +118,7 @@ internal static class JointDesignPoint
                 }
             }
 
-            if (!dropped && !added) return new Result(u, true, null);
+            if (!dropped && !added) return new Result(u, true, null, active);
         }
 
         return new Result(u, false, "The active set of the joint design point did not settle.");
