@@ -59,6 +59,8 @@ public sealed class CliHost
             ColorSystem = redirected ? ColorSystemSupport.NoColors : ColorSystemSupport.Detect,
             Interactive = redirected ? InteractionSupport.No : InteractionSupport.Detect,
         });
+        // Redirected output has no terminal width: wide enough that tables written to files do not wrap.
+        if (redirected) console.Profile.Width = 160;
         return new CliHost(console, System.Console.Out, System.Console.Error, !redirected,
             () => DateOnly.FromDateTime(DateTime.Today), Environment.CurrentDirectory);
     }
