@@ -14,7 +14,7 @@ public class LinearGaussianUpdatingTests
     private const double D0Mean = 1.0, D0Sd = 0.3, RMean = 0.25, RSd = 0.08, CriticalMm = 8.0, ErrorSd = 0.25;
     private static readonly (double T, double Mm)[] Readings = [(5, 2.6), (10, 4.1)];
 
-    private static readonly InspectionMethod Ut = TestModels.Method(new ProbitPod(Math.Log(1.0), 0.4), SizingErrorKind.AdditiveNormal, 0, ErrorSd);
+    private static readonly InspectionMethod Ut = TestModels.Method(new CumulativeLognormalPod(Math.Log(1.0), 0.4), SizingErrorKind.AdditiveNormal, 0, ErrorSd);
 
     private static List<InspectionOutcome> Evidence() =>
         Readings.Select((r, i) => (InspectionOutcome)new SizedIndication(r.T, $"W-{i + 1}", Ut, r.Mm)).ToList();

@@ -29,16 +29,6 @@ internal sealed class TestDegradationModel(
     public double MaximumSizeMm => double.PositiveInfinity;
 }
 
-/// <summary>Test-local probit PoD: PoD(a) = Φ((ln a − μ)/σ), so A_d is lognormal(μ, σ).</summary>
-internal sealed class ProbitPod(double mu, double sigma) : ProbabilityOfDetection
-{
-    public override string Form => "probit in ln a (test)";
-
-    public override double Evaluate(double sizeMm) => sizeMm <= 0 ? 0 : StandardNormal.Cdf((Math.Log(sizeMm) - mu) / sigma);
-
-    public override RandomVariable DetectableSize(string name) => LognormalVariable.FromLogParameters(name, mu, sigma);
-}
-
 internal static class TestModels
 {
     /// <summary>depth = D0 + R·t (mm), failure when depth ≥ the critical depth; D0 renewed on repair, R shared.</summary>

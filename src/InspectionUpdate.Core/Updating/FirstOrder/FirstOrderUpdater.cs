@@ -35,6 +35,8 @@ internal sealed class FirstOrderUpdater
     private int _evidenceEvaluations;
     private JointDesignPoint.Result? _denominatorPoint;
     private LinearizedEvent[]? _denominatorLinear;
+    private (double Value, double Error, string? Problem)? _individualDenominator;
+    private (double Value, double Error, string? Problem)? _jointDenominator;
     private readonly Dictionary<string, double[]> _jointWarm = new(StringComparer.Ordinal);
 
     public FirstOrderUpdater(EvidenceModel model, IProbabilityTransformation transformation, UpdatingOptions options)
@@ -51,8 +53,8 @@ internal sealed class FirstOrderUpdater
     {
         EnsureEvidence();
         var linear = _linear!;
-        var fn = new EventFunction(FormattableString.Invariant($"failure of {componentId} at {timeYears:0.###} y"), false,
-            _model.FailureFunction(componentId, timeYears), _transformation);
+        var limitState = _model.FailureLimitState(componentId, timeYears);
+        var fn = new EventFunction(limitState.Name, false, _model.FailureFunction(componentId, timeYears), _transformation, limitState);
         var failure = fn.LinearizeAtDesignPoint(_options.Form, warmStart);
         var flags = new List<string>(_evidenceFlags!);
         if (!failure.Converged) flags.Add($"FORM on the failure event did not converge: {failure.Diagnostic}");
@@ -66,7 +68,9 @@ internal sealed class FirstOrderUpdater
                 flags, failure, failure.Evaluations + fn.Evaluations, failure.Converged ? null : failure.Diagnostic);
         }
 
-        var individual = GaussianConditioning.Evaluate(failure, ineq, eq);
+        _individualDenominator ??= GaussianConditioning.Orthant(ineq, eq);
+        // The individual result only checks the joint one (10 % agreement): 1 % integration accuracy is enough.
+        var individual = GaussianConditioning.Evaluate(failure, ineq, eq, _individualDenominator, relativeError: 1e-2);
         flags.AddRange(NonlinearityFlags(fn, failure));
         var evaluations = fn.Evaluations + _evidenceEvaluations;
 
@@ -93,14 +97,17 @@ internal sealed class FirstOrderUpdater
         }
 
         _jointWarm[key] = numeratorPoint.U;
-        var numLin = all.Select(f => f.LinearizeAt(numeratorPoint.U, true, null)).ToArray();
-        _denominatorLinear ??= _events.Select(f => f.LinearizeAt(_denominatorPoint.U, true, null)).ToArray();
+        // Active events are linearized at the joint point; inactive ones do not bound the intersection there and keep
+        // their own design-point linearization.
+        var individualAll = linear.Append(failure).ToArray();
+        var numLin = all.Select((f, i) => numeratorPoint.Active![i] ? f.LinearizeAt(numeratorPoint.U, true, null) : individualAll[i]).ToArray();
+        _denominatorLinear ??= _events.Select((f, i) => _denominatorPoint.Active![i] ? f.LinearizeAt(_denominatorPoint.U, true, null) : linear[i]).ToArray();
         var denLin = _denominatorLinear;
         evaluations += all.Sum(f => f.Evaluations) - before;
         var fJoint = numLin[^1];
+        _jointDenominator ??= GaussianConditioning.Orthant(denLin.Where(l => !l.IsEquality).ToArray(), denLin.Where(l => l.IsEquality).ToArray());
         var joint = GaussianConditioning.Evaluate(fJoint,
-            numLin[..^1].Where(l => !l.IsEquality).ToArray(), numLin[..^1].Where(l => l.IsEquality).ToArray(),
-            denLin.Where(l => !l.IsEquality).ToArray(), denLin.Where(l => l.IsEquality).ToArray());
+            numLin[..^1].Where(l => !l.IsEquality).ToArray(), numLin[..^1].Where(l => l.IsEquality).ToArray(), _jointDenominator);
         if (joint.Problem is not null)
         {
             flags.Add("Joint linearization: " + joint.Problem);
@@ -116,7 +123,8 @@ internal sealed class FirstOrderUpdater
                 $"Individual and joint linearizations disagree: {pi:G4} against {pj:G4}."));
         }
 
-        return Finish(joint, fJoint, converged, agree, joint: true, flags, evaluations);
+        // Any flag (a departure of an event from its linearization, or the disagreement) marks the result unreliable.
+        return Finish(joint, fJoint, converged, reliable: flags.Count == 0, joint: true, flags, evaluations);
     }
 
     private FirstOrderEstimate Finish(GaussianConditioning.Result r, LinearizedEvent failure, bool converged, bool reliable, bool joint,

@@ -10,15 +10,22 @@ namespace InspectionUpdate.Updating.FirstOrder;
 /// </summary>
 /// <remarks>
 /// Interim, local to first-order updating: to be replaced by the Reliability layer's joint design-point search of
-/// parallel systems when it lands.
+/// parallel systems when it lands. Events inactive at the joint point keep their individual linearization.
 /// </remarks>
 internal static class JointDesignPoint
 {
     private const double MaxStep = 2.0;
 
-    public sealed record Result(double[] U, bool Converged, string? Diagnostic);
+    public sealed record Result(double[] U, bool Converged, string? Diagnostic, bool[]? Active = null, int Evaluations = 0);
 
     public static Result Find(IReadOnlyList<EventFunction> functions, IReadOnlyList<bool> initiallyActive, double[] start, int maxIterations = 80)
+    {
+        var before = functions.Sum(f => f.Evaluations);
+        var result = FindCore(functions, initiallyActive, start, maxIterations);
+        return result with { Evaluations = functions.Sum(f => f.Evaluations) - before };
+    }
+
+    private static Result FindCore(IReadOnlyList<EventFunction> functions, IReadOnlyList<bool> initiallyActive, double[] start, int maxIterations)
     {
         var k = functions.Count;
         var d = start.Length;
@@ -33,7 +40,7 @@ internal static class JointDesignPoint
         for (var round = 0; round < 2 * k + 2; round++)
         {
             var idx = Enumerable.Range(0, k).Where(i => active[i]).ToArray();
-            if (idx.Length == 0) return new Result(new double[d], true, null); // the origin lies in the intersection
+            if (idx.Length == 0) return new Result(new double[d], true, null, active); // the origin lies in the intersection
             if (idx.Length > d) return new Result(u, false, "More active constraints than random variables at the joint design point.");
             Vector<double>? lambda = null;
             var inner = false;
@@ -44,7 +51,7 @@ internal static class JointDesignPoint
                 var worst = 0.0;
                 for (var a = 0; a < idx.Length; a++)
                 {
-                    var h = functions[idx[a]].ValueAndGradientAtU(u, grad);
+                    var h = functions[idx[a]].ValueAndForwardGradientAtU(u, grad);
                     var norm = Math.Sqrt(grad.Sum(g => g * g));
                     if (!(norm > 0) || !double.IsFinite(h)) return new Result(u, false, $"'{functions[idx[a]].Name}' has no usable gradient at the joint design point.");
                     c[a] = h;
@@ -69,7 +76,7 @@ internal static class JointDesignPoint
                 var len = step.L2Norm();
                 if (len > MaxStep) step *= MaxStep / len;
                 for (var b = 0; b < d; b++) u[b] += step[b];
-                if (len < 1e-9 * Math.Max(1.0, uv.L2Norm()) && worst < 1e-8)
+                if (len < 1e-7 * Math.Max(1.0, uv.L2Norm()) && worst < 1e-7)
                 {
                     inner = true;
                     break;
@@ -102,16 +109,15 @@ internal static class JointDesignPoint
             for (var i = 0; i < k; i++)
             {
                 if (active[i] || functions[i].IsEquality) continue;
-                var h = functions[i].ValueAndGradientAtU(u, grad);
-                var norm = Math.Sqrt(grad.Sum(g => g * g));
-                if (h / Math.Max(norm, 1e-300) > 1e-7)
+                // A violated inequality joins; the tolerance is on h itself (event functions are O(1) to O(100)).
+                if (functions[i].ValueAtU(u) > 1e-9)
                 {
                     active[i] = true;
                     added = true;
                 }
             }
 
-            if (!dropped && !added) return new Result(u, true, null);
+            if (!dropped && !added) return new Result(u, true, null, active);
         }
 
         return new Result(u, false, "The active set of the joint design point did not settle.");
