@@ -20,16 +20,17 @@ internal static class GaussianConditioning
     }
 
     /// <summary>P(F ∩ I | E) and P(I | E) with F, I, E linearized. <paramref name="failure"/> null gives P(I | E) twice.</summary>
+    /// <remarks><paramref name="denominator"/>, when given, is P(I | E) computed before (it does not depend on time).</remarks>
     public static Result Evaluate(LinearizedEvent? failure, IReadOnlyList<LinearizedEvent> inequalities, IReadOnlyList<LinearizedEvent> equalities,
-        IReadOnlyList<LinearizedEvent>? denominatorInequalities = null, IReadOnlyList<LinearizedEvent>? denominatorEqualities = null)
+        (double Value, double Error, string? Problem)? denominator = null, double relativeError = 5e-3)
     {
         var others = new List<LinearizedEvent>();
         if (failure is not null) others.Add(failure);
         others.AddRange(inequalities);
-        var (joint, e1, p1) = Orthant(others, equalities);
+        var (joint, e1, p1) = Orthant(others, equalities, relativeError);
         if (p1 is not null) return new Result(joint, double.NaN, double.NaN, p1);
         if (failure is null) return new Result(joint, joint, e1, null);
-        var (evidence, e2, p2) = Orthant(denominatorInequalities ?? inequalities, denominatorEqualities ?? equalities);
+        var (evidence, e2, p2) = denominator ?? Orthant(inequalities, equalities);
         if (p2 is not null) return new Result(joint, evidence, double.NaN, p2);
         if (!(evidence > 0))
         {
@@ -40,7 +41,8 @@ internal static class GaussianConditioning
         return new Result(joint, evidence, rel, null);
     }
 
-    private static (double Value, double Error, string? Problem) Orthant(IReadOnlyList<LinearizedEvent> ineq, IReadOnlyList<LinearizedEvent> eq)
+    /// <summary>P(Z_I ≤ −β_I | Z_E = −β_E) with its error, or the reason it cannot be computed.</summary>
+    public static (double Value, double Error, string? Problem) Orthant(IReadOnlyList<LinearizedEvent> ineq, IReadOnlyList<LinearizedEvent> eq, double relativeError = 5e-3)
     {
         var m = eq.Count;
         var n = ineq.Count;
@@ -99,7 +101,7 @@ internal static class GaussianConditioning
                 r[a, b] = a == b ? 1.0 : Math.Clamp(cov[keep[a], keep[b]] / Math.Sqrt(cov[keep[a], keep[a]] * cov[keep[b], keep[b]]), -1.0, 1.0);
             }
 
-        var (value, error) = InterimMultinormal.Cdf(limits.ToArray(), r);
+        var (value, error) = InterimMultinormal.Cdf(limits.ToArray(), r, relativeError);
         return (value, error, null);
     }
 
