@@ -35,11 +35,11 @@ public class AssessSettings : RegisterSettings
     [DefaultValue(40.0)]
     public double HorizonYears { get; init; } = 40;
 
-    /// <summary>Grid step.</summary>
-    [CommandOption("--step-years <YEARS>")]
-    [Description("Grid step in years (1 gives annual failure probabilities).")]
-    [DefaultValue(1.0)]
-    public double StepYears { get; init; } = 1;
+    /// <summary>Grid steps per year.</summary>
+    [CommandOption("--steps-per-year <N>")]
+    [Description("Grid steps per year, 1 to 12 (1 gives annual failure probabilities).")]
+    [DefaultValue(1)]
+    public int StepsPerYear { get; init; } = 1;
 
     /// <inheritdoc />
     public override ValidationResult Validate()
@@ -47,7 +47,8 @@ public class AssessSettings : RegisterSettings
         if (Model is null && Component is null) return ValidationResult.Error("Name a COMPONENT of the register or give --model FILE.");
         if (Model is not null && Component is not null) return ValidationResult.Error($"Give either COMPONENT '{Component}' or --model '{Model}', not both.");
         if (!(HorizonYears > 0) || !double.IsFinite(HorizonYears)) return ValidationResult.Error($"--horizon-years '{HorizonYears.ToString(CultureInfo.InvariantCulture)}' must be a positive number of years.");
-        if (!(StepYears > 0) || StepYears > HorizonYears) return ValidationResult.Error($"--step-years '{StepYears.ToString(CultureInfo.InvariantCulture)}' must be positive and at most the horizon.");
+        if (StepsPerYear is < 1 or > 12) return ValidationResult.Error($"--steps-per-year '{StepsPerYear.ToString(CultureInfo.InvariantCulture)}' must be a whole number from 1 to 12.");
+        if (HorizonYears > 200) return ValidationResult.Error($"--horizon-years '{HorizonYears.ToString(CultureInfo.InvariantCulture)}' is more than 200 years of service.");
         if (AsOf is not null && !DateOnly.TryParseExact(AsOf, "yyyy-MM-dd", CultureInfo.InvariantCulture, DateTimeStyles.None, out _))
         {
             return ValidationResult.Error($"--as-of '{AsOf}' is not an ISO 8601 date (yyyy-MM-dd).");

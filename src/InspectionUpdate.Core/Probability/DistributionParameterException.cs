@@ -49,4 +49,31 @@ public sealed class DistributionParameterException : ArgumentException
             throw new DistributionParameterException(variable, parameter, value, "must be finite");
         }
     }
+    /// <summary>Throws unless <paramref name="value"/> is finite and ≥ 0.</summary>
+    internal static void RequireNonNegative(string variable, string parameter, double value)
+    {
+        if (!double.IsFinite(value) || value < 0)
+        {
+            throw new DistributionParameterException(variable, parameter, value, "must be finite and >= 0");
+        }
+    }
+
+    /// <summary>Throws unless <paramref name="value"/> is not NaN (infinities allowed, e.g. for open bounds).</summary>
+    internal static void RequireNotNaN(string variable, string parameter, double value)
+    {
+        if (double.IsNaN(value))
+        {
+            throw new DistributionParameterException(variable, parameter, value, "must be a number");
+        }
+    }
+
+    /// <summary>Throws unless lower &lt; upper; the error names the upper bound.</summary>
+    internal static void RequireOrdered(string variable, string lowerName, double lower, string upperName, double upper)
+    {
+        if (!(lower < upper))
+        {
+            throw new DistributionParameterException(variable, upperName, upper,
+                FormattableString.Invariant($"must be greater than '{lowerName}' = {lower:R}"));
+        }
+    }
 }

@@ -1,3 +1,5 @@
+using InspectionUpdate.Probability.Numerics;
+
 namespace InspectionUpdate.Probability;
 
 /// <summary>Lognormal random variable: ln X ~ N(λ, ζ).</summary>
@@ -15,7 +17,7 @@ public sealed class LognormalVariable : RandomVariable
         DistributionParameterException.RequirePositive(name, nameof(mean), mean);
         DistributionParameterException.RequirePositive(name, nameof(standardDeviation), standardDeviation);
         var v = standardDeviation / mean;
-        var zeta2 = Math.Log(1 + v * v);
+        var zeta2 = ElementaryFunctions.Log1p(v * v); // ln(1 + V²) without losing V² to rounding for small V
         return new LognormalVariable(name, Math.Log(mean) - 0.5 * zeta2, Math.Sqrt(zeta2));
     }
 
@@ -48,7 +50,7 @@ public sealed class LognormalVariable : RandomVariable
     public override double Mean => Math.Exp(Lambda + 0.5 * Zeta * Zeta);
 
     /// <inheritdoc />
-    public override double StandardDeviation => Mean * Math.Sqrt(MathNet.Numerics.SpecialFunctions.Expm1(Zeta * Zeta));
+    public override double StandardDeviation => Mean * Math.Sqrt(ElementaryFunctions.Expm1(Zeta * Zeta));
 
     /// <inheritdoc />
     public override double Pdf(double x) =>

@@ -13,6 +13,16 @@ public sealed class NormalVariable : RandomVariable
         StandardDeviation = standardDeviation;
     }
 
+    /// <summary>Creates N(μ, V·|μ|) from the mean (≠ 0) and the coefficient of variation V &gt; 0.</summary>
+    /// <exception cref="DistributionParameterException">mean not finite or 0, or V not finite and &gt; 0.</exception>
+    public static NormalVariable FromMeanCov(string name, double mean, double coefficientOfVariation)
+    {
+        DistributionParameterException.RequireFinite(name, nameof(mean), mean);
+        DistributionParameterException.RequirePositive(name, nameof(coefficientOfVariation), coefficientOfVariation);
+        DistributionParameterException.RequirePositive(name, "|mean|", Math.Abs(mean));
+        return new NormalVariable(name, mean, coefficientOfVariation * Math.Abs(mean));
+    }
+
     /// <inheritdoc />
     public override string Family => "Normal";
 

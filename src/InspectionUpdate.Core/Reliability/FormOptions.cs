@@ -21,9 +21,14 @@ public sealed record FormOptions
 
     /// <summary>
     /// Tolerance on the alignment of u with the gradient, finite and &gt; 0:
-    /// ‖u − (αᵀu)α‖ ≤ tol·max(‖u‖, 1).
+    /// ‖u − (αᵀu)α‖ ≤ tol·max(‖u‖, 1), i.e. the sine of the angle between u and α.
     /// </summary>
-    public double AlignmentTolerance { get; init; } = 1e-6;
+    /// <remarks>
+    /// The default 10⁻⁵ leaves an error in β of second order (about ½·tol²·β, below 10⁻⁹) and in α and u* of
+    /// first order (about tol and tol·β). HL-RF converges linearly on curved surfaces, so each further decade costs
+    /// a few iterations.
+    /// </remarks>
+    public double AlignmentTolerance { get; init; } = 1e-5;
 
     /// <summary>How the gradient is computed.</summary>
     public GradientMethod Gradient { get; init; } = GradientMethod.Automatic;

@@ -14,9 +14,10 @@ namespace InspectionUpdate.Reliability;
 /// difference that steps outside the domain of g (non-finite value) is retried on the other side.
 /// </para>
 /// <para>
-/// Penalty: c = 2·max(‖u‖/‖∇G‖, ‖u + d‖) at each iteration, where ‖u + d‖ is the HL-RF estimate of |β|. The first
-/// term is the descent condition c &gt; ‖u‖/‖∇G‖ of Zhang &amp; Der Kiureghian (from memory); the second keeps
-/// c &gt; 0 at the origin and, being a distance in u, makes the merit independent of the units of g.
+/// Penalty: c = 2·max(‖u‖, ‖u + d‖)/‖∇G‖ at each iteration. The first term is the descent condition
+/// c &gt; ‖u‖/‖∇G‖ of Zhang &amp; Der Kiureghian (from memory); the second, the magnitude of the Lagrange multiplier
+/// of the linearized problem (‖u + d‖ is the HL-RF estimate of |β|), keeps c &gt; 0 at the origin. Both scale as
+/// u²/g, so the merit does not depend on the units of g.
 /// </para>
 /// <para>
 /// Convergence: |G(u)|/G_scale ≤ <see cref="FormOptions.LimitStateTolerance"/> and
@@ -174,7 +175,9 @@ public static class FormSolver
                 for (var i = 0; i < _n; i++) d[i] = factor * grad[i] - u[i];
 
                 var uNorm2 = Dot(u, u);
-                var c = PenaltyFactor * Math.Max(Math.Sqrt(uNorm2) / gradNorm, Math.Abs(factor) * gradNorm);
+                // |factor| = ‖u + d‖/‖∇G‖ is the multiplier of the linearized problem: c above it keeps d a descent
+                // direction even at the origin, where ‖u‖ = 0.
+                var c = PenaltyFactor * Math.Max(Math.Sqrt(uNorm2) / gradNorm, Math.Abs(factor));
                 var merit = 0.5 * uNorm2 + c * Math.Abs(g);
                 // Directional derivative of the merit along d: u·d + c·sign(G)·∇G·d with ∇G·d = −G.
                 var slope = Dot(u, d) - c * Math.Abs(g);

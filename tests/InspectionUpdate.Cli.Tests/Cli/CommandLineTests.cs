@@ -92,8 +92,8 @@ public sealed class OptionErrorTests
     public void A_value_that_is_not_a_number_is_reported_with_its_option()
     {
         using var cli = new CliRunner();
-        var run = cli.Run("assess", "--model", "m.json", "--step-years", "abc");
+        var run = cli.Run("assess", "--model", "m.json", "--horizon-years", "abc");
         Assert.Equal(InspectionUpdate.Cli.Infrastructure.ExitCodes.BadInput, run.ExitCode);
-        Assert.Contains("--step-years 'abc' is not a number.", run.Error, StringComparison.Ordinal);
+        Assert.Contains("--horizon-years 'abc' is not a number.", run.Error, StringComparison.Ordinal);
     }
 }

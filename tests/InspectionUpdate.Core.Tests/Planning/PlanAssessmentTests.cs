@@ -7,7 +7,7 @@ namespace InspectionUpdate.Tests.Planning;
 public class PlanAssessmentTests
 {
     private static readonly LogLinearGrowthModel Model = LogLinearGrowthModel.WorkedCase();
-    private static readonly Inspection.InspectionMethod Probit = ProbitLogPod.Method("probit-2mm", 2, 0.5);
+    private static readonly InspectionUpdate.Inspection.InspectionMethod Probit = ProbitLogPod.Method("probit-2mm", 2, 0.5);
 
     private static InspectionPlanner Planner() => new(new LogLinearGaussianUpdater());
 

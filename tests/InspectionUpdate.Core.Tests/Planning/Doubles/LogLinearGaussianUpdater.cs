@@ -143,7 +143,7 @@ internal sealed class LogLinearGaussianUpdater : IReliabilityUpdater
     }
 
     // The probit curve is evaluated on ln a directly (same value as Evaluate(exp(ln a)), without the round trip).
-    private static double Pod(Inspection.ProbabilityOfDetection pod, double lnA) =>
+    private static double Pod(InspectionUpdate.Inspection.ProbabilityOfDetection pod, double lnA) =>
         pod is ProbitLogPod p ? StandardNormal.Cdf((lnA - p.Mu) / p.Sigma) : pod.Evaluate(Math.Exp(lnA));
 
     private static List<Segment> Segments(IReadOnlyList<InspectionOutcome> evidence)

@@ -198,6 +198,24 @@ public class FormSolverRobustnessTests
         }
     }
 
+    public class Scale_invariance
+    {
+        [Theory]
+        [Reference("REFERENCES.md [derived]: g = X1·X2 − X3, β = 3.049073; k·g has the same failure domain")]
+        [InlineData(1e-6)]
+        [InlineData(1e6)]
+        public void Rescaling_the_limit_state_changes_neither_beta_nor_the_path(double k)
+        {
+            var baseProblem = FormTestModels.ProductOfNormals();
+            var scaled = new ReliabilityProblem(baseProblem.Transformation, new LimitState("k·g", x => k * (x[0] * x[1] - x[2])));
+            var a = FormSolver.Solve(baseProblem);
+            var b = FormSolver.Solve(scaled);
+            Assert.True(b.Converged, b.Diagnostic);
+            Assert.Equal(a.Beta, b.Beta, 1e-7);
+            Assert.Equal(a.Iterations, b.Iterations);
+        }
+    }
+
     public class Options
     {
         public static TheoryData<FormOptions, string> BadOptions => new()

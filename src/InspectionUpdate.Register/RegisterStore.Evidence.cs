@@ -1,0 +1,180 @@
+using System.Globalization;
+using System.Security.Cryptography;
+using System.Text;
+using InspectionUpdate.Inspection;
+using InspectionUpdate.Time;
+using InspectionUpdate.Updating;
+using Microsoft.Data.Sqlite;
+
+namespace InspectionUpdate.Register;
+
+public sealed partial class RegisterStore
+{
+    /// <summary>
+    /// The evidence on a component as known on <paramref name="asOf"/>, in the core's terms: the latest revision of
+    /// each finding and repair recorded by then (withdrawn ones left out), times in years since the install date
+    /// (<see cref="ServiceTime"/>), methods rebuilt as <see cref="InspectionMethod"/>, ordered by time.
+    /// </summary>
+    /// <remarks>
+    /// Mapping: no-indication → <see cref="NoIndication"/>; indication-not-sized → <see cref="IndicationNotSized"/>;
+    /// sized-indication → <see cref="SizedIndication"/> with the measured size; wall-thickness → <see cref="SizedIndication"/>
+    /// on the depth (nominal wall − reading) with the method's sizing error; in-service → <see cref="SurvivedInService"/>;
+    /// repair → <see cref="Repair"/> with the parsed post-repair prior. Each outcome's Reference is "finding {id} rev {n}"
+    /// or "repair {id} rev {n}".
+    /// </remarks>
+    /// <exception cref="ArgumentException">No component with this id was recorded by <paramref name="asOf"/>.</exception>
+    public IReadOnlyList<InspectionOutcome> EvidenceFor(long componentId, DateTimeOffset asOf) => Read<IReadOnlyList<InspectionOutcome>>((c, t) => Evidence(c, t, componentId, asOf));
+
+    /// <summary>Evidence as known at the end of <paramref name="asKnownOn"/> (UTC), see <see cref="EvidenceFor(long, DateTimeOffset)"/>.</summary>
+    public IReadOnlyList<InspectionOutcome> EvidenceFor(long componentId, DateOnly asKnownOn) => EvidenceFor(componentId, EndOfDay(asKnownOn));
+
+    /// <summary>
+    /// Evidence of every component of a shared-parameter group as known on <paramref name="asOf"/>, by component id
+    /// (one snapshot), for updating the group's shared parameter from sister components' findings.
+    /// </summary>
+    public IReadOnlyDictionary<long, IReadOnlyList<InspectionOutcome>> EvidenceForGroup(string parameterGroup, DateTimeOffset asOf) => Read((c, t) =>
+    {
+        var ids = Sql.Query(c, t, "SELECT component_id FROM component WHERE parameter_group = $group AND recorded_utc <= $asOf ORDER BY code",
+            r => r.GetInt64(0), ("$group", parameterGroup), ("$asOf", Sql.Utc(asOf)));
+        return (IReadOnlyDictionary<long, IReadOnlyList<InspectionOutcome>>)ids.ToDictionary(id => id, id => (IReadOnlyList<InspectionOutcome>)Evidence(c, t, id, asOf));
+    });
+
+    private static List<InspectionOutcome> Evidence(SqliteConnection c, SqliteTransaction t, long componentId, DateTimeOffset asOf)
+    {
+        var component = ReadComponent(c, t, componentId, asOf)
+            ?? throw new ArgumentException(FormattableString.Invariant($"No component with id {componentId} in the register as of {Sql.Utc(asOf)}."), nameof(componentId));
+        // Methods are immutable, so all are loaded: a finding recorded by a machine whose clock ran behind the one that
+        // recorded its method must still resolve.
+        var methods = ReadMethods(c, t, "1 = 1").ToDictionary(m => m.Name, m => m.ToInspectionMethod(), StringComparer.Ordinal);
+        var outcomes = new List<(InspectionOutcome Outcome, int Order)>();
+        var findings = ReadRevisions(c, t, $"f.component_id = $component AND {LatestAsOf} AND fr.withdrawn = 0",
+            ("$component", componentId), ("$asOf", Sql.Utc(asOf)));
+        foreach (var f in findings)
+        {
+            var years = ServiceTime.YearsSince(component.InstallDate, f.InspectionDate);
+            InspectionMethod Method() => methods[f.MethodName!];
+            InspectionOutcome outcome = f.Kind switch
+            {
+                FindingKind.NoIndication => new NoIndication(years, f.Reference, Method()),
+                FindingKind.IndicationNotSized => new IndicationNotSized(years, f.Reference, Method()),
+                FindingKind.SizedIndication => new SizedIndication(years, f.Reference, Method(), f.MeasuredSizeMm!.Value),
+                FindingKind.WallThickness => new SizedIndication(years, f.Reference, Method(), component.WallThicknessMm!.Value - f.RemainingWallMm!.Value),
+                FindingKind.InService => new SurvivedInService(years, f.Reference),
+                _ => throw new InvalidDataException($"Unknown finding kind {f.Kind}."),
+            };
+            outcomes.Add((outcome, 1));
+        }
+
+        foreach (var r in ReadRepairs(c, t, $"r.component_id = $component AND {RepairLatestAsOf} AND rr.withdrawn = 0",
+            ("$component", componentId), ("$asOf", Sql.Utc(asOf))))
+        {
+            var years = ServiceTime.YearsSince(component.InstallDate, r.RepairDate);
+            // A finding on the repair date is taken to precede the repair (Order 1 before 2).
+            outcomes.Add((new Repair(years, r.Reference, PostRepairPrior.Parse(r.PostRepairPriorJson)), 2));
+        }
+
+        return outcomes.OrderBy(o => o.Outcome.TimeYears).ThenBy(o => o.Order).ThenBy(o => o.Outcome.Reference, StringComparer.Ordinal)
+            .Select(o => o.Outcome).ToList();
+    }
+
+    /// <summary>
+    /// SHA-256 (hex) of the register's content as known on <paramref name="asOf"/>: schema version, sites, components,
+    /// model revisions, methods, every finding and repair revision recorded by then (the audit trail is not included).
+    /// Equal fingerprints mean an assessment run as of that instant sees the same data; print it in reports.
+    /// </summary>
+    public string Fingerprint(DateTimeOffset asOf) => Read((c, t) =>
+    {
+        var at = ("$asOf", (object?)Sql.Utc(asOf));
+        var text = new StringBuilder();
+        text.Append("inspection-update register schema ").Append(SchemaVersion.ToString(CultureInfo.InvariantCulture)).Append('\n');
+        void Table(string name, string sql)
+        {
+            text.Append("# ").Append(name).Append('\n');
+            using var command = Sql.Command(c, t, sql, at);
+            using var reader = command.ExecuteReader();
+            while (reader.Read())
+            {
+                for (var i = 0; i < reader.FieldCount; i++)
+                {
+                    if (i > 0)
+                    {
+                        text.Append('\t');
+                    }
+
+                    text.Append(Canonical(reader.GetValue(i)));
+                }
+
+                text.Append('\n');
+            }
+        }
+
+        Table("site", "SELECT site_id, code, name, recorded_utc, recorded_by FROM site WHERE recorded_utc <= $asOf ORDER BY site_id");
+        Table("component", "SELECT component_id, site_id, code, description, install_date, wall_thickness_mm, parameter_group, recorded_utc, recorded_by FROM component WHERE recorded_utc <= $asOf ORDER BY component_id");
+        Table("component_model_revision", "SELECT model_revision_id, component_id, revision, supersedes_revision_id, definition_json, model_version, recorded_utc, recorded_by, reason FROM component_model_revision WHERE recorded_utc <= $asOf ORDER BY model_revision_id");
+        Table("inspection_method", $"SELECT {MethodColumns} FROM inspection_method WHERE recorded_utc <= $asOf ORDER BY method_id");
+        Table("finding_revision", "SELECT fr.finding_revision_id, fr.finding_id, f.component_id, fr.revision, fr.supersedes_revision_id, fr.inspection_date, fr.kind, fr.method_id, fr.measured_size_mm, fr.remaining_wall_mm, fr.location, fr.note, fr.withdrawn, fr.recorded_utc, fr.recorded_by, fr.reason FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE fr.recorded_utc <= $asOf ORDER BY fr.finding_revision_id");
+        Table("repair_revision", "SELECT rr.repair_revision_id, rr.repair_id, r.component_id, rr.revision, rr.supersedes_revision_id, rr.repair_date, rr.description, rr.post_repair_prior_json, rr.withdrawn, rr.recorded_utc, rr.recorded_by, rr.reason FROM repair_revision rr JOIN repair r ON r.repair_id = rr.repair_id WHERE rr.recorded_utc <= $asOf ORDER BY rr.repair_revision_id");
+        return Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(text.ToString())));
+    });
+
+    private static string Canonical(object value) => value switch
+    {
+        DBNull => "\\N",
+        double d => d.ToString("R", CultureInfo.InvariantCulture),
+        long l => l.ToString(CultureInfo.InvariantCulture),
+        string s => s.Replace("\\", "\\\\", StringComparison.Ordinal).Replace("\t", "\\t", StringComparison.Ordinal).Replace("\n", "\\n", StringComparison.Ordinal).Replace("\r", "\\r", StringComparison.Ordinal),
+        _ => Convert.ToString(value, CultureInfo.InvariantCulture) ?? "",
+    };
+
+    /// <summary>The audit trail, oldest first, optionally limited to entries at or after <paramref name="since"/> and to one entity kind.</summary>
+    public IReadOnlyList<AuditEntry> AuditTrail(DateTimeOffset? since = null, string? entity = null) => Read((c, t) => Sql.Query(c, t,
+        "SELECT * FROM audit_log WHERE at_utc >= $since AND ($entity IS NULL OR entity = $entity) ORDER BY audit_id",
+        r => new AuditEntry(r.Long("audit_id"), Sql.ParseUtc(r.Text("at_utc")), r.Text("actor"), r.Text("action"), r.Text("entity"), r.Long("entity_id"), r.Text("detail")),
+        ("$since", Sql.Utc(since ?? DateTimeOffset.MinValue)), ("$entity", entity)));
+
+    /// <summary>
+    /// Checks the file: PRAGMA integrity_check, PRAGMA foreign_key_check, and the register's invariants (schema
+    /// version, WAL mode, append-only triggers present, contiguous revision chains, a model for every component).
+    /// </summary>
+    public RegisterCheckResult Check() => Read((c, t) =>
+    {
+        var integrity = Sql.Query(c, t, "PRAGMA integrity_check", r => r.GetString(0));
+        var foreign = Sql.Query(c, t, "PRAGMA foreign_key_check", r =>
+            FormattableString.Invariant($"{r.GetString(0)} row {(r.IsDBNull(1) ? "?" : r.GetInt64(1).ToString(CultureInfo.InvariantCulture))} refers to a missing {r.GetString(2)} (constraint {r.GetInt64(3)})"));
+        var invariants = new List<string>();
+        var version = Schema.Migrations.ReadVersion(c, t);
+        if (version != Schema.Migrations.Current)
+        {
+            invariants.Add(FormattableString.Invariant($"schema version {version}, expected {Schema.Migrations.Current}"));
+        }
+
+        var journal = Convert.ToString(Sql.Scalar(c, t, "PRAGMA journal_mode"), CultureInfo.InvariantCulture);
+        if (!string.Equals(journal, "wal", StringComparison.OrdinalIgnoreCase))
+        {
+            invariants.Add($"journal mode is '{journal}', expected 'wal'");
+        }
+
+        var triggers = Sql.Query(c, t, "SELECT name FROM sqlite_master WHERE type = 'trigger'", r => r.GetString(0)).ToHashSet(StringComparer.Ordinal);
+        foreach (var table in Schema.Migrations.AppendOnlyTables)
+        {
+            foreach (var trigger in new[] { table + "_no_update", table + "_no_delete" })
+            {
+                if (!triggers.Contains(trigger))
+                {
+                    invariants.Add($"append-only trigger {trigger} is missing");
+                }
+            }
+        }
+
+        foreach (var (table, parent, logical) in new[] { ("finding_revision", "finding_id", "finding"), ("repair_revision", "repair_id", "repair"), ("component_model_revision", "component_id", "component") })
+        {
+            // Table and column names come from the constant list above, never from input.
+            invariants.AddRange(Sql.Query(c, t,
+                $"SELECT p.{parent}, COUNT(x.revision), MIN(x.revision), MAX(x.revision) FROM {logical} p LEFT JOIN {table} x ON x.{parent} = p.{parent} " +
+                $"GROUP BY p.{parent} HAVING COUNT(x.revision) = 0 OR MIN(x.revision) <> 1 OR MAX(x.revision) <> COUNT(x.revision)",
+                r => FormattableString.Invariant($"{logical} {r.GetInt64(0)}: revisions in {table} are not 1..n ({r.GetInt64(1)} rows)")));
+        }
+
+        return new RegisterCheckResult(version, integrity, foreign, invariants);
+    });
+}

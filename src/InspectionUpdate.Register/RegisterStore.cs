@@ -1,0 +1,195 @@
+using System.Globalization;
+using InspectionUpdate.Register.Schema;
+using Microsoft.Data.Sqlite;
+
+namespace InspectionUpdate.Register;
+
+/// <summary>How <see cref="RegisterStore.Open"/> treats the file.</summary>
+public enum RegisterOpenMode
+{
+    /// <summary>Open the file if it exists, else create it.</summary>
+    OpenOrCreate,
+
+    /// <summary>The file must exist.</summary>
+    OpenExisting,
+
+    /// <summary>The file must not exist; it is created.</summary>
+    CreateNew,
+}
+
+/// <summary>Options of a register connection.</summary>
+/// <param name="Clock">Source of "now" for recorded times (UTC); the system clock when null. Tests pass a fixed clock.</param>
+/// <param name="BusyTimeout">How long a writer waits for another process's write lock before failing.</param>
+public sealed record RegisterOptions(TimeProvider? Clock = null, TimeSpan? BusyTimeout = null);
+
+/// <summary>Raised when the register file cannot be used (newer schema, not a register, missing file).</summary>
+public sealed class RegisterFileException : Exception
+{
+    /// <summary>Creates the exception with a message naming the file.</summary>
+    public RegisterFileException(string message, Exception? inner = null) : base(message, inner)
+    {
+    }
+}
+
+/// <summary>
+/// The inspection register: one SQLite file holding sites, components (with their model definitions), inspection
+/// methods, findings, repairs and an audit trail. Findings and repairs are append-only: a correction is a new revision
+/// that supersedes the old one, with who, when and why; reads can be made "as known on" any instant.
+/// </summary>
+/// <remarks>
+/// Every write runs in one IMMEDIATE transaction (the write lock is taken before any validation read, so concurrent
+/// writers from several processes serialize and validation sees the state it writes into). Connections enable
+/// foreign keys, a busy timeout and synchronous=FULL; the file is in WAL mode. All SQL is parameterized. The instance
+/// is thread-safe: each operation opens its own pooled connection. Dispose it to release the pool (and the file).
+/// </remarks>
+public sealed partial class RegisterStore : IDisposable
+{
+    private const string Actor = "inspection-update";
+    private readonly string _connectionString;
+    private readonly TimeProvider _clock;
+    private readonly int _busyTimeoutMs;
+
+    private RegisterStore(string path, string connectionString, TimeProvider clock, int busyTimeoutMs, int schemaVersion)
+    {
+        Path = path;
+        _connectionString = connectionString;
+        _clock = clock;
+        _busyTimeoutMs = busyTimeoutMs;
+        SchemaVersion = schemaVersion;
+    }
+
+    /// <summary>The schema version this code reads and writes.</summary>
+    public static int CurrentSchemaVersion => Migrations.Current;
+
+    /// <summary>Full path of the register file.</summary>
+    public string Path { get; }
+
+    /// <summary>Schema version of the file after opening (always <see cref="CurrentSchemaVersion"/>).</summary>
+    public int SchemaVersion { get; }
+
+    /// <summary>
+    /// Opens (and if needed creates) a register, switches it to WAL mode and migrates its schema forward to
+    /// <see cref="CurrentSchemaVersion"/>.
+    /// </summary>
+    /// <exception cref="RegisterFileException">The file is missing (OpenExisting), exists (CreateNew), is not a SQLite
+    /// database, or has a newer schema than this program.</exception>
+    public static RegisterStore Open(string path, RegisterOpenMode mode = RegisterOpenMode.OpenOrCreate, RegisterOptions? options = null) =>
+        Open(path, mode, options, Migrations.Current);
+
+    /// <summary>Opens and migrates only up to <paramref name="targetVersion"/> (tests of the migrations).</summary>
+    internal static RegisterStore Open(string path, RegisterOpenMode mode, RegisterOptions? options, int targetVersion)
+    {
+        ArgumentException.ThrowIfNullOrWhiteSpace(path);
+        var full = System.IO.Path.GetFullPath(path);
+        var exists = File.Exists(full);
+        if (mode == RegisterOpenMode.OpenExisting && !exists)
+        {
+            throw new RegisterFileException($"Register file '{full}' does not exist.");
+        }
+
+        if (mode == RegisterOpenMode.CreateNew && exists)
+        {
+            throw new RegisterFileException($"Register file '{full}' already exists.");
+        }
+
+        options ??= new RegisterOptions();
+        var busy = (int)(options.BusyTimeout ?? TimeSpan.FromSeconds(30)).TotalMilliseconds;
+        var builder = new SqliteConnectionStringBuilder
+        {
+            DataSource = full,
+            Mode = SqliteOpenMode.ReadWriteCreate,
+            ForeignKeys = true,
+            Pooling = true,
+            DefaultTimeout = Math.Max(1, busy / 1000),
+        };
+        var clock = options.Clock ?? TimeProvider.System;
+        var store = new RegisterStore(full, builder.ToString(), clock, busy, targetVersion);
+        try
+        {
+            using var connection = store.Connect();
+            using (var wal = connection.CreateCommand())
+            {
+                wal.CommandText = "PRAGMA journal_mode = WAL";
+                var journal = Convert.ToString(wal.ExecuteScalar(), CultureInfo.InvariantCulture);
+                if (!string.Equals(journal, "wal", StringComparison.OrdinalIgnoreCase))
+                {
+                    throw new RegisterFileException($"Register file '{full}' could not be switched to WAL mode (journal mode is '{journal}').");
+                }
+            }
+
+            var version = Migrations.ReadVersion(connection);
+            if (version > Migrations.Current)
+            {
+                throw new RegisterFileException(
+                    FormattableString.Invariant($"Register file '{full}' has schema version {version}, newer than this program's {Migrations.Current}; use a newer program."));
+            }
+
+            Migrations.MigrateTo(connection, targetVersion, () => store.NowText(), Actor);
+            return store;
+        }
+        catch (SqliteException e)
+        {
+            store.Dispose();
+            throw new RegisterFileException($"Register file '{full}' cannot be opened as a register: {e.Message}", e);
+        }
+        catch
+        {
+            store.Dispose();
+            throw;
+        }
+    }
+
+    /// <summary>The end of a calendar day in UTC, for "as known on" reads: everything recorded on or before that day.</summary>
+    public static DateTimeOffset EndOfDay(DateOnly date) =>
+        new DateTimeOffset(date.AddDays(1).ToDateTime(TimeOnly.MinValue), TimeSpan.Zero).AddTicks(-1);
+
+    /// <summary>Releases pooled connections to the file.</summary>
+    public void Dispose()
+    {
+        using var connection = new SqliteConnection(_connectionString);
+        SqliteConnection.ClearPool(connection);
+    }
+
+    internal SqliteConnection Connect()
+    {
+        var connection = new SqliteConnection(_connectionString);
+        connection.Open();
+        using var command = connection.CreateCommand();
+        // Integers formatted by the program, not user data.
+        command.CommandText = string.Create(CultureInfo.InvariantCulture, $"PRAGMA busy_timeout = {_busyTimeoutMs}; PRAGMA synchronous = FULL; PRAGMA foreign_keys = ON;");
+        command.ExecuteNonQuery();
+        return connection;
+    }
+
+    /// <summary>Runs <paramref name="work"/> in one IMMEDIATE write transaction; commits only when it returns a value to keep.</summary>
+    internal T Write<T>(Func<SqliteConnection, SqliteTransaction, (T Result, bool Commit)> work)
+    {
+        using var connection = Connect();
+        using var transaction = connection.BeginTransaction(deferred: false);
+        var (result, commit) = work(connection, transaction);
+        if (commit)
+        {
+            transaction.Commit();
+        }
+        else
+        {
+            transaction.Rollback();
+        }
+
+        return result;
+    }
+
+    /// <summary>Runs a read in one snapshot (deferred transaction).</summary>
+    internal T Read<T>(Func<SqliteConnection, SqliteTransaction, T> work)
+    {
+        using var connection = Connect();
+        using var transaction = connection.BeginTransaction(deferred: true);
+        var result = work(connection, transaction);
+        transaction.Commit();
+        return result;
+    }
+
+    internal DateTimeOffset Now() => _clock.GetUtcNow().ToUniversalTime();
+
+    internal string NowText() => Sql.Utc(Now());
+}

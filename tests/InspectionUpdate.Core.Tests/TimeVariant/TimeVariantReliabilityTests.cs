@@ -1,0 +1,202 @@
+using InspectionUpdate.Degradation.Corrosion;
+using InspectionUpdate.Degradation.Fatigue;
+using InspectionUpdate.Probability;
+using InspectionUpdate.Reliability;
+using InspectionUpdate.Reliability.Simulation;
+using InspectionUpdate.Tests.Degradation;
+using InspectionUpdate.TimeVariant;
+using MathNet.Numerics;
+using static InspectionUpdate.Tests.Degradation.TestInputs;
+
+namespace InspectionUpdate.Tests.TimeVariant;
+
+public class TimeVariantReliabilityTests
+{
+    // Log-linear crack case: with a0, ac, Y, m, h, ν fixed and C, q lognormal, the margin
+    // g = ln ψ(a0, ac) − ln C − m ln Y − (m/2) ln π − m ln q − ln Γ(1 + m/h) − ln(ν t) is linear in normals, so
+    // β(t) = μ_g(t)/σ_g exactly.
+    private const double A0 = 0.5, Ac = 20, Yc = 1.12, Mc = 3, Hc = 0.9, Nu = 5e6;
+    private static readonly LognormalVariable CVar = Ln("parisC", 5.21e-13, 0.5);
+    private static readonly LognormalVariable QVar = Ln("weibullScale_MPa", 6, 0.2);
+
+    private static CrackGrowthModel LogLinearModel() => new(Model(D("initialDepth_mm", A0), D("criticalDepth_mm", Ac), D("thickness_mm", 25),
+        D("geometryFactor", Yc), QVar, D("weibullShape", Hc), D("cyclesPerYear", Nu), CVar, D("parisM", Mc)));
+
+    private static double ExactBeta(double t)
+    {
+        var psi = (Math.Pow(A0, 1 - Mc / 2) - Math.Pow(Ac, 1 - Mc / 2)) / (Mc / 2 - 1);
+        var k = Math.Log(psi) - Mc * Math.Log(Yc) - Mc / 2 * Math.Log(Math.PI) - SpecialFunctions.GammaLn(1 + Mc / Hc) - Math.Log(Nu * t);
+        var mu = k - CVar.Lambda - Mc * QVar.Lambda;
+        var sigma = Math.Sqrt(CVar.Zeta * CVar.Zeta + Mc * Mc * QVar.Zeta * QVar.Zeta);
+        return mu / sigma;
+    }
+
+    [Fact]
+    [Reference("Exact β(t) = μ_g/σ_g for a margin linear in normal variables (Cornell 1969), written out for the log-cycle crack margin")]
+    public void Profile_matches_the_exact_beta_of_the_log_linear_crack_model()
+    {
+        var result = TimeVariantReliability.Run(LogLinearModel(), TimeGrid.Yearly(50));
+        Assert.Equal(50, result.Profile.Points.Count);
+        Assert.True(result.Profile.AllConverged);
+        foreach (var p in result.Profile.Points)
+        {
+            Assert.Equal(ExactBeta(p.TimeYears), p.Beta, 1e-6);
+            Assert.Equal(ComputationRoute.FirstOrder, p.Route);
+            Assert.NotNull(p.Alpha);
+        }
+
+        // ΔPf and hazard follow their definitions.
+        var pts = result.Profile.Points;
+        Assert.Equal(pts[0].CumulativePf, pts[0].IntervalPf, 1e-15);
+        for (var i = 1; i < pts.Count; i++)
+        {
+            Assert.Equal(pts[i].CumulativePf - pts[i - 1].CumulativePf, pts[i].IntervalPf, 1e-15);
+            Assert.Equal(pts[i].IntervalPf / (1 - pts[i - 1].CumulativePf), pts[i].Hazard, 1e-15);
+        }
+    }
+
+    [Fact]
+    public void Cumulative_pf_is_monotone_non_decreasing_for_crack_growth_and_corrosion()
+    {
+        var crack = TimeVariantReliability.Profile(new CrackGrowthModel(CrackGrowthModelTests.SixInputWeibull()), TimeGrid.Yearly(50));
+        var corrosion = TimeVariantReliability.Profile(new CorrosionModel(Model(N("wallThickness_mm", 12.7, 0.3), Ln("initiationTime_years", 5, 0.4),
+            Ln("rate_mmPerYear", 0.15, 0.5), D("diameter_mm", 508), Ln("defectLength_mm", 150, 0.3), Ln("tensileStrength_MPa", 530, 0.05),
+            Ln("modelFactor", 1.0, 0.1), N("pressure_MPa", 10, 0.3)), new CorrosionSettings { FailureMode = CorrosionFailureMode.BurstDnvRpF101 }),
+            TimeGrid.Yearly(40, stepsPerYear: 2));
+        foreach (var profile in new[] { crack, corrosion })
+        {
+            Assert.True(profile.AllConverged);
+            for (var i = 1; i < profile.Points.Count; i++)
+            {
+                Assert.True(profile.Points[i].CumulativePf >= profile.Points[i - 1].CumulativePf * (1 - 1e-9),
+                    FormattableString.Invariant($"Pf decreased at t = {profile.Points[i].TimeYears}"));
+            }
+        }
+    }
+
+    [Fact]
+    public void Warm_starts_spend_fewer_evaluations_than_cold_starts()
+    {
+        var model = new CrackGrowthModel(CrackGrowthModelTests.SixInputWeibull());
+        var warm = TimeVariantReliability.Run(model, TimeGrid.Yearly(50));
+        var cold = TimeVariantReliability.Run(model, TimeGrid.Yearly(50), new ProfileOptions { WarmStart = false });
+        Assert.True(warm.TotalEvaluations < cold.TotalEvaluations, $"warm {warm.TotalEvaluations}, cold {cold.TotalEvaluations}");
+        for (var i = 0; i < 50; i++) Assert.Equal(cold.Profile.Points[i].Beta, warm.Profile.Points[i].Beta, 1e-5);
+    }
+
+    [Theory]
+    [Trait("Category", "Statistical")]
+    [InlineData(10.0)]
+    [InlineData(25.0)]
+    [InlineData(50.0)]
+    [Reference("Project importance sampling at the design point (seeded); FORM error on this mildly nonlinear margin stated as |Δβ| ≤ 0.05")]
+    public void Form_pf_agrees_with_importance_sampling_within_the_stated_tolerance(double t)
+    {
+        var model = new CrackGrowthModel(CrackGrowthModelTests.SixInputWeibull());
+        var point = TimeVariantReliability.CumulativeAt(model, t);
+        var problem = new ReliabilityProblem(model.Inputs, new InspectionUpdate.Degradation.DegradationLimitState(model, t));
+        var form = FormSolver.Solve(problem);
+        var sim = ImportanceSampling.Run(problem, form, new SamplingOptions { Seed = 11, TargetCoefficientOfVariation = 0.02, MaxSamples = 200_000 });
+        Assert.True(sim.Converged, sim.Diagnostic);
+        // Tolerance on β: 0.05 of FORM approximation plus three standard errors of the simulated β.
+        var betaSim = -StandardNormal.InverseCdf(sim.FailureProbability);
+        var seBeta = sim.StandardError / StandardNormal.Pdf(betaSim);
+        Assert.True(Math.Abs(point.Beta - betaSim) <= 0.05 + 3 * seBeta, $"FORM β {point.Beta}, IS β {betaSim} ± {seBeta}");
+    }
+
+    [Fact]
+    [Trait("Category", "Statistical")]
+    [Reference("Exact β of the log-linear crack model; importance sampling within 3 standard errors")]
+    public void Non_converged_steps_are_recomputed_by_simulation_and_say_so()
+    {
+        var options = new ProfileOptions
+        {
+            // Tolerances no run can meet: FORM stops at its iteration cap near the design point.
+            Form = FormOptions.Default with { MaxIterations = 5, LimitStateTolerance = 1e-300, AlignmentTolerance = 1e-300 },
+            Fallback = new ImportanceSamplingFallback(new SamplingOptions { Seed = 3, TargetCoefficientOfVariation = 0.03, MaxSamples = 200_000 }),
+        };
+        var p = TimeVariantReliability.Run(LogLinearModel(), TimeGrid.FromTimes([20.0]), options).Profile.Points[0];
+        Assert.Equal(ComputationRoute.ImportanceSampling, p.Route);
+        Assert.True(p.Converged);
+        Assert.NotNull(p.CoefficientOfVariation);
+        Assert.Contains("FORM did not converge", p.Note);
+        var exact = StandardNormal.Cdf(-ExactBeta(20));
+        Assert.True(Math.Abs(p.CumulativePf - exact) <= 3 * p.CoefficientOfVariation!.Value * p.CumulativePf, $"{p.CumulativePf} vs {exact}");
+    }
+
+    [Fact]
+    public void Non_converged_steps_without_a_fallback_are_flagged()
+    {
+        var options = new ProfileOptions { Form = FormOptions.Default with { MaxIterations = 0 }, Fallback = null };
+        var profile = TimeVariantReliability.Profile(LogLinearModel(), TimeGrid.FromTimes([20.0]), options);
+        Assert.False(profile.AllConverged);
+        Assert.Contains("no simulation fallback", profile.Points[0].Note);
+    }
+
+    [Fact]
+    [Reference("Exact β(t) of the log-linear model; crossing found by bisection on the exact ΔPf(t) in the test")]
+    public void Annual_pf_crossing_matches_the_exact_crossing_time()
+    {
+        const double target = 1e-4;
+        double Annual(double t) => StandardNormal.Cdf(-ExactBeta(t)) - StandardNormal.Cdf(-ExactBeta(t - 1));
+        double lo = 1, hi = 60;
+        Assert.True(Annual(lo) < target && Annual(hi) > target);
+        for (var i = 0; i < 60; i++)
+        {
+            var mid = 0.5 * (lo + hi);
+            if (Annual(mid) >= target) hi = mid;
+            else lo = mid;
+        }
+
+        var crossing = TimeVariantReliability.FindAnnualPfCrossing(LogLinearModel(), target, 1, 60);
+        Assert.True(crossing.Found);
+        Assert.True(crossing.Converged);
+        Assert.Equal(hi, crossing.TimeYears, 2e-3);
+        var betaCrossing = TimeVariantReliability.FindBetaCrossing(LogLinearModel(), 3.0, 0.5, 60);
+        Assert.Equal(3.0, ExactBeta(betaCrossing.TimeYears), 1e-3);
+    }
+
+    private static CorrosionModel BurstWithPressure(RandomVariable pressure) => new(Model(D("wallThickness_mm", 12.7), Ln("initiationTime_years", 5, 0.4),
+        Ln("rate_mmPerYear", 0.2, 0.4), D("diameter_mm", 508), Ln("defectLength_mm", 150, 0.3), Ln("tensileStrength_MPa", 530, 0.05),
+        Ln("modelFactor", 1.0, 0.1), pressure), new CorrosionSettings { FailureMode = CorrosionFailureMode.BurstDnvRpF101, PressureIsAnnualMaximum = true });
+
+    [Fact]
+    public void Deterministic_annual_maximum_gives_nested_yearly_events()
+    {
+        var annual = BurstWithPressure(D("pressure_MPa", 12));
+        var grid = TimeGrid.Yearly(20);
+        var profile = TimeVariantReliability.Profile(annual, grid);
+        Assert.True(profile.AllConverged);
+        // The same model read as time-invariant: Pf(t) = P(g(X, t) ≤ 0).
+        var invariant = new CorrosionModel(annual.Inputs, annual.Settings with { PressureIsAnnualMaximum = false });
+        var reference = TimeVariantReliability.Profile(invariant, grid);
+        for (var i = 0; i < 20; i++) Assert.Equal(reference.Points[i].CumulativePf, profile.Points[i].CumulativePf, 1e-12);
+    }
+
+    [Fact]
+    public void Random_annual_maximum_uses_the_series_engine_and_reports_bounds_until_the_system_engine_is_wired()
+    {
+        var model = BurstWithPressure(N("pressure_MPa", 12, 0.6));
+        var result = TimeVariantReliability.Run(model, TimeGrid.Yearly(10));
+        var first = result.Profile.Points[0];
+        // One year: the union is the single event.
+        Assert.True(first.Converged);
+        Assert.Equal(result.FormResults[0].FailureProbability, first.CumulativePf, 1e-15);
+        var last = result.Profile.Points[^1];
+        Assert.False(last.Converged);
+        Assert.Contains("union bounds", last.Note);
+        // The reported upper bound is Σ Pf_j over the years.
+        Assert.Equal(result.FormResults.Sum(f => f.FailureProbability), last.CumulativePf, 1e-12);
+        Assert.Throws<ArgumentException>(() => TimeVariantReliability.Run(model, TimeGrid.Yearly(10, stepsPerYear: 2)));
+    }
+
+    [Fact]
+    public void Time_grids_validate_their_times()
+    {
+        Assert.Equal([0.5, 1.0, 1.5, 2.0], TimeGrid.Yearly(2, 2).TimesYears);
+        Assert.Contains("Time 1", Assert.Throws<ArgumentException>(() => TimeGrid.FromTimes([1.0, 1.0])).Message);
+        Assert.Throws<ArgumentOutOfRangeException>(() => TimeGrid.Yearly(0));
+        Assert.True(TimeGrid.Yearly(5).IsWholeYears);
+        Assert.False(TimeGrid.Yearly(5, 4).IsWholeYears);
+    }
+}

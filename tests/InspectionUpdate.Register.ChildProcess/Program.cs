@@ -1,0 +1,55 @@
+using System.Globalization;
+using InspectionUpdate.Register;
+
+// Commands (all paths absolute):
+//   add-findings <register> <component> <method> <count> <tag>   one transaction per finding; prints "done <count>"
+//   import-and-hang <register> <csv> <hangAtRow>                  prints "hanging" inside the import transaction, then blocks
+if (args.Length < 1)
+{
+    Console.Error.WriteLine("usage: add-findings | import-and-hang ...");
+    return 2;
+}
+
+using var store = RegisterStore.Open(args[1], RegisterOpenMode.OpenExisting);
+switch (args[0])
+{
+    case "add-findings":
+        {
+            var count = int.Parse(args[4], CultureInfo.InvariantCulture);
+            var start = new DateOnly(2020, 1, 1);
+            for (var i = 0; i < count; i++)
+            {
+                var finding = new NewFinding(args[2], start.AddDays(i), FindingKind.NoIndication, args[3], Location: $"{args[5]}-{i}");
+                store.AddFinding(finding, args[5], "concurrent writer test").Require();
+            }
+
+            Console.WriteLine($"done {count}");
+            return 0;
+        }
+
+    case "import-and-hang":
+        {
+            var hangAt = int.Parse(args[3], CultureInfo.InvariantCulture);
+            var result = store.ImportFindingsCsv(args[2], "child", "killed import test", new Hang(hangAt));
+            Console.WriteLine(result.Succeeded ? "imported (not expected)" : "refused: " + string.Join("; ", result.Problems));
+            return 1;
+        }
+
+    default:
+        Console.Error.WriteLine($"unknown command {args[0]}");
+        return 2;
+}
+
+/// <summary>Blocks forever, inside the import transaction, once the given number of rows is written.</summary>
+internal sealed class Hang(int atRow) : IProgress<int>
+{
+    public void Report(int value)
+    {
+        if (value == atRow)
+        {
+            Console.WriteLine("hanging");
+            Console.Out.Flush();
+            Thread.Sleep(Timeout.Infinite);
+        }
+    }
+}

@@ -1,0 +1,83 @@
+using InspectionUpdate.Inspection;
+using InspectionUpdate.Register;
+using Microsoft.Data.Sqlite;
+
+namespace InspectionUpdate.Tests.Register;
+
+/// <summary>A clock the test moves by hand, so recorded times and as-of reads are exact.</summary>
+internal sealed class ManualClock(DateTimeOffset start) : TimeProvider
+{
+    public DateTimeOffset UtcNow { get; set; } = start;
+
+    public override DateTimeOffset GetUtcNow() => UtcNow;
+
+    public void Advance(TimeSpan by) => UtcNow += by;
+}
+
+/// <summary>A register in a temporary file with an invented site, one component and two methods; deleted on dispose.</summary>
+internal sealed class TestRegister : IDisposable
+{
+    public const string Component = "P-101-W3";
+    public const string Ut = "UT-PA";
+    public const string Mpi = "MPI-WET";
+    public static readonly DateOnly InstallDate = new(2010, 6, 1);
+    public const double WallMm = 12.7;
+    public const string ModelJson = """{"kind":"corrosion","rate_mm_per_year":{"distribution":"lognormal","mean":0.1,"cov":0.5}}""";
+
+    public TestRegister(bool seed = true)
+    {
+        Path = TempPath();
+        Clock = new ManualClock(new DateTimeOffset(2026, 3, 1, 8, 0, 0, TimeSpan.Zero));
+        Store = RegisterStore.Open(Path, RegisterOpenMode.CreateNew, new RegisterOptions(Clock));
+        if (seed)
+        {
+            Seed(Store);
+        }
+    }
+
+    public string Path { get; }
+
+    public ManualClock Clock { get; }
+
+    public RegisterStore Store { get; }
+
+    public long ComponentId => Store.FindComponent(Component)!.Id;
+
+    public static string TempPath() => System.IO.Path.Combine(System.IO.Path.GetTempPath(), $"iu-register-test-{Guid.NewGuid():N}.sqlite");
+
+    public static void Seed(RegisterStore store)
+    {
+        store.AddSite(new NewSite("NORTH", "North tank farm (invented)"), "tester").Require();
+        store.AddComponent(new NewComponent("NORTH", Component, "Weld 3 of line 101", InstallDate, WallMm, ModelJson, "corrosion-1", "line-101-water"), "tester").Require();
+        store.AddComponent(new NewComponent("NORTH", "P-101-W4", "Weld 4 of line 101", InstallDate, WallMm, ModelJson, "corrosion-1", "line-101-water"), "tester").Require();
+        store.AddMethod(new NewMethod(Ut, "Phased-array UT (invented qualification)",
+            new PodSpec(PodForms.LogLogistic, Math.Log(1.16), 1 / 0.9, null, LowerLimitMm: 0.2), new SizingError(SizingErrorKind.AdditiveNormal, 0.1, 0.5)), "tester").Require();
+        store.AddMethod(new NewMethod(Mpi, "Wet magnetic particle (invented)",
+            new PodSpec(PodForms.Exponential, null, null, 0.95, MaxPod: 0.95), new SizingError(SizingErrorKind.MultiplicativeLognormal, 0.0, 0.2)), "tester").Require();
+    }
+
+    /// <summary>Counts rows of a table through a separate raw connection (the test's independent view of the file).</summary>
+    public long Count(string table)
+    {
+        using var connection = new SqliteConnection($"Data Source={Path};Pooling=False");
+        connection.Open();
+        using var command = connection.CreateCommand();
+        command.CommandText = "SELECT COUNT(*) FROM " + table; // table names are test constants
+        return (long)command.ExecuteScalar()!;
+    }
+
+    public static void Delete(string path)
+    {
+        SqliteConnection.ClearAllPools();
+        foreach (var suffix in new[] { "", "-wal", "-shm", "-journal" })
+        {
+            File.Delete(path + suffix);
+        }
+    }
+
+    public void Dispose()
+    {
+        Store.Dispose();
+        Delete(Path);
+    }
+}
