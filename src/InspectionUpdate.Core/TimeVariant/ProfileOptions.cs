@@ -32,6 +32,13 @@ public sealed record ProfileOptions
     /// <summary>True (default) to start each step's FORM from the previous step's design point.</summary>
     public bool WarmStart { get; init; } = true;
 
+    /// <summary>
+    /// True (default) to sweep the grid backwards after the forward sweep, each step warm-started from the later one,
+    /// keeping per step the converged result with the smaller β. Costs a few evaluations per step; guards against a
+    /// warm start that stays on a failure mode another one overtakes, and retries steps the forward sweep missed.
+    /// </summary>
+    public bool BackwardSweep { get; init; } = true;
+
     /// <summary>Recomputes non-converged steps (default: importance sampling at FORM's last iterate, then crude Monte Carlo); null leaves them as flagged FORM results.</summary>
     public ISimulationFallback? Fallback { get; init; } = new ImportanceSamplingFallback();
 

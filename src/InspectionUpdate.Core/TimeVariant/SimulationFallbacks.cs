@@ -28,7 +28,7 @@ public sealed class ImportanceSamplingFallback : ISimulationFallback
     {
         ArgumentNullException.ThrowIfNull(problem);
         ArgumentNullException.ThrowIfNull(failedForm);
-        var centreUsable = failedForm.DesignPointU.All(double.IsFinite);
+        var centreUsable = failedForm.DesignPointU.All(double.IsFinite) && failedForm.DesignPointU.Any(u => u != 0); // at the origin IS is crude MC
         if (centreUsable)
         {
             var importance = ImportanceSampling.Run(problem, failedForm, Sampling);

@@ -116,15 +116,24 @@ public static class TimeVariantReliability
             total += start.Evaluations;
         }
 
+        var times = grid.TimesYears;
+        var outcomes = Sweep(stepper, times, options);
+
+        // Whatever still failed goes to the simulation fallback.
+        for (var i = 0; i < times.Count; i++)
+        {
+            if (!outcomes[i].Converged) outcomes[i] = stepper.Fallback(times[i], outcomes[i]);
+        }
+
         var points = new List<ProfilePoint>();
         var forms = new List<FormResult>();
         var sims = new List<SimulationResult?>();
         var previous = startPf;
-        foreach (var t in grid.TimesYears)
+        for (var i = 0; i < times.Count; i++)
         {
-            var s = stepper.Step(t);
+            var s = outcomes[i];
             total += s.Evaluations;
-            points.Add(MakePoint(t, s.Pf, previous, s.Route, s.Converged, s.Evaluations, s.Form, s.Simulation?.CoefficientOfVariation, s.Note));
+            points.Add(MakePoint(times[i], s.Pf, previous, s.Route, s.Converged, s.Evaluations, s.Form, s.Simulation?.CoefficientOfVariation, s.Note));
             forms.Add(s.Form);
             sims.Add(s.Simulation);
             previous = s.Pf;
@@ -169,20 +178,16 @@ public static class TimeVariantReliability
         }
 
         // A deterministic annual maximum makes the yearly events nested under monotone degradation: the union is the last year's event.
-        var engine = uIndex < 0 ? NestedEventsEngine.Instance : options.SeriesEngine ?? UnionBoundsEngine.Instance;
+        var engine = uIndex < 0 ? NestedEventsEngine.Instance : options.SeriesEngine ?? MultinormalSeriesEngine.Instance;
         var stepper = new FormStepper(model, transformation, options with { Fallback = null });
         var lastYear = (int)Math.Round(grid.TimesYears[^1]);
-        var yearly = new List<StepOutcome>(lastYear);
-        long total = 0;
-        for (var year = 1; year <= lastYear; year++)
-        {
-            var s = stepper.Step(year);
-            yearly.Add(s);
-            total += s.Evaluations;
-        }
+        var yearTimes = Enumerable.Range(1, lastYear).Select(y => (double)y).ToArray();
+        var yearly = Sweep(stepper, yearTimes, options).ToList();
+        long total = yearly.Sum(y => (long)y.Evaluations);
 
+        var unions = CumulativeUnions(yearly, uIndex, engine);
         var startYear = (int)Math.Round(grid.StartYears);
-        var startPf = startYear > 0 ? Union(yearly, startYear, uIndex, engine).Probability : 0.0;
+        var startPf = startYear > 0 ? unions[startYear - 1].Probability : 0.0;
         var points = new List<ProfilePoint>();
         var forms = new List<FormResult>();
         var previous = startPf;
@@ -190,7 +195,7 @@ public static class TimeVariantReliability
         foreach (var t in grid.TimesYears)
         {
             var year = (int)Math.Round(t);
-            var union = Union(yearly, year, uIndex, engine);
+            var union = unions[year - 1];
             var own = yearly[year - 1];
             var allConverged = union.Converged && yearly.Take(year).All(y => y.Form.Converged);
             var evaluations = yearly.Skip(previousYear).Take(year - previousYear).Sum(y => y.Evaluations);
@@ -217,8 +222,63 @@ public static class TimeVariantReliability
         };
     }
 
-    private static SeriesEstimate Union(List<StepOutcome> yearly, int years, int renewedU, ISeriesSystemEngine engine)
+    /// <summary>Forward sweep with warm starts, then the optional backward sweep; no simulation.</summary>
+    private static StepOutcome[] Sweep(FormStepper stepper, IReadOnlyList<double> times, ProfileOptions options)
     {
+        // Forward sweep with warm starts; simulation waits until both sweeps are done.
+        var outcomes = new StepOutcome[times.Count];
+        for (var i = 0; i < times.Count; i++) outcomes[i] = stepper.Step(times[i], allowFallback: false);
+
+        // Backward sweep, each step warm-started from the later one. It catches steps the forward sweep missed
+        // (typically early, where the median point lies in a flat region, e.g. before corrosion initiates) and design
+        // points the forward warm start locked onto while another failure mode took over later (several local design
+        // points): per step the converged result with the smaller β, i.e. the dominant design point, is kept.
+        if (options.BackwardSweep && times.Count > 1)
+        {
+            IReadOnlyList<double>? next = null;
+            for (var i = times.Count - 1; i >= 0; i--)
+            {
+                var forward = outcomes[i];
+                var start = next ?? (forward.Converged ? forward.Form.DesignPointU : null);
+                if (start is null)
+                {
+                    continue;
+                }
+
+                var backward = i == times.Count - 1 && forward.Converged ? forward : stepper.Retry(times[i], start);
+                if (ReferenceEquals(backward.Form, forward.Form))
+                {
+                    next = forward.Form.DesignPointU;
+                    continue;
+                }
+
+                var evaluations = forward.Evaluations + backward.Evaluations;
+                StepOutcome chosen;
+                if (forward.Converged && backward.Converged)
+                {
+                    var better = backward.Form.Beta < forward.Form.Beta ? backward : forward;
+                    var note = Math.Abs(backward.Form.Beta - forward.Form.Beta) > 0.01
+                        ? FormattableString.Invariant($"two design points found (β = {forward.Form.Beta:F3} forward, {backward.Form.Beta:F3} backward); the smaller β is reported")
+                        : null;
+                    chosen = better with { Evaluations = evaluations, Note = note };
+                }
+                else
+                {
+                    chosen = (backward.Converged ? backward : forward) with { Evaluations = evaluations };
+                }
+
+                outcomes[i] = chosen;
+                next = backward.Converged ? backward.Form.DesignPointU : chosen.Converged ? chosen.Form.DesignPointU : next;
+            }
+        }
+
+        return outcomes;
+    }
+
+    private static IReadOnlyList<SeriesEstimate> CumulativeUnions(List<StepOutcome> yearly, int renewedU, ISeriesSystemEngine engine)
+    {
+        // ρᵢⱼ over the shared inputs only: each year's maximum is an independent variable of its own.
+        var years = yearly.Count;
         var betas = new double[years];
         var r = new double[years, years];
         for (var i = 0; i < years; i++)
@@ -240,7 +300,7 @@ public static class TimeVariantReliability
             }
         }
 
-        return engine.Union(betas, r);
+        return engine.CumulativeUnions(betas, r);
     }
 
     private static ProfilePoint MakePoint(double t, double pf, double previousPf, ComputationRoute route, bool converged, int evaluations,
@@ -277,22 +337,9 @@ public static class TimeVariantReliability
         private IReadOnlyList<double>? _warm = options.Form.StartPoint;
         private double? _scale = options.Form.LimitStateScale;
 
-        public StepOutcome Step(double timeYears)
+        public StepOutcome Step(double timeYears, bool allowFallback = true)
         {
-            var limitState = new DegradationLimitState(model, timeYears);
-            var problem = new ReliabilityProblem(transformation, limitState);
-            var extra = 0;
-            if (_scale is null)
-            {
-                // One evaluation at the median point fixes the scale of |G| for every step, so warm starts need no
-                // extra evaluation at the origin.
-                var x = new double[transformation.PhysicalDimension];
-                transformation.ToPhysical(new double[transformation.StandardDimension], x);
-                var g0 = Math.Abs(limitState.Evaluate(x));
-                extra = 1;
-                _scale = g0 > 0 && double.IsFinite(g0) ? g0 : 1.0;
-            }
-
+            var (problem, extra) = Problem(timeYears);
             var form = FormSolver.Solve(problem, options.Form with { StartPoint = _warm, LimitStateScale = _scale });
             if (!form.Converged && _warm is not null)
             {
@@ -302,24 +349,54 @@ public static class TimeVariantReliability
                 form = cold;
             }
 
-            var evaluations = form.LimitStateEvaluations + extra;
-            if (form.Converged)
+            var outcome = FromForm(form, extra);
+            if (outcome.Converged && options.WarmStart) _warm = form.DesignPointU;
+            return outcome.Converged || !allowFallback ? outcome : Fallback(timeYears, outcome);
+        }
+
+        /// <summary>FORM again from a given start (the design point of a neighbouring step).</summary>
+        public StepOutcome Retry(double timeYears, IReadOnlyList<double> start)
+        {
+            var (problem, extra) = Problem(timeYears);
+            return FromForm(FormSolver.Solve(problem, options.Form with { StartPoint = start, LimitStateScale = _scale }), extra);
+        }
+
+        /// <summary>Recomputes a non-converged step by simulation when a fallback is configured; else flags it.</summary>
+        public StepOutcome Fallback(double timeYears, StepOutcome failed)
+        {
+            var form = failed.Form;
+            if (options.Fallback is not { } fallback)
             {
-                if (options.WarmStart) _warm = form.DesignPointU;
-                return new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, true, evaluations, form, null, null);
+                return failed with { Note = $"FORM did not converge ({form.Diagnostic}); no simulation fallback configured" };
             }
 
-            if (options.Fallback is { } fallback)
-            {
-                var sim = fallback.Run(problem, form);
-                var note = $"FORM did not converge ({form.Diagnostic}); recomputed by {sim.Method}";
-                var route = sim.Method == CrudeMonteCarlo.MethodName ? ComputationRoute.MonteCarlo : fallback.Route;
-                return new StepOutcome(sim.FailureProbability, route, sim.Converged, evaluations + (int)Math.Min(int.MaxValue, sim.LimitStateEvaluations), form, sim,
-                    sim.Converged ? note : $"{note}, which did not converge either ({sim.Diagnostic})");
-            }
+            var (problem, _) = Problem(timeYears);
+            var sim = fallback.Run(problem, form);
+            var note = $"FORM did not converge ({form.Diagnostic}); recomputed by {sim.Method}";
+            var route = sim.Method == CrudeMonteCarlo.MethodName ? ComputationRoute.MonteCarlo : fallback.Route;
+            return new StepOutcome(sim.FailureProbability, route, sim.Converged, failed.Evaluations + (int)Math.Min(int.MaxValue, sim.LimitStateEvaluations), form, sim,
+                sim.Converged ? note : $"{note}, which did not converge either ({sim.Diagnostic})");
+        }
 
-            return new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, false, evaluations, form, null,
-                $"FORM did not converge ({form.Diagnostic}); no simulation fallback configured");
+        private static StepOutcome FromForm(FormResult form, int extra) =>
+            form.Converged
+                ? new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, true, form.LimitStateEvaluations + extra, form, null, null)
+                : new StepOutcome(form.FailureProbability, ComputationRoute.FirstOrder, false, form.LimitStateEvaluations + extra, form, null,
+                    $"FORM did not converge ({form.Diagnostic})");
+
+        private (ReliabilityProblem Problem, int ExtraEvaluations) Problem(double timeYears)
+        {
+            var limitState = new DegradationLimitState(model, timeYears);
+            var problem = new ReliabilityProblem(transformation, limitState);
+            if (_scale is not null) return (problem, 0);
+
+            // One evaluation at the median point fixes the scale of |G| for every step, so warm starts need no extra
+            // evaluation at the origin.
+            var x = new double[transformation.PhysicalDimension];
+            transformation.ToPhysical(new double[transformation.StandardDimension], x);
+            var g0 = Math.Abs(limitState.Evaluate(x));
+            _scale = g0 > 0 && double.IsFinite(g0) ? g0 : 1.0;
+            return (problem, 1);
         }
     }
 

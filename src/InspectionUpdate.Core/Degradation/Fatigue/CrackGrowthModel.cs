@@ -92,7 +92,7 @@ public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGrad
     /// <summary>Input name: threshold ΔK_th, N·mm^−3/2.</summary>
     public const string ThresholdDeltaK = "thresholdDeltaK_Nmm";
 
-    private const int PanelsPerUnitLog = 5;
+    private const int PanelsPerUnitLog = 1;
     private const double FailedAtStartMargin = -745;
     private const double NeverFailsMargin = 709;
     private static readonly double[] GaussNodes;
@@ -350,12 +350,14 @@ public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGrad
             return two && dk >= p.DkTr ? p.C2 * Math.Pow(dk, p.M2) : p.C1 * Math.Pow(dk, p.M1);
         }
 
-        // Weibull ranges: E[C(kΔσ)^m; Δσ in a band] = C k^m q^m [γ or Γ](1 + m/h, (s/q)^h).
+        // Weibull ranges: E[C(kΔσ)^m; Δσ in a band] = C k^m q^m [γ or Γ](1 + m/h, (s/q)^h), with the complete
+        // gamma functions precomputed per evaluation (they do not depend on a).
         var sTh = p.DkTh > 0 ? p.DkTh / k : 0;
         var zTh = sTh > 0 ? Math.Pow(sTh / p.Q, p.H) : 0;
         if (!two)
         {
-            return p.C1 * Math.Pow(k * p.Q, p.M1) * WeibullStressRanges.UpperIncomplete(1 + p.M1 / p.H, zTh);
+            var upper = zTh > 0 ? SpecialFunctions.GammaUpperRegularized(p.A1, zTh) * p.Gamma1 : p.Gamma1;
+            return p.C1 * Math.Pow(k * p.Q, p.M1) * upper;
         }
 
         var sTr = p.DkTr / k;
@@ -363,12 +365,12 @@ public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGrad
         var rate = 0.0;
         if (zTr > zTh)
         {
-            var a1 = 1 + p.M1 / p.H;
-            var band = WeibullStressRanges.LowerIncomplete(a1, zTr) - WeibullStressRanges.LowerIncomplete(a1, zTh);
-            rate += p.C1 * Math.Pow(k * p.Q, p.M1) * Math.Max(band, 0);
+            var band = SpecialFunctions.GammaLowerRegularized(p.A1, zTr) - (zTh > 0 ? SpecialFunctions.GammaLowerRegularized(p.A1, zTh) : 0);
+            rate += p.C1 * Math.Pow(k * p.Q, p.M1) * Math.Max(band, 0) * p.Gamma1;
         }
 
-        rate += p.C2 * Math.Pow(k * p.Q, p.M2) * WeibullStressRanges.UpperIncomplete(1 + p.M2 / p.H, Math.Max(zTr, zTh));
+        var zHigh = Math.Max(zTr, zTh);
+        rate += p.C2 * Math.Pow(k * p.Q, p.M2) * (zHigh > 0 ? SpecialFunctions.GammaUpperRegularized(p.A2, zHigh) : 1) * p.Gamma2;
         return rate;
     }
 
@@ -505,6 +507,17 @@ public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGrad
             DkTh = Settings.UseThreshold ? _dkTh.Read(x) : 0,
         };
         p.DkTr = Settings.Law == CrackGrowthLaw.TwoStage ? Math.Pow(p.C1 / p.C2, 1 / (p.M2 - p.M1)) : double.PositiveInfinity;
+        if (Settings.StressRanges == StressRangeModel.Weibull)
+        {
+            p.A1 = 1 + p.M1 / p.H;
+            p.Gamma1 = SpecialFunctions.Gamma(p.A1);
+            if (Settings.Law == CrackGrowthLaw.TwoStage)
+            {
+                p.A2 = 1 + p.M2 / p.H;
+                p.Gamma2 = SpecialFunctions.Gamma(p.A2);
+            }
+        }
+
         return p;
     }
 
@@ -517,6 +530,6 @@ public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGrad
 
     private struct Parameters
     {
-        public double A0, Ac, T, Y, S, Q, H, Nu, C1, M1, C2, M2, DkTh, DkTr;
+        public double A0, Ac, T, Y, S, Q, H, Nu, C1, M1, C2, M2, DkTh, DkTr, A1, A2, Gamma1, Gamma2;
     }
 }
