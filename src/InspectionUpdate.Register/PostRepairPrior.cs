@@ -8,9 +8,10 @@ namespace InspectionUpdate.Register;
 /// Parses the post-repair prior stored with a repair: the distributions of the inputs whose state the repair renews.
 /// </summary>
 /// <remarks>
-/// Format: <c>{"inputs": {"a0_mm": {"distribution": "lognormal", "mean": 0.2, "sd": 0.1}, ...}}</c>. Distributions:
-/// "normal" (mean, sd), "lognormal" (mean and sd, or mean and cov, or lambda and zeta of ln X). Input names must match
-/// the names of the component model's random inputs; the updating layer checks that against the model.
+/// Format: <c>{"inputs": {"a0_mm": {"distribution": "lognormal", "mean": 0.2, "sd": 0.1}, ...}}</c>: each input names a
+/// family and its parameters as <see cref="RandomVariableFactory"/> accepts them (normal, lognormal, gumbel, weibull,
+/// gamma, exponential, uniform, truncated-normal, beta, deterministic). Input names must match the names of the
+/// component model's random inputs; the updating layer checks that against the model.
 /// </remarks>
 public static class PostRepairPrior
 {
@@ -80,69 +81,51 @@ public static class PostRepairPrior
 
     private static RandomVariable? ParseVariable(string name, JsonElement e, string path, List<ValidationProblem> problems)
     {
-        var distribution = e.TryGetProperty("distribution", out var d) && d.ValueKind == JsonValueKind.String ? d.GetString() : null;
-        double? Number(string key)
+        string? family = null;
+        var parameters = new Dictionary<string, double>(StringComparer.OrdinalIgnoreCase);
+        var ok = true;
+        foreach (var p in e.EnumerateObject())
         {
-            if (!e.TryGetProperty(key, out var v))
+            if (p.NameEquals("distribution"))
             {
-                return null;
+                family = p.Value.ValueKind == JsonValueKind.String ? p.Value.GetString() : null;
             }
-
-            if (v.ValueKind != JsonValueKind.Number)
+            else if (p.Value.ValueKind == JsonValueKind.Number)
             {
-                problems.Add(new($"{path}.{key}", v.ToString(), "must be a number"));
-                return null;
+                parameters[p.Name] = p.Value.GetDouble();
             }
+            else
+            {
+                problems.Add(new($"{path}.{p.Name}", p.Value.ToString(), "must be a number"));
+                ok = false;
+            }
+        }
 
-            return v.GetDouble();
+        if (string.IsNullOrWhiteSpace(family))
+        {
+            problems.Add(new($"{path}.distribution", null, "the distribution family is required, one of " + string.Join(", ", RandomVariableFactory.Families)));
+            return null;
+        }
+
+        if (!ok)
+        {
+            return null;
         }
 
         try
         {
-            switch (distribution?.ToLowerInvariant())
-            {
-                case "normal":
-                    {
-                        var (mean, sd) = (Number("mean"), Number("sd"));
-                        if (mean is null || sd is null)
-                        {
-                            problems.Add(new(path, e.ToString(), "a normal input needs \"mean\" and \"sd\""));
-                            return null;
-                        }
-
-                        return new NormalVariable(name, mean.Value, sd.Value);
-                    }
-
-                case "lognormal":
-                    {
-                        var (mean, sd, cov, lambda, zeta) = (Number("mean"), Number("sd"), Number("cov"), Number("lambda"), Number("zeta"));
-                        if (mean is { } m && sd is { } s)
-                        {
-                            return LognormalVariable.FromMeanStd(name, m, s);
-                        }
-
-                        if (mean is { } m2 && cov is { } v)
-                        {
-                            return LognormalVariable.FromMeanCov(name, m2, v);
-                        }
-
-                        if (lambda is { } l && zeta is { } z)
-                        {
-                            return LognormalVariable.FromLogParameters(name, l, z);
-                        }
-
-                        problems.Add(new(path, e.ToString(), "a lognormal input needs \"mean\" and \"sd\", \"mean\" and \"cov\", or \"lambda\" and \"zeta\""));
-                        return null;
-                    }
-
-                default:
-                    problems.Add(new($"{path}.distribution", distribution, "unknown distribution; expected \"normal\" or \"lognormal\""));
-                    return null;
-            }
+            return RandomVariableFactory.Create(name, family, parameters);
         }
         catch (DistributionParameterException ex)
         {
-            problems.Add(new($"{path}.{ex.ParamName}", ex.Value.ToString("R", CultureInfo.InvariantCulture), ex.Message));
+            var field = ex.ParamName switch
+            {
+                "family" => $"{path}.distribution",
+                "parameters" or null => path,
+                { } other => $"{path}.{other}",
+            };
+            var value = ex.ParamName == "family" ? family : double.IsNaN(ex.Value) ? null : ex.Value.ToString("R", CultureInfo.InvariantCulture);
+            problems.Add(new(field, value, ex.Message));
             return null;
         }
     }

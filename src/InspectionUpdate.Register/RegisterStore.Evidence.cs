@@ -43,7 +43,9 @@ public sealed partial class RegisterStore
     {
         var component = ReadComponent(c, t, componentId, asOf)
             ?? throw new ArgumentException(FormattableString.Invariant($"No component with id {componentId} in the register as of {Sql.Utc(asOf)}."), nameof(componentId));
-        var methods = ReadMethods(c, t, "recorded_utc <= $asOf", ("$asOf", Sql.Utc(asOf))).ToDictionary(m => m.Name, m => m.ToInspectionMethod(), StringComparer.Ordinal);
+        // Methods are immutable, so all are loaded: a finding recorded by a machine whose clock ran behind the one that
+        // recorded its method must still resolve.
+        var methods = ReadMethods(c, t, "1 = 1").ToDictionary(m => m.Name, m => m.ToInspectionMethod(), StringComparer.Ordinal);
         var outcomes = new List<(InspectionOutcome Outcome, int Order)>();
         var findings = ReadRevisions(c, t, $"f.component_id = $component AND {LatestAsOf} AND fr.withdrawn = 0",
             ("$component", componentId), ("$asOf", Sql.Utc(asOf)));

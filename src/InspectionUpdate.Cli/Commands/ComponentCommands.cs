@@ -1,5 +1,8 @@
 using System.ComponentModel;
+using System.Globalization;
+using System.Text.Json;
 using InspectionUpdate.Cli.Infrastructure;
+using InspectionUpdate.Register;
 using Spectre.Console.Cli;
 
 namespace InspectionUpdate.Cli.Commands;
@@ -7,14 +10,14 @@ namespace InspectionUpdate.Cli.Commands;
 /// <summary>Settings of <c>component add</c>.</summary>
 public sealed class ComponentAddSettings : RegisterSettings
 {
-    /// <summary>Component identifier.</summary>
+    /// <summary>Component code.</summary>
     [CommandArgument(0, "<ID>")]
-    [Description("Short identifier of the component, e.g. WI-03.")]
+    [Description("Short code of the component, e.g. WI-03.")]
     public string Id { get; init; } = string.Empty;
 
-    /// <summary>Site identifier.</summary>
+    /// <summary>Site code.</summary>
     [CommandOption("--site <SITE>")]
-    [Description("Identifier of the site that holds it.")]
+    [Description("Code of the site that holds it.")]
     public string? Site { get; init; }
 
     /// <summary>Name.</summary>
@@ -27,18 +30,95 @@ public sealed class ComponentAddSettings : RegisterSettings
     [Description("Component model file (JSON, see docs/formats.md).")]
     public string? Model { get; init; }
 
+    /// <summary>Model version.</summary>
+    [CommandOption("--model-version <TEXT>")]
+    [Description("Version of the model definition (default: the file's \"version\" field, else 1).")]
+    public string? ModelVersion { get; init; }
+
     /// <summary>Date of entry into service.</summary>
     [CommandOption("--in-service <DATE>")]
     [Description("Date the component entered service (ISO 8601, e.g. 2011-04-01): time zero of its profiles.")]
     public string? InService { get; init; }
+
+    /// <summary>Nominal wall.</summary>
+    [CommandOption("--wall-mm <MM>")]
+    [Description("Nominal wall thickness in mm (needed for wall-thickness readings).")]
+    public double? WallMm { get; init; }
+
+    /// <summary>Shared-parameter group.</summary>
+    [CommandOption("--group <NAME>")]
+    [Description("Shared-parameter group (sister components whose findings inform one another's shared inputs).")]
+    public string? Group { get; init; }
+
+    /// <summary>Who records it.</summary>
+    [CommandOption("--by <WHO>")]
+    [Description("Who records it (default: the user name).")]
+    public string? By { get; init; }
 }
 
 /// <summary>Adds a component.</summary>
 public sealed class ComponentAddCommand(CliHost host) : CliCommand<ComponentAddSettings>(host)
 {
     /// <inheritdoc />
-    protected override int Run(ComponentAddSettings settings, CancellationToken cancellation) =>
-        throw CliException.NotAvailable("the register (issue 5) has not landed.");
+    protected override int Run(ComponentAddSettings settings, CancellationToken cancellation)
+    {
+        var modelPath = Host.Resolve(RegisterAccess.Text("--model", settings.Model));
+        var json = ModelFiles.Read(modelPath);
+        var version = settings.ModelVersion ?? ModelFiles.Version(json) ?? "1";
+        var installed = RegisterAccess.Date("--in-service", settings.InService);
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        var component = RegisterAccess.Require(store.AddComponent(
+            new NewComponent(RegisterAccess.Text("--site", settings.Site), settings.Id, settings.Name ?? settings.Id, installed, settings.WallMm, json, version, settings.Group),
+            RegisterAccess.Actor(settings.By)), "component add");
+        if (settings.Json) WriteJson(ComponentRow.From(component, store.Sites()));
+        else Line($"Added component {component.Code} ({component.Description}), model version {component.Model.ModelVersion}, in service {component.InstallDate:yyyy-MM-dd}.");
+        return ExitCodes.Ok;
+    }
+}
+
+/// <summary>Reads model files.</summary>
+internal static class ModelFiles
+{
+    /// <summary>The file's text, checked to be JSON.</summary>
+    public static string Read(string path)
+    {
+        if (!File.Exists(path)) throw CliException.BadInput("--model", path, "does not exist.");
+        var text = File.ReadAllText(path);
+        try
+        {
+            using var _ = JsonDocument.Parse(text);
+        }
+        catch (JsonException e)
+        {
+            throw CliException.BadInput("--model", path, "is not valid JSON: " + e.Message);
+        }
+
+        return text;
+    }
+
+    /// <summary>The "version" (or "model_version") field of a model definition, if any.</summary>
+    public static string? Version(string json)
+    {
+        using var doc = JsonDocument.Parse(json);
+        if (doc.RootElement.ValueKind != JsonValueKind.Object) return null;
+        foreach (var name in new[] { "version", "model_version" })
+        {
+            if (doc.RootElement.TryGetProperty(name, out var v))
+            {
+                return v.ValueKind == JsonValueKind.String ? v.GetString() : v.GetRawText();
+            }
+        }
+
+        return null;
+    }
+}
+
+/// <summary>A component in --json output.</summary>
+public sealed record ComponentRow(long Id, string Code, string Site, string Name, DateOnly InServiceDate, double? WallThicknessMm, string? ParameterGroup,
+    string ModelVersion, int ModelRevision, DateTimeOffset RecordedUtc, string RecordedBy)
+{
+    internal static ComponentRow From(InspectionUpdate.Register.Component c, IReadOnlyList<Site> sites) => new(c.Id, c.Code, sites.FirstOrDefault(s => s.Id == c.SiteId)?.Code ?? "?",
+        c.Description, c.InstallDate, c.WallThicknessMm, c.ParameterGroup, c.Model.ModelVersion, c.Model.Revision, c.Recorded.RecordedUtc, c.Recorded.RecordedBy);
 }
 
 /// <summary>Settings of <c>component list</c>.</summary>
@@ -54,6 +134,22 @@ public sealed class ComponentListSettings : RegisterSettings
 public sealed class ComponentListCommand(CliHost host) : CliCommand<ComponentListSettings>(host)
 {
     /// <inheritdoc />
-    protected override int Run(ComponentListSettings settings, CancellationToken cancellation) =>
-        throw CliException.NotAvailable("the register (issue 5) has not landed.");
+    protected override int Run(ComponentListSettings settings, CancellationToken cancellation)
+    {
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        var sites = store.Sites();
+        if (settings.Site is not null && sites.All(s => s.Code != settings.Site)) throw CliException.BadInput("--site", settings.Site, "is not in the register.");
+        var rows = store.Components().Select(c => ComponentRow.From(c, sites)).Where(r => settings.Site is null || r.Site == settings.Site).ToArray();
+        if (settings.Json) WriteJson(new ComponentList(rows));
+        else
+        {
+            Table(["component", "site", "name", "in service", "model version", "group"], rows.Select(r => (IReadOnlyList<string>)
+                [r.Code, r.Site, r.Name, r.InServiceDate.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture), $"{r.ModelVersion} (rev {r.ModelRevision})", r.ParameterGroup ?? "-"]));
+        }
+
+        return ExitCodes.Ok;
+    }
 }
+
+/// <summary>--json of <c>component list</c>.</summary>
+public sealed record ComponentList(IReadOnlyList<ComponentRow> Components);

@@ -1,5 +1,10 @@
 using System.ComponentModel;
+using System.Globalization;
+using System.Text.Json;
 using InspectionUpdate.Cli.Infrastructure;
+using InspectionUpdate.Inspection;
+using InspectionUpdate.Register;
+using InspectionUpdate.Reporting.Export;
 using Spectre.Console.Cli;
 
 namespace InspectionUpdate.Cli.Commands;
@@ -7,36 +12,122 @@ namespace InspectionUpdate.Cli.Commands;
 /// <summary>Settings of <c>method add</c>.</summary>
 public sealed class MethodAddSettings : RegisterSettings
 {
-    /// <summary>Method identifier.</summary>
+    /// <summary>Method name.</summary>
     [CommandArgument(0, "<ID>")]
-    [Description("Short identifier of the method, e.g. UT-AUTO.")]
+    [Description("Short name of the method, e.g. UT-AUTO.")]
     public string Id { get; init; } = string.Empty;
 
     /// <summary>Method file.</summary>
     [CommandOption("--file <FILE>")]
     [Description("Method file (JSON: PoD curve and sizing error, see docs/formats.md).")]
     public string? File { get; init; }
+
+    /// <summary>Who records it.</summary>
+    [CommandOption("--by <WHO>")]
+    [Description("Who records it (default: the user name).")]
+    public string? By { get; init; }
 }
 
 /// <summary>Adds a method.</summary>
 public sealed class MethodAddCommand(CliHost host) : CliCommand<MethodAddSettings>(host)
 {
     /// <inheritdoc />
-    protected override int Run(MethodAddSettings settings, CancellationToken cancellation) =>
-        throw CliException.NotAvailable("the register (issue 5) has not landed.");
+    protected override int Run(MethodAddSettings settings, CancellationToken cancellation)
+    {
+        var method = MethodFile.Read(Host.Resolve(RegisterAccess.Text("--file", settings.File)), settings.Id);
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        var stored = RegisterAccess.Require(store.AddMethod(method, RegisterAccess.Actor(settings.By)), "method add");
+        if (settings.Json) WriteJson(MethodRow.From(stored));
+        else Line($"Added method {stored.Name}: {MethodRow.From(stored).PodText}.");
+        return ExitCodes.Ok;
+    }
+}
+
+/// <summary>The method file (format inspection-update/method/1, docs/formats.md).</summary>
+internal static class MethodFile
+{
+    public const string FormatName = "inspection-update/method/1";
+
+    private sealed record FileDoc(string? Format, string? Description, PodDoc? Pod, SizingDoc? Sizing);
+
+    private sealed record PodDoc(string? Form, double? MuLnMm, double? SigmaLn, double? LambdaMm, double? LowerLimitMm, double? MaxPod, double? FalseCallProbability);
+
+    private sealed record SizingDoc(string? Kind, double? Bias, double? Sd);
+
+    /// <summary>Reads a method file; every problem is listed with its field.</summary>
+    public static NewMethod Read(string path, string name)
+    {
+        if (!File.Exists(path)) throw CliException.BadInput("--file", path, "does not exist.");
+        FileDoc? doc;
+        try
+        {
+            doc = JsonSerializer.Deserialize<FileDoc>(File.ReadAllText(path), ProfileExport.JsonOptions);
+        }
+        catch (JsonException e)
+        {
+            throw CliException.BadInput("--file", path, "is not a valid method file: " + e.Message);
+        }
+
+        var problems = new List<ValidationProblem>();
+        if (doc?.Format != FormatName) problems.Add(new("format", doc?.Format, $"must be {FormatName}"));
+        if (doc?.Pod?.Form is null) problems.Add(new("pod.form", null, $"is required ({PodForms.LogLogistic}, {PodForms.CumulativeLognormal} or {PodForms.Exponential})"));
+        var kind = doc?.Sizing?.Kind switch
+        {
+            "additive-normal" => SizingErrorKind.AdditiveNormal,
+            "multiplicative-lognormal" => SizingErrorKind.MultiplicativeLognormal,
+            var k => Bad(problems, "sizing.kind", k, "must be additive-normal or multiplicative-lognormal"),
+        };
+        if (doc?.Sizing?.Sd is null) problems.Add(new("sizing.sd", null, "is required"));
+        if (problems.Count > 0) throw RegisterAccess.Problems("method file " + Path.GetFileName(path), problems);
+        var pod = doc!.Pod!;
+        return new NewMethod(name, doc.Description ?? string.Empty,
+            new PodSpec(pod.Form!, pod.MuLnMm, pod.SigmaLn, pod.LambdaMm, pod.LowerLimitMm ?? 0, pod.MaxPod ?? 1, pod.FalseCallProbability ?? 0),
+            new SizingError(kind, doc.Sizing!.Bias ?? 0, doc.Sizing.Sd!.Value));
+    }
+
+    private static SizingErrorKind Bad(List<ValidationProblem> problems, string field, string? value, string message)
+    {
+        problems.Add(new(field, value, message));
+        return SizingErrorKind.AdditiveNormal;
+    }
+}
+
+/// <summary>A method in --json output.</summary>
+public sealed record MethodRow(long Id, string Name, string Description, string PodForm, double? PodMuLnMm, double? PodSigmaLn, double? PodLambdaMm,
+    double PodLowerLimitMm, double PodMax, double FalseCallProbability, double? A90Mm, string SizingKind, double SizingBias, double SizingSd)
+{
+    /// <summary>The PoD curve in words.</summary>
+    public string PodText => PodForm + (A90Mm is { } a ? $", a90 = {a.ToString("0.###", CultureInfo.InvariantCulture)} mm" : string.Empty);
+
+    internal static MethodRow From(StoredMethod m)
+    {
+        double? a90;
+        try
+        {
+            a90 = m.Pod.ToCurve().SizeAtPod(0.9);
+        }
+        catch (ArgumentException)
+        {
+            a90 = null;
+        }
+
+        return new(m.Id, m.Name, m.Description, m.Pod.Form, m.Pod.MuLnMm, m.Pod.SigmaLn, m.Pod.LambdaMm, m.Pod.LowerLimitMm, m.Pod.MaxPod, m.Pod.FalseCallProbability,
+            a90 is { } v && double.IsFinite(v) ? v : null,
+            m.Sizing.Kind == SizingErrorKind.AdditiveNormal ? "additive-normal" : "multiplicative-lognormal", m.Sizing.Bias, m.Sizing.StandardDeviation);
+    }
 }
 
 /// <summary>Settings of <c>method fit</c>.</summary>
 public sealed class MethodFitSettings : RegisterSettings
 {
-    /// <summary>Method identifier.</summary>
+    /// <summary>Method name.</summary>
     [CommandArgument(0, "<ID>")]
-    [Description("Identifier of the method to create.")]
+    [Description("Name of the method to create.")]
     public string Id { get; init; } = string.Empty;
 
     /// <summary>Qualification data.</summary>
     [CommandOption("--data <FILE>")]
-    [Description("Qualification data (CSV): size_mm,detected for hit/miss; size_mm,response for signal response.")]
+    [Description("Qualification data (CSV with header): size_mm,detected (1/0) for hit-miss; size_mm,response for signal-response.")]
     public string? Data { get; init; }
 
     /// <summary>Kind of data.</summary>
@@ -45,19 +136,150 @@ public sealed class MethodFitSettings : RegisterSettings
     [DefaultValue("hit-miss")]
     public string Kind { get; init; } = "hit-miss";
 
+    /// <summary>Link of the hit/miss fit.</summary>
+    [CommandOption("--link <LINK>")]
+    [Description("hit-miss link: logit (log-logistic curve) or probit (cumulative lognormal curve).")]
+    [DefaultValue("logit")]
+    public string Link { get; init; } = "logit";
+
     /// <summary>Decision threshold.</summary>
     [CommandOption("--threshold <VALUE>")]
     [Description("Decision threshold of the signal response (signal-response only).")]
     public double? Threshold { get; init; }
+
+    /// <summary>Sizing error sd.</summary>
+    [CommandOption("--sizing-sd-mm <MM>")]
+    [Description("Standard deviation of the additive normal sizing error, mm.")]
+    public double? SizingSdMm { get; init; }
+
+    /// <summary>Sizing bias.</summary>
+    [CommandOption("--sizing-bias-mm <MM>")]
+    [Description("Mean of the additive sizing error, mm (default 0).")]
+    [DefaultValue(0.0)]
+    public double SizingBiasMm { get; init; }
+
+    /// <summary>Only fit, do not store.</summary>
+    [CommandOption("--dry-run")]
+    [Description("Fit and print, but do not add the method to the register.")]
+    public bool DryRun { get; init; }
+
+    /// <summary>Who records it.</summary>
+    [CommandOption("--by <WHO>")]
+    [Description("Who records it (default: the user name).")]
+    public string? By { get; init; }
 }
 
 /// <summary>Fits a method from qualification data.</summary>
 public sealed class MethodFitCommand(CliHost host) : CliCommand<MethodFitSettings>(host)
 {
     /// <inheritdoc />
-    protected override int Run(MethodFitSettings settings, CancellationToken cancellation) =>
-        throw CliException.NotAvailable("PoD fitting from qualification data and the register (issue 5) have not landed.");
+    protected override int Run(MethodFitSettings settings, CancellationToken cancellation)
+    {
+        var path = Host.Resolve(RegisterAccess.Text("--data", settings.Data));
+        if (!File.Exists(path)) throw CliException.BadInput("--data", path, "does not exist.");
+        if (settings.SizingSdMm is not { } sd || !(sd > 0)) throw CliException.BadInput("--sizing-sd-mm", settings.SizingSdMm, "must be given and > 0 mm.");
+        var rows = ReadColumns(path, settings.Kind == "signal-response" ? "response" : "detected");
+        PodEstimate estimate;
+        string diagnostic;
+        bool converged;
+        switch (settings.Kind)
+        {
+            case "hit-miss":
+                var link = settings.Link switch
+                {
+                    "logit" => PodLink.Logit,
+                    "probit" => PodLink.Probit,
+                    _ => throw CliException.BadInput("--link", settings.Link, "must be logit or probit."),
+                };
+                var hits = rows.Select((r, i) => r.Value switch
+                {
+                    1 => true,
+                    0 => false,
+                    _ => throw CliException.BadInput($"detected (line {i + 2})", r.Value, "must be 1 or 0."),
+                }).ToArray();
+                var fit = Engine(() => PodFitting.FitHitMiss(rows.Select(r => r.SizeMm).ToArray(), hits, link));
+                (converged, diagnostic) = (fit.Converged, fit.Diagnostic);
+                estimate = fit.Estimate ?? throw new CliException(ExitCodes.NotConverged, "The hit/miss fit did not converge: " + fit.Diagnostic);
+                break;
+            case "signal-response":
+                if (settings.Threshold is not { } threshold) throw new CliException("--threshold is missing: signal-response needs the decision threshold.");
+                var sfit = Engine(() => PodFitting.FitSignalResponse(rows.Select(r => r.SizeMm).ToArray(), rows.Select(r => r.Value).ToArray(), new SignalLimits(threshold)));
+                (converged, diagnostic) = (sfit.Converged, sfit.Diagnostic);
+                estimate = sfit.Estimate ?? throw new CliException(ExitCodes.NotConverged, "The signal-response fit did not converge: " + sfit.Diagnostic);
+                break;
+            default:
+                throw CliException.BadInput("--kind", settings.Kind, "must be hit-miss or signal-response.");
+        }
+
+        var method = new NewMethod(settings.Id, $"fitted from {Path.GetFileName(path)} ({settings.Kind}, {rows.Count.ToString(CultureInfo.InvariantCulture)} trials)",
+            PodSpec.From(estimate.ToCurve()), new SizingError(SizingErrorKind.AdditiveNormal, settings.SizingBiasMm, sd));
+        long? id = null;
+        if (!settings.DryRun)
+        {
+            using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+            id = RegisterAccess.Require(store.AddMethod(method, RegisterAccess.Actor(settings.By)), "method fit").Id;
+        }
+
+        var result = new MethodFitted(settings.Id, id, settings.Kind, rows.Count, method.Pod.Form, estimate.MuLnMm, estimate.SigmaLn, estimate.A90Mm, estimate.A90At95Mm, converged, diagnostic);
+        if (settings.Json) WriteJson(result);
+        else
+        {
+            Table(["quantity", "value"],
+            [
+                ["method", settings.Id + (settings.DryRun ? " (dry run, not stored)" : string.Empty)],
+                ["data", $"{rows.Count} trials, {settings.Kind}"],
+                ["PoD form", method.Pod.Form],
+                ["μ of ln a (ln mm)", estimate.MuLnMm.ToString("0.####", CultureInfo.InvariantCulture)],
+                ["σ of ln a", estimate.SigmaLn.ToString("0.####", CultureInfo.InvariantCulture)],
+                ["a90 (mm)", estimate.A90Mm.ToString("0.###", CultureInfo.InvariantCulture)],
+                ["a90/95 (mm)", estimate.A90At95Mm.ToString("0.###", CultureInfo.InvariantCulture)],
+                ["fit", diagnostic],
+            ]);
+        }
+
+        return ExitCodes.Ok;
+    }
+
+    private static T Engine<T>(Func<T> fit)
+    {
+        try
+        {
+            return fit();
+        }
+        catch (ArgumentException e)
+        {
+            throw new CliException("The qualification data cannot be fitted: " + e.Message, e);
+        }
+    }
+
+    private static List<(double SizeMm, double Value)> ReadColumns(string path, string valueColumn)
+    {
+        var lines = File.ReadAllLines(path).Where(l => !string.IsNullOrWhiteSpace(l)).ToArray();
+        if (lines.Length < 2) throw CliException.BadInput("--data", path, "has no data rows.");
+        var header = lines[0].Split(',').Select(h => h.Trim()).ToList();
+        var si = header.IndexOf("size_mm");
+        var vi = header.IndexOf(valueColumn);
+        if (si < 0 || vi < 0) throw CliException.BadInput("header", lines[0], $"of {Path.GetFileName(path)} must have the columns size_mm and {valueColumn}.");
+        var rows = new List<(double, double)>();
+        for (var i = 1; i < lines.Length; i++)
+        {
+            var cells = lines[i].Split(',');
+            if (cells.Length <= Math.Max(si, vi)
+                || !double.TryParse(cells[si], NumberStyles.Float, CultureInfo.InvariantCulture, out var size)
+                || !double.TryParse(cells[vi], NumberStyles.Float, CultureInfo.InvariantCulture, out var value))
+            {
+                throw CliException.BadInput($"line {i + 1}", lines[i], $"of {Path.GetFileName(path)} does not hold two numbers size_mm and {valueColumn}.");
+            }
+
+            rows.Add((size, value));
+        }
+
+        return rows;
+    }
 }
+
+/// <summary>--json of <c>method fit</c>.</summary>
+public sealed record MethodFitted(string Name, long? Id, string Kind, int Trials, string PodForm, double PodMuLnMm, double PodSigmaLn, double A90Mm, double A90At95Mm, bool Converged, string Diagnostic);
 
 /// <summary>Settings of <c>method list</c>.</summary>
 public sealed class MethodListSettings : RegisterSettings
@@ -68,6 +290,20 @@ public sealed class MethodListSettings : RegisterSettings
 public sealed class MethodListCommand(CliHost host) : CliCommand<MethodListSettings>(host)
 {
     /// <inheritdoc />
-    protected override int Run(MethodListSettings settings, CancellationToken cancellation) =>
-        throw CliException.NotAvailable("the register (issue 5) has not landed.");
+    protected override int Run(MethodListSettings settings, CancellationToken cancellation)
+    {
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        var rows = store.Methods().Select(MethodRow.From).ToArray();
+        if (settings.Json) WriteJson(new MethodList(rows));
+        else
+        {
+            Table(["method", "PoD", "sizing error", "description"], rows.Select(r => (IReadOnlyList<string>)
+                [r.Name, r.PodText, $"{r.SizingKind}, bias {r.SizingBias.ToString(CultureInfo.InvariantCulture)}, sd {r.SizingSd.ToString(CultureInfo.InvariantCulture)}", r.Description]));
+        }
+
+        return ExitCodes.Ok;
+    }
 }
+
+/// <summary>--json of <c>method list</c>.</summary>
+public sealed record MethodList(IReadOnlyList<MethodRow> Methods);

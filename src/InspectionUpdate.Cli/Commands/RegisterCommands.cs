@@ -1,5 +1,6 @@
 using System.ComponentModel;
 using InspectionUpdate.Cli.Infrastructure;
+using InspectionUpdate.Register;
 using Spectre.Console.Cli;
 
 namespace InspectionUpdate.Cli.Commands;
@@ -17,9 +18,19 @@ public sealed class RegisterCreateSettings : CommonSettings
 public sealed class RegisterCreateCommand(CliHost host) : CliCommand<RegisterCreateSettings>(host)
 {
     /// <inheritdoc />
-    protected override int Run(RegisterCreateSettings settings, CancellationToken cancellation) =>
-        throw CliException.NotAvailable("the register (issue 5) has not landed.");
+    protected override int Run(RegisterCreateSettings settings, CancellationToken cancellation)
+    {
+        var path = Host.Resolve(settings.File);
+        using var store = RegisterAccess.Open(Host, path, RegisterOpenMode.CreateNew);
+        var result = new RegisterCreated(store.Path, store.SchemaVersion);
+        if (settings.Json) WriteJson(result);
+        else Line($"Created register {store.Path} (schema {store.SchemaVersion}).");
+        return ExitCodes.Ok;
+    }
 }
+
+/// <summary>--json of <c>register create</c>.</summary>
+public sealed record RegisterCreated(string Register, int SchemaVersion);
 
 /// <summary>Settings of <c>register check</c>.</summary>
 public sealed class RegisterCheckSettings : RegisterSettings
@@ -30,6 +41,32 @@ public sealed class RegisterCheckSettings : RegisterSettings
 public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterCheckSettings>(host)
 {
     /// <inheritdoc />
-    protected override int Run(RegisterCheckSettings settings, CancellationToken cancellation) =>
-        throw CliException.NotAvailable("the register (issue 5) has not landed.");
+    protected override int Run(RegisterCheckSettings settings, CancellationToken cancellation)
+    {
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        var check = store.Check();
+        var now = Host.Clock.GetUtcNow();
+        var result = new RegisterChecked(store.Path, check.SchemaVersion, check.IsHealthy, check.IntegrityCheck, check.ForeignKeyViolations,
+            check.InvariantViolations, store.Fingerprint(now), store.Sites().Count, store.Components().Count, store.Methods().Count);
+        if (settings.Json) WriteJson(result);
+        else
+        {
+            Table(["check", "result"],
+            [
+                ["schema version", check.SchemaVersion.ToString(System.Globalization.CultureInfo.InvariantCulture)],
+                ["SQLite integrity", string.Join("; ", check.IntegrityCheck)],
+                ["foreign keys", check.ForeignKeyViolations.Count == 0 ? "ok" : string.Join("; ", check.ForeignKeyViolations)],
+                ["register invariants", check.InvariantViolations.Count == 0 ? "ok" : string.Join("; ", check.InvariantViolations)],
+                ["sites / components / methods", $"{result.Sites} / {result.Components} / {result.Methods}"],
+                ["fingerprint", result.Fingerprint],
+            ]);
+            Line(check.IsHealthy ? "The register is healthy." : "The register FAILED its check.");
+        }
+
+        return check.IsHealthy ? ExitCodes.Ok : ExitCodes.RegisterError;
+    }
 }
+
+/// <summary>--json of <c>register check</c>.</summary>
+public sealed record RegisterChecked(string Register, int SchemaVersion, bool Healthy, IReadOnlyList<string> IntegrityCheck,
+    IReadOnlyList<string> ForeignKeyViolations, IReadOnlyList<string> InvariantViolations, string Fingerprint, int Sites, int Components, int Methods);

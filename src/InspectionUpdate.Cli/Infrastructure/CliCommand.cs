@@ -31,7 +31,7 @@ public abstract class CliCommand<TSettings> : Command<TSettings>
         }
         catch (CliException e)
         {
-            return Fail(settings, e.ExitCode, e.Message, e);
+            return Fail(settings, e.ExitCode, e.Message, e, e.Problems);
         }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
         {
@@ -67,15 +67,17 @@ public abstract class CliCommand<TSettings> : Command<TSettings>
         Host.Console.Write(table);
     }
 
-    private int Fail(TSettings settings, int code, string message, Exception e)
+    private int Fail(TSettings settings, int code, string message, Exception e, IReadOnlyList<string>? problems = null)
     {
+        problems ??= [];
         Host.Error.WriteLine("error: " + message);
+        foreach (var p in problems) Host.Error.WriteLine("  " + p);
         if (settings.Verbose) Host.Error.WriteLine(e.ToString());
-        if (settings.Json) WriteJson(new ErrorDocument(new ErrorDetail(code, ExitCodes.Name(code), message)));
+        if (settings.Json) WriteJson(new ErrorDocument(new ErrorDetail(code, ExitCodes.Name(code), message, problems)));
         return code;
     }
 
     private sealed record ErrorDocument(ErrorDetail Error);
 
-    private sealed record ErrorDetail(int ExitCode, string Kind, string Message);
+    private sealed record ErrorDetail(int ExitCode, string Kind, string Message, IReadOnlyList<string> Problems);
 }

@@ -10,6 +10,14 @@ public sealed class CliException : Exception
     public CliException(int exitCode, string message, Exception? inner = null)
         : base(message, inner) => ExitCode = exitCode;
 
+    /// <summary>Creates the exception with every problem found (each one sentence naming its field and value).</summary>
+    public CliException(int exitCode, string message, IReadOnlyList<string> problems)
+        : base(message)
+    {
+        ExitCode = exitCode;
+        Problems = problems;
+    }
+
     /// <summary>Creates a bad-input exception.</summary>
     public CliException()
         : this(ExitCodes.BadInput, "Bad input.")
@@ -30,6 +38,9 @@ public sealed class CliException : Exception
 
     /// <summary>The exit code the process ends with.</summary>
     public int ExitCode { get; }
+
+    /// <summary>Every problem found, when there were several (printed one per line).</summary>
+    public IReadOnlyList<string> Problems { get; } = [];
 
     /// <summary>Bad input naming the field and the value.</summary>
     public static CliException BadInput(string field, object? value, string why) =>

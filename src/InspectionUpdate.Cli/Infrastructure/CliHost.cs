@@ -15,8 +15,10 @@ public sealed class CliHost
     /// <param name="showProgress">False when output is redirected: no progress bars then.</param>
     /// <param name="today">Today's date (the default evidence date).</param>
     /// <param name="workingDirectory">Folder that relative paths are resolved against.</param>
-    public CliHost(IAnsiConsole console, TextWriter rawOut, TextWriter error, bool showProgress, Func<DateOnly> today, string workingDirectory)
+    /// <param name="clock">Clock of recorded times in the register; the system clock when null.</param>
+    public CliHost(IAnsiConsole console, TextWriter rawOut, TextWriter error, bool showProgress, Func<DateOnly> today, string workingDirectory, TimeProvider? clock = null)
     {
+        Clock = clock ?? TimeProvider.System;
         Console = console;
         RawOut = rawOut;
         Error = error;
@@ -40,6 +42,9 @@ public sealed class CliHost
     /// <summary>Today's date.</summary>
     public Func<DateOnly> Today { get; }
 
+    /// <summary>Clock of the times the register records.</summary>
+    public TimeProvider Clock { get; }
+
     /// <summary>Working folder.</summary>
     public string WorkingDirectory { get; }
 
@@ -54,6 +59,8 @@ public sealed class CliHost
             ColorSystem = redirected ? ColorSystemSupport.NoColors : ColorSystemSupport.Detect,
             Interactive = redirected ? InteractionSupport.No : InteractionSupport.Detect,
         });
+        // Redirected output has no terminal width: wide enough that tables written to files do not wrap.
+        if (redirected) console.Profile.Width = 160;
         return new CliHost(console, System.Console.Out, System.Console.Error, !redirected,
             () => DateOnly.FromDateTime(DateTime.Today), Environment.CurrentDirectory);
     }
@@ -69,9 +76,16 @@ public sealed class CliHost
             Interactive = InteractionSupport.No,
         });
         console.Profile.Width = 160;
-        return new CliHost(console, output, error, false, () => today, workingDirectory);
+        return new CliHost(console, output, error, false, () => today, workingDirectory, new FixedClock(today));
     }
 
     /// <summary>An absolute path for a user-given one.</summary>
     public string Resolve(string path) => Path.GetFullPath(path, WorkingDirectory);
+}
+
+/// <summary>A clock that stands at noon UTC of one day (tests and the demo's scenario date).</summary>
+public sealed class FixedClock(DateOnly day) : TimeProvider
+{
+    /// <inheritdoc />
+    public override DateTimeOffset GetUtcNow() => new(day.ToDateTime(new TimeOnly(12, 0)), TimeSpan.Zero);
 }

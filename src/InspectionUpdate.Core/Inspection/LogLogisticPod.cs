@@ -15,15 +15,7 @@ public sealed class LogLogisticPod : ParametricPod
     public LogLogisticPod(double muLnMm, double sigmaLn, double lowerLimitMm = 0, double maxPod = 1, double falseCallProbability = 0)
         : base(lowerLimitMm, maxPod, falseCallProbability)
     {
-        if (!double.IsFinite(muLnMm))
-        {
-            throw new ArgumentOutOfRangeException(nameof(muLnMm), muLnMm, "μ (location in ln mm) must be finite.");
-        }
-
-        if (!double.IsFinite(sigmaLn) || sigmaLn <= 0)
-        {
-            throw new ArgumentOutOfRangeException(nameof(sigmaLn), sigmaLn, "σ (scale in ln a) must be finite and > 0.");
-        }
+        RequireLogLocationScale(muLnMm, sigmaLn);
 
         MuLnMm = muLnMm;
         SigmaLn = sigmaLn;

@@ -52,6 +52,21 @@ public abstract class ParametricPod : ProbabilityOfDetection
         FalseCallProbability = falseCallProbability;
     }
 
+    /// <summary>Checks the location μ (ln mm) and scale σ (ln a) of the log-linear forms.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">μ not finite ("muLnMm") or σ not finite and &gt; 0 ("sigmaLn").</exception>
+    protected static void RequireLogLocationScale(double muLnMm, double sigmaLn)
+    {
+        if (!double.IsFinite(muLnMm))
+        {
+            throw new ArgumentOutOfRangeException(nameof(muLnMm), muLnMm, "μ (location in ln a, a in mm) must be finite.");
+        }
+
+        if (!double.IsFinite(sigmaLn) || sigmaLn <= 0)
+        {
+            throw new ArgumentOutOfRangeException(nameof(sigmaLn), sigmaLn, "σ (scale in ln a) must be finite and > 0.");
+        }
+    }
+
     /// <summary>Lower detection limit in mm (0 when there is none): PoD = 0 below it.</summary>
     public double LowerLimitMm { get; }
 

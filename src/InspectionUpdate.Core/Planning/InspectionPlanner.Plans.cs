@@ -120,7 +120,7 @@ public sealed partial class InspectionPlanner
         var verification = Verify(segments, request.Target, request.Options);
 
         // P(E_k): the probability of the existing evidence and the first k "no indication" findings.
-        var pe = curves.Select((c, k) => c.Cumulative(bounds[k]).EvidenceProbability).ToArray();
+        var pe = curves.Select((c, k) => c.EvidenceProbability(bounds[k])).ToArray();
         var available = pe.All(p => double.IsFinite(p) && p >= 0) && pe[0] > 0;
         var firstIndication = available ? Enumerable.Range(1, times.Count).Select(k => Math.Max(0, pe[k - 1] - pe[k]) / pe[0]).ToArray() : [];
         double? failure = null;
@@ -135,11 +135,11 @@ public sealed partial class InspectionPlanner
                 if (!(b > a)) continue;
                 // Steps of at most a year, so that discounting at each step's end is close to continuous.
                 var steps = Math.Max(1, (int)Math.Ceiling(b - a - 1e-9));
-                var previous = curves[k].Cumulative(a).CumulativePf;
+                var previous = curves[k].CumulativeFromRenewal(a);
                 for (var s = 1; s <= steps; s++)
                 {
                     var t = s == steps ? b : a + s * (b - a) / steps;
-                    var now = curves[k].Cumulative(t).CumulativePf;
+                    var now = curves[k].CumulativeFromRenewal(t);
                     var joint = Math.Max(0, now - previous) * pe[k] / pe[0];
                     failureProbability += joint;
                     failureDiscounted += joint * Discount(t);

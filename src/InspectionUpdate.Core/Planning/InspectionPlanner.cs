@@ -167,7 +167,7 @@ public sealed partial class InspectionPlanner
         {
             var cumulativeText = Invariant($"cumulative Pf ≤ {cl:0.0##E+000}");
             cumulative = Limit(request, cumulativeText,
-                CrossingSearch.Forward(t => curve.Cumulative(t).CumulativePf, cl, start, horizon, request.Options), start);
+                CrossingSearch.Forward(curve.CumulativeFromRenewal, cl, start, horizon, request.Options), start);
         }
 
         var message = Describe(annual, horizon, request) + (cumulative is null ? "" : " " + Describe(cumulative, horizon, request));
@@ -252,7 +252,7 @@ public sealed partial class InspectionPlanner
         var status = ScheduleStatus.Complete;
         var overdue = false;
         var stopReason = "";
-        var p0 = curve.Cumulative(start).EvidenceProbability;
+        var p0 = curve.EvidenceProbability(start);
         var branchProbabilitiesAvailable = double.IsFinite(p0) && p0 > 0;
         double? expectedRepairs = depth >= 1 && branchProbabilitiesAvailable ? 0 : null;
         var truncated = false;
@@ -304,14 +304,14 @@ public sealed partial class InspectionPlanner
 
             var number = inspections.Count + 1;
             var before = curve.Point(tk);
-            var pBefore = curve.Cumulative(tk).EvidenceProbability;
+            var pBefore = curve.EvidenceProbability(tk);
             var withFinding = new List<InspectionOutcome>(evidence)
             {
                 new NoIndication(tk, Invariant($"{referencePrefix}planned-{number}"), method),
             };
             var next = NewCurve(request, withFinding, log);
             var after = next.Point(tk);
-            var pAfter = next.Cumulative(tk).EvidenceProbability;
+            var pAfter = next.EvidenceProbability(tk);
 
             RepairBranch? branch = null;
             if (depth >= 1 && branchProbabilitiesAvailable && double.IsFinite(pBefore) && double.IsFinite(pAfter) && pBefore > 0)
@@ -356,12 +356,20 @@ public sealed partial class InspectionPlanner
             {
                 status = ScheduleStatus.Degenerate;
                 stopReason = Invariant($"Planned inspection {number} on {Iso(before.Date)} with {method.Name}, assumed to find nothing, leaves the annual {measureName} at {after.Value:0.0##E+000}, {after.Value / target.AnnualPf:0.0#} times the target: the method cannot bring the failure probability back under the target, so the intervals would collapse to zero. The schedule stops there; consider a better method, a repair or a different target.");
+                if (after.Value > before.Value)
+                {
+                    // Finding nothing cannot raise the failure probability of a monotone degradation with a
+                    // non-decreasing PoD: the estimate itself is suspect.
+                    stopReason += Invariant($" Note: the measure rose from {before.Value:0.0##E+000} to {after.Value:0.0##E+000} on a finding of nothing, which monotone degradation does not allow; check the updated estimate (route {after.Route}).");
+                    log.AddNote(Invariant($"t = {tk:0.###} years: the annual {measureName} rose after a planned no-indication finding ({before.Value:0.0##E+000} → {after.Value:0.0##E+000}, route {after.Route}); the updated estimate is suspect."));
+                }
+
                 break;
             }
         }
 
         var verification = Verify(segments, target, options);
-        var pEnd = curve.Cumulative(t0).EvidenceProbability;
+        var pEnd = curve.EvidenceProbability(t0);
         double? nothingFound = branchProbabilitiesAvailable && double.IsFinite(pEnd) ? pEnd / p0 : null;
         var coveredTo = segments.Count == 0 ? start : segments[^1].To;
         var summary = status switch
@@ -452,7 +460,7 @@ public sealed partial class InspectionPlanner
             request.Target.Measure == AnnualMeasure.Hazard
                 ? "Annual measure: the hazard ΔPf(t)/(1 − Pf(t − 1)) of the updated cumulative failure probability, over the year ending at t."
                 : "Annual measure: ΔPf(t) = Pf(t) − Pf(t − 1) of the updated cumulative failure probability, over the year ending at t.",
-            "In the first year after entry into service or after a repair the annual window starts at that time, not a year earlier.",
+            "In the first year after entry into service or after a repair the annual window starts at that time, with Pf = 0 there, not a year earlier.",
             Invariant($"Due dates are the last time still under the target: a scan every {options.ScanStepYears:0.###} years brackets the first crossing and regula falsi narrows it to {options.ToleranceYears:0.####} years ({options.ToleranceYears * ServiceTime.DaysPerYear:0.0#} days); a crossing that starts and ends between two scan points would be missed."),
             Invariant($"Evidence used: {request.Evidence.Count} finding(s) and repair(s) up to {request.LatestEvidenceYears:0.###} years; service time is counted from {Iso(request.InServiceDate)} in years of 365.2425 days."),
         };

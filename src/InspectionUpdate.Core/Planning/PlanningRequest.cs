@@ -13,7 +13,7 @@ public sealed record PlanningOptions
     public static PlanningOptions Default { get; } = new();
 
     /// <summary>
-    /// Spacing of the scan that brackets the first crossing before bisection refines it, in years (default 0.25).
+    /// Spacing of the scan that brackets the first crossing before regula falsi refines it, in years (default 0.25).
     /// A crossing that starts and ends between two scan points can be missed; a divisor of one year lets the scan
     /// reuse Pf(t − 1) from earlier points.
     /// </summary>

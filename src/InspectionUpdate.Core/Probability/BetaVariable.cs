@@ -159,16 +159,24 @@ public sealed class BetaVariable : RandomVariable
         var lnY0 = Math.Min((Math.Log(p) + Math.Log(a) + SpecialFunctions.BetaLn(a, b)) / a, -1e-3);
         if (lnY0 < -740) return Math.Exp(lnY0);
         var f = new LowerTail(a, b, Math.Log(p));
-        var lnY = RootFinder.SolveIncreasing(ref f, lnY0, 0.5, -745, 0, 1e-15);
+        var lnY = RootFinder.NewtonIncreasing(ref f, lnY0, 0.5, -745, 0, 1e-15);
         return double.IsNaN(lnY)
             ? throw new InvalidOperationException(FormattableString.Invariant(
                 $"Variable '{Name}': the inverse of the beta distribution (shapes {a:R}, {b:R}) found no root for probability {p:R}."))
             : Math.Exp(lnY);
     }
 
-    /// <summary>ln I_{e^t}(a, b) − ln p: increasing in t.</summary>
-    private readonly struct LowerTail(double a, double b, double lnP) : IScalarFunction
+    /// <summary>ln I_{e^t}(a, b) − ln p: increasing in t, with derivative y^a(1 − y)^(b−1)/(B(a, b)·I).</summary>
+    private readonly struct LowerTail(double a, double b, double lnP) : IDifferentiableFunction
     {
-        public double Evaluate(double t) => Math.Log(SpecialFunctions.BetaRegularized(a, b, Math.Exp(t))) - lnP;
+        private readonly double _lnBeta = SpecialFunctions.BetaLn(a, b);
+
+        public double Evaluate(double t, out double derivative)
+        {
+            var y = Math.Exp(t);
+            var i = SpecialFunctions.BetaRegularized(a, b, y);
+            derivative = Math.Exp(a * t + (b - 1) * ElementaryFunctions.Log1p(-y) - _lnBeta) / i;
+            return Math.Log(i) - lnP;
+        }
     }
 }

@@ -13,10 +13,13 @@ namespace InspectionUpdate.Probability;
 /// </remarks>
 public sealed class GammaVariable : RandomVariable
 {
+    private readonly IncompleteGamma _incomplete;
+
     private GammaVariable(string name, double shape, double rate) : base(name)
     {
         Shape = shape;
         Rate = rate;
+        _incomplete = new IncompleteGamma(shape);
     }
 
     /// <summary>Builds from shape k &gt; 0 and rate r &gt; 0 (1/units of x).</summary>
@@ -73,14 +76,14 @@ public sealed class GammaVariable : RandomVariable
         if (x < 0) return 0;
         if (x == 0) return Shape < 1 ? double.PositiveInfinity : (Shape == 1 ? Rate : 0);
         var y = Rate * x;
-        return Rate * Math.Exp((Shape - 1) * Math.Log(y) - y - SpecialFunctions.GammaLn(Shape));
+        return Rate * _incomplete.ScaledDensity(y) / y;
     }
 
     /// <inheritdoc />
-    public override double Cdf(double x) => x <= 0 ? 0 : IncompleteGamma.Lower(Shape, Rate * x);
+    public override double Cdf(double x) => x <= 0 ? 0 : _incomplete.Lower(Rate * x);
 
     /// <inheritdoc />
-    public override double Ccdf(double x) => x <= 0 ? 1 : IncompleteGamma.Upper(Shape, Rate * x);
+    public override double Ccdf(double x) => x <= 0 ? 1 : _incomplete.Upper(Rate * x);
 
     /// <inheritdoc />
     public override double InverseCdf(double p)
@@ -90,12 +93,15 @@ public sealed class GammaVariable : RandomVariable
         if (p == 1) return double.PositiveInfinity;
         if (p > 0.5) return InverseCcdf(1 - p);
 
-        // P(k, y) ≤ y^k/Γ(k + 1) for all y, so this y₀ lies at or below the root: a safe start.
-        var lnY0 = (Math.Log(p) + SpecialFunctions.GammaLn(Shape + 1)) / Shape;
+        // P(k, y) ≤ y^k/Γ(k + 1) for all y, so this y₀ lies at or below the root: a safe start, improved by the
+        // Wilson–Hilferty approximation where that is larger (it is good away from the far lower tail).
+        var lnY0 = (Math.Log(p) + _incomplete.LnGammaA + Math.Log(Shape)) / Shape;
         var lnMedianBound = Math.Log(Shape + 1); // the median lies below k + 1 for every shape
-        var f = new LowerTail(Shape, Math.Log(p));
         if (lnY0 < -740) return Math.Exp(lnY0) / Rate; // below the smallest double: P(k, y) = y^k/Γ(k + 1) there
-        var lnY = RootFinder.SolveIncreasing(ref f, Math.Min(lnY0, lnMedianBound), 0.5, -745, lnMedianBound, 1e-15);
+        var wh = WilsonHilferty(StandardNormal.InverseCdf(p));
+        var guess = Math.Min(double.IsNaN(wh) ? lnY0 : Math.Max(lnY0, wh), lnMedianBound);
+        var f = new LowerTail(_incomplete, Math.Log(p));
+        var lnY = RootFinder.NewtonIncreasing(ref f, guess, 0.5, -745, lnMedianBound, 1e-15);
         return Converged(lnY, p) / Rate;
     }
 
@@ -108,8 +114,9 @@ public sealed class GammaVariable : RandomVariable
         if (q > 0.5) return InverseCdf(1 - q);
 
         // The median exceeds k − 1/3 for k ≥ 1 and is positive always; start at the mean and search outward.
-        var f = new UpperTail(Shape, Math.Log(q));
-        var lnY = RootFinder.SolveIncreasing(ref f, Math.Log(Shape), 0.5, -745, 709, 1e-15);
+        var f = new UpperTail(_incomplete, Math.Log(q));
+        var wh = WilsonHilferty(StandardNormal.InverseCcdf(q));
+        var lnY = RootFinder.NewtonIncreasing(ref f, double.IsFinite(wh) ? Math.Max(wh, Math.Log(Shape) - 1) : Math.Log(Shape), 0.5, -745, 709, 1e-15);
         return Converged(lnY, q) / Rate;
     }
 
@@ -118,15 +125,37 @@ public sealed class GammaVariable : RandomVariable
             $"Variable '{Name}': the inverse of the gamma distribution (shape {Shape:R}) found no root for probability {probability:R}."))
         : Math.Exp(lnY);
 
-    /// <summary>ln P(k, e^t) − ln p: increasing in t.</summary>
-    private readonly struct LowerTail(double shape, double lnP) : IScalarFunction
+    /// <summary>
+    /// ln y of the Wilson–Hilferty approximation y ≈ k(1 − 1/(9k) + z/(3√k))³ (Wilson &amp; Hilferty 1931) for the
+    /// standard normal quantile z; NaN where the cube is not positive. Only a starting point for Newton's method.
+    /// </summary>
+    private double WilsonHilferty(double z)
     {
-        public double Evaluate(double t) => Math.Log(IncompleteGamma.Lower(shape, Math.Exp(t))) - lnP;
+        var c = 1 - 1 / (9 * Shape) + z / (3 * Math.Sqrt(Shape));
+        return c > 0 ? Math.Log(Shape) + 3 * Math.Log(c) : double.NaN;
     }
 
-    /// <summary>ln q − ln Q(k, e^t): increasing in t.</summary>
-    private readonly struct UpperTail(double shape, double lnQ) : IScalarFunction
+    /// <summary>ln P(k, e^t) − ln p: increasing in t, with derivative y·f(y)/P, f the unit-rate density.</summary>
+    private readonly struct LowerTail(IncompleteGamma incomplete, double lnP) : IDifferentiableFunction
     {
-        public double Evaluate(double t) => lnQ - Math.Log(IncompleteGamma.Upper(shape, Math.Exp(t)));
+        public double Evaluate(double t, out double derivative)
+        {
+            var y = Math.Exp(t);
+            var p = incomplete.Lower(y);
+            derivative = incomplete.ScaledDensity(y) / p;
+            return Math.Log(p) - lnP;
+        }
+    }
+
+    /// <summary>ln q − ln Q(k, e^t): increasing in t, with derivative y·f(y)/Q.</summary>
+    private readonly struct UpperTail(IncompleteGamma incomplete, double lnQ) : IDifferentiableFunction
+    {
+        public double Evaluate(double t, out double derivative)
+        {
+            var y = Math.Exp(t);
+            var q = incomplete.Upper(y);
+            derivative = incomplete.ScaledDensity(y) / q;
+            return lnQ - Math.Log(q);
+        }
     }
 }

@@ -146,7 +146,7 @@ public sealed class TruncatedNormalVariable : RandomVariable
         var f = new MassFromLower(_alpha, Math.Log(p * _mass));
         var width = _beta - _alpha;
         var guess = Math.Log(p * _mass / Math.Max(StandardNormal.Pdf(_alpha), 1e-300));
-        var lnD = RootFinder.SolveIncreasing(ref f, guess, 1, -745, double.IsFinite(width) ? Math.Log(width) : OpenSideLimit(Math.Abs(_alpha)), 1e-15);
+        var lnD = RootFinder.NewtonIncreasing(ref f, guess, 1, -745, double.IsFinite(width) ? Math.Log(width) : OpenSideLimit(Math.Abs(_alpha)), 1e-15);
         return Math.Min(Upper, Lower + Sigma * Converged(lnD, p));
     }
 
@@ -162,7 +162,7 @@ public sealed class TruncatedNormalVariable : RandomVariable
         var f = new MassToUpper(_beta, Math.Log(q * _mass));
         var width = _beta - _alpha;
         var guess = Math.Log(q * _mass / Math.Max(StandardNormal.Pdf(_beta), 1e-300));
-        var lnD = RootFinder.SolveIncreasing(ref f, guess, 1, -745, double.IsFinite(width) ? Math.Log(width) : OpenSideLimit(Math.Abs(_beta)), 1e-15);
+        var lnD = RootFinder.NewtonIncreasing(ref f, guess, 1, -745, double.IsFinite(width) ? Math.Log(width) : OpenSideLimit(Math.Abs(_beta)), 1e-15);
         return Math.Max(Lower, Upper - Sigma * Converged(lnD, q));
     }
 
@@ -285,15 +285,27 @@ public sealed class TruncatedNormalVariable : RandomVariable
         return final < 1e-9;
     }
 
-    /// <summary>ln ∫_α^{α + e^t} φ − ln target: increasing in t.</summary>
-    private readonly struct MassFromLower(double alpha, double lnTarget) : IScalarFunction
+    /// <summary>ln ∫_α^{α + e^t} φ − ln target: increasing in t, with derivative δφ(α + δ)/M.</summary>
+    private readonly struct MassFromLower(double alpha, double lnTarget) : IDifferentiableFunction
     {
-        public double Evaluate(double t) => Math.Log(NormalIntervalMass.FromLower(alpha, Math.Exp(t))) - lnTarget;
+        public double Evaluate(double t, out double derivative)
+        {
+            var d = Math.Exp(t);
+            var m = NormalIntervalMass.FromLower(alpha, d);
+            derivative = d * StandardNormal.Pdf(alpha + d) / m;
+            return Math.Log(m) - lnTarget;
+        }
     }
 
-    /// <summary>ln ∫_{β − e^t}^{β} φ − ln target: increasing in t.</summary>
-    private readonly struct MassToUpper(double beta, double lnTarget) : IScalarFunction
+    /// <summary>ln ∫_{β − e^t}^{β} φ − ln target: increasing in t, with derivative δφ(β − δ)/M.</summary>
+    private readonly struct MassToUpper(double beta, double lnTarget) : IDifferentiableFunction
     {
-        public double Evaluate(double t) => Math.Log(NormalIntervalMass.ToUpper(beta, Math.Exp(t))) - lnTarget;
+        public double Evaluate(double t, out double derivative)
+        {
+            var d = Math.Exp(t);
+            var m = NormalIntervalMass.ToUpper(beta, d);
+            derivative = d * StandardNormal.Pdf(beta - d) / m;
+            return Math.Log(m) - lnTarget;
+        }
     }
 }

@@ -14,9 +14,10 @@ namespace InspectionUpdate.Reliability;
 /// difference that steps outside the domain of g (non-finite value) is retried on the other side.
 /// </para>
 /// <para>
-/// Penalty: c = 2·max(‖u‖/‖∇G‖, ‖u + d‖) at each iteration, where ‖u + d‖ is the HL-RF estimate of |β|. The first
-/// term is the descent condition c &gt; ‖u‖/‖∇G‖ of Zhang &amp; Der Kiureghian (from memory); the second keeps
-/// c &gt; 0 at the origin and, being a distance in u, makes the merit independent of the units of g.
+/// Penalty: c = 2·max(‖u‖, ‖u + d‖)/‖∇G‖ at each iteration. The first term is the descent condition
+/// c &gt; ‖u‖/‖∇G‖ of Zhang &amp; Der Kiureghian (from memory); the second, the magnitude of the Lagrange multiplier
+/// of the linearized problem (‖u + d‖ is the HL-RF estimate of |β|), keeps c &gt; 0 at the origin. Both scale as
+/// u²/g, so the merit does not depend on the units of g.
 /// </para>
 /// <para>
 /// Convergence: |G(u)|/G_scale ≤ <see cref="FormOptions.LimitStateTolerance"/> and
@@ -40,12 +41,17 @@ public static class FormSolver
     /// <param name="problem">The random inputs, their transformation and the limit state.</param>
     /// <param name="options">Settings; null takes <see cref="FormOptions.Default"/>.</param>
     /// <exception cref="ArgumentOutOfRangeException">An option is out of range.</exception>
-    /// <exception cref="ArgumentException">The start point does not match the problem, or an analytic gradient was
-    /// requested from a limit state that has none.</exception>
+    /// <exception cref="ArgumentException">The problem has no random variables, the start point does not match the
+    /// problem, or an analytic gradient was requested from a limit state that has none.</exception>
     public static FormResult Solve(ReliabilityProblem problem, FormOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(problem);
         options ??= FormOptions.Default;
+        if (problem.Transformation.StandardDimension == 0)
+        {
+            throw new ArgumentException("The problem has no random variables (all inputs are deterministic): there is no reliability index to find.", nameof(problem));
+        }
+
         options.Validate(problem.Transformation.StandardDimension);
         if (options.Gradient == GradientMethod.Analytic && !problem.LimitState.HasGradient)
         {
@@ -174,7 +180,9 @@ public static class FormSolver
                 for (var i = 0; i < _n; i++) d[i] = factor * grad[i] - u[i];
 
                 var uNorm2 = Dot(u, u);
-                var c = PenaltyFactor * Math.Max(Math.Sqrt(uNorm2) / gradNorm, Math.Abs(factor) * gradNorm);
+                // |factor| = ‖u + d‖/‖∇G‖ is the multiplier of the linearized problem: c above it keeps d a descent
+                // direction even at the origin, where ‖u‖ = 0.
+                var c = PenaltyFactor * Math.Max(Math.Sqrt(uNorm2) / gradNorm, Math.Abs(factor));
                 var merit = 0.5 * uNorm2 + c * Math.Abs(g);
                 // Directional derivative of the merit along d: u·d + c·sign(G)·∇G·d with ∇G·d = −G.
                 var slope = Dot(u, d) - c * Math.Abs(g);

@@ -187,6 +187,31 @@ public sealed class EvidenceModel
         return x => Evaluate(model, map, x, local, margin: true);
     }
 
+    /// <summary>
+    /// <see cref="FailureFunction"/> as a limit state, with the model's analytic gradient where it has one
+    /// (<see cref="IDegradationMarginGradient"/>), scattered onto the augmented vector.
+    /// </summary>
+    public ILimitState FailureLimitState(string componentId, double timeYears)
+    {
+        var f = FailureFunction(componentId, timeYears);
+        var layout = LayoutOf(componentId);
+        var name = FormattableString.Invariant($"failure of {componentId} at {timeYears:0.###} y");
+        if (layout.Model is not IDegradationMarginGradient { HasMarginGradient: true } withGradient) return new LimitState(name, f);
+        var epoch = layout.EpochAt(timeYears);
+        var local = timeYears - epoch.StartYears;
+        var map = epoch.Map;
+        return new LimitState(name, f, (x, gradient) =>
+        {
+            Span<double> lx = map.Length <= 64 ? stackalloc double[map.Length] : new double[map.Length];
+            Span<double> lg = map.Length <= 64 ? stackalloc double[map.Length] : new double[map.Length];
+            for (var i = 0; i < map.Length; i++) lx[i] = x[map[i]];
+            var g = withGradient.MarginWithGradient(lx, local, lg);
+            gradient.Clear();
+            for (var i = 0; i < map.Length; i++) gradient[map[i]] += lg[i];
+            return g;
+        });
+    }
+
     /// <summary>Degradation size a(X, t) in mm of a component at time t, from the augmented (or input) vector.</summary>
     public double Size(string componentId, ReadOnlySpan<double> x, double timeYears)
     {

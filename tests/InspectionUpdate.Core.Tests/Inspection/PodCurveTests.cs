@@ -234,3 +234,23 @@ public class PodCurveTests
         Assert.Throws<ArgumentOutOfRangeException>("beta1", () => LogLogisticPod.FromLogOdds(1, -2));
     }
 }
+
+public class DetectableSizeInFormTests
+{
+    // With one input, FORM is exact: P(A_d ≤ a₀) = PoD(a₀), so β = −Φ⁻¹(PoD(a₀)) for the limit state g = A_d − a₀.
+    [Theory]
+    [InlineData(0.05)]
+    [InlineData(1.16)]
+    [InlineData(6.0)]
+    [Reference("Closed form: one-variable FORM is exact, β = −Φ⁻¹(P_f); the detectable size has CDF PoD (JCSS PMC Part 1, Annex B)")]
+    public void Form_on_the_detectable_size_reproduces_the_pod_in_both_tails(double sizeMm)
+    {
+        var pod = LogLogisticPod.FromMedianAndShape(1.16, 1.43);
+        var model = new InspectionUpdate.Probability.StochasticModel([pod.DetectableSize("Ad")]);
+        var problem = new InspectionUpdate.Reliability.ReliabilityProblem(model, new InspectionUpdate.Reliability.LimitState("Ad-a0", x => x[0] - sizeMm));
+        var result = InspectionUpdate.Reliability.FormSolver.Solve(problem);
+        Assert.True(result.Converged, result.Diagnostic);
+        var expected = -InspectionUpdate.Probability.StandardNormal.InverseCdf(pod.Evaluate(sizeMm));
+        Assert.Equal(expected, result.Beta, 1e-6);
+    }
+}

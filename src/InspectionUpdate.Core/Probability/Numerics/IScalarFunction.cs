@@ -9,3 +9,10 @@ internal interface IScalarFunction
     /// <summary>f(t).</summary>
     double Evaluate(double t);
 }
+
+/// <summary>A scalar function that also returns its derivative, for the safeguarded Newton iteration.</summary>
+internal interface IDifferentiableFunction
+{
+    /// <summary>f(t), with f′(t) in <paramref name="derivative"/>.</summary>
+    double Evaluate(double t, out double derivative);
+}

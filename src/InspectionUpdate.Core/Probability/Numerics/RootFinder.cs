@@ -144,4 +144,62 @@ internal static class RootFinder
 
         return Brent(ref f, lo, hi, fLo, fHi, tolerance);
     }
+    /// <summary>
+    /// The root of an increasing function f in [min, max] by Newton's method safeguarded with a bracket: a step that
+    /// leaves the current bracket is replaced by bisection once both signs have been seen, or by a doubling search
+    /// step before that. Converges quadratically from a fair guess; never leaves [min, max]. Returns NaN when no
+    /// sign change is found.
+    /// </summary>
+    public static double NewtonIncreasing<TF>(ref TF f, double guess, double initialStep, double min, double max, double tolerance = 0)
+        where TF : struct, IDifferentiableFunction
+    {
+        double lo = min, hi = max;
+        bool haveLo = false, haveHi = false;
+        var t = Math.Clamp(guess, min, max);
+        var step = initialStep;
+        for (var iteration = 0; iteration < 200; iteration++)
+        {
+            var value = f.Evaluate(t, out var slope);
+            if (double.IsNaN(value)) return double.NaN;
+            if (value == 0) return t;
+            if (value < 0)
+            {
+                lo = t;
+                haveLo = true;
+            }
+            else
+            {
+                hi = t;
+                haveHi = true;
+            }
+
+            var next = t - value / slope;
+            var newtonOk = double.IsFinite(next) && slope > 0 && next > lo && next < hi;
+            if (!newtonOk)
+            {
+                if (haveLo && haveHi)
+                {
+                    next = 0.5 * (lo + hi);
+                }
+                else if (value < 0)
+                {
+                    if (t >= max) return double.NaN;
+                    next = Math.Min(max, t + step);
+                    step *= 2;
+                }
+                else
+                {
+                    if (t <= min) return double.NaN;
+                    next = Math.Max(min, t - step);
+                    step *= 2;
+                }
+            }
+
+            var tol = tolerance + 4 * 2.220446049250313e-16 * Math.Abs(next);
+            if (Math.Abs(next - t) <= tol || (haveLo && haveHi && hi - lo <= tol)) return next;
+            t = next;
+        }
+
+        return t;
+    }
 }

@@ -8,9 +8,11 @@ internal sealed class EventFunction
 {
     private readonly IProbabilityTransformation _transformation;
     private readonly double[] _x;
+    private readonly ILimitState? _limitState;
 
-    public EventFunction(string name, bool isEquality, LimitStateFunction function, IProbabilityTransformation transformation)
+    public EventFunction(string name, bool isEquality, LimitStateFunction function, IProbabilityTransformation transformation, ILimitState? limitState = null)
     {
+        _limitState = limitState;
         Name = name;
         IsEquality = isEquality;
         Function = function;
@@ -53,6 +55,22 @@ internal sealed class EventFunction
         return h;
     }
 
+    /// <summary>h(u) and ∇ᵤh by forward differences (step 1e-6): cheaper, for the iterations of a search.</summary>
+    public double ValueAndForwardGradientAtU(double[] u, double[] gradient)
+    {
+        const double step = 1e-6;
+        var h = ValueAtU(u);
+        var work = (double[])u.Clone();
+        for (var i = 0; i < u.Length; i++)
+        {
+            work[i] = u[i] + step;
+            gradient[i] = (ValueAtU(work) - h) / step;
+            work[i] = u[i];
+        }
+
+        return h;
+    }
+
     /// <summary>Linearizes h at u: β = αᵀu + h(u)/‖∇h‖ (so that an on-surface point gives β = αᵀu).</summary>
     public LinearizedEvent LinearizeAt(double[] u, bool converged, string? diagnostic)
     {
@@ -83,7 +101,7 @@ internal sealed class EventFunction
     /// <summary>FORM on h (equality or inequality alike: the nearest point of h = 0), then the linearization there.</summary>
     public LinearizedEvent LinearizeAtDesignPoint(FormOptions options, IReadOnlyList<double>? start)
     {
-        var problem = new ReliabilityProblem(_transformation, new LimitState(Name, Function));
+        var problem = new ReliabilityProblem(_transformation, _limitState ?? new LimitState(Name, Function));
         var form = FormSolver.Solve(problem, start is null ? options : options with { StartPoint = start });
         var u = form.DesignPointU.ToArray();
         if (!form.Converged)

@@ -35,6 +35,8 @@ internal sealed class FirstOrderUpdater
     private int _evidenceEvaluations;
     private JointDesignPoint.Result? _denominatorPoint;
     private LinearizedEvent[]? _denominatorLinear;
+    private (double Value, double Error, string? Problem)? _individualDenominator;
+    private (double Value, double Error, string? Problem)? _jointDenominator;
     private readonly Dictionary<string, double[]> _jointWarm = new(StringComparer.Ordinal);
 
     public FirstOrderUpdater(EvidenceModel model, IProbabilityTransformation transformation, UpdatingOptions options)
@@ -51,8 +53,8 @@ internal sealed class FirstOrderUpdater
     {
         EnsureEvidence();
         var linear = _linear!;
-        var fn = new EventFunction(FormattableString.Invariant($"failure of {componentId} at {timeYears:0.###} y"), false,
-            _model.FailureFunction(componentId, timeYears), _transformation);
+        var limitState = _model.FailureLimitState(componentId, timeYears);
+        var fn = new EventFunction(limitState.Name, false, _model.FailureFunction(componentId, timeYears), _transformation, limitState);
         var failure = fn.LinearizeAtDesignPoint(_options.Form, warmStart);
         var flags = new List<string>(_evidenceFlags!);
         if (!failure.Converged) flags.Add($"FORM on the failure event did not converge: {failure.Diagnostic}");
@@ -66,7 +68,9 @@ internal sealed class FirstOrderUpdater
                 flags, failure, failure.Evaluations + fn.Evaluations, failure.Converged ? null : failure.Diagnostic);
         }
 
-        var individual = GaussianConditioning.Evaluate(failure, ineq, eq);
+        _individualDenominator ??= GaussianConditioning.Orthant(ineq, eq);
+        // The individual result only checks the joint one (10 % agreement): 1 % integration accuracy is enough.
+        var individual = GaussianConditioning.Evaluate(failure, ineq, eq, _individualDenominator, relativeError: 1e-2);
         flags.AddRange(NonlinearityFlags(fn, failure));
         var evaluations = fn.Evaluations + _evidenceEvaluations;
 
@@ -101,9 +105,9 @@ internal sealed class FirstOrderUpdater
         var denLin = _denominatorLinear;
         evaluations += all.Sum(f => f.Evaluations) - before;
         var fJoint = numLin[^1];
+        _jointDenominator ??= GaussianConditioning.Orthant(denLin.Where(l => !l.IsEquality).ToArray(), denLin.Where(l => l.IsEquality).ToArray());
         var joint = GaussianConditioning.Evaluate(fJoint,
-            numLin[..^1].Where(l => !l.IsEquality).ToArray(), numLin[..^1].Where(l => l.IsEquality).ToArray(),
-            denLin.Where(l => !l.IsEquality).ToArray(), denLin.Where(l => l.IsEquality).ToArray());
+            numLin[..^1].Where(l => !l.IsEquality).ToArray(), numLin[..^1].Where(l => l.IsEquality).ToArray(), _jointDenominator);
         if (joint.Problem is not null)
         {
             flags.Add("Joint linearization: " + joint.Problem);

@@ -1,3 +1,4 @@
+using InspectionUpdate.Reliability.Multinormal;
 using MathNet.Numerics.LinearAlgebra;
 
 namespace InspectionUpdate.Updating.FirstOrder;
@@ -5,7 +6,8 @@ namespace InspectionUpdate.Updating.FirstOrder;
 /// <summary>
 /// First-order updating on linearized events (Madsen 1987; DESIGN §3): with Z_i = −α_iᵀU, ρ_ij = α_iᵀα_j, the
 /// equalities fix Z_E = −β_E; the others are conditionally normal with mean R_OE R_EE⁻¹(−β_E) and covariance
-/// R_OO − R_OE R_EE⁻¹ R_EO, and P(F | I, E) = P(F ∩ I | E) / P(I | E) are multinormal orthant probabilities.
+/// R_OO − R_OE R_EE⁻¹ R_EO, and P(F | I, E) = P(F ∩ I | E) / P(I | E) are multinormal orthant probabilities
+/// (<see cref="MultivariateNormal.Cdf"/>).
 /// </summary>
 internal static class GaussianConditioning
 {
@@ -20,16 +22,17 @@ internal static class GaussianConditioning
     }
 
     /// <summary>P(F ∩ I | E) and P(I | E) with F, I, E linearized. <paramref name="failure"/> null gives P(I | E) twice.</summary>
+    /// <remarks><paramref name="denominator"/>, when given, is P(I | E) computed before (it does not depend on time).</remarks>
     public static Result Evaluate(LinearizedEvent? failure, IReadOnlyList<LinearizedEvent> inequalities, IReadOnlyList<LinearizedEvent> equalities,
-        IReadOnlyList<LinearizedEvent>? denominatorInequalities = null, IReadOnlyList<LinearizedEvent>? denominatorEqualities = null)
+        (double Value, double Error, string? Problem)? denominator = null, double relativeError = 5e-3)
     {
         var others = new List<LinearizedEvent>();
         if (failure is not null) others.Add(failure);
         others.AddRange(inequalities);
-        var (joint, e1, p1) = Orthant(others, equalities);
+        var (joint, e1, p1) = Orthant(others, equalities, relativeError);
         if (p1 is not null) return new Result(joint, double.NaN, double.NaN, p1);
         if (failure is null) return new Result(joint, joint, e1, null);
-        var (evidence, e2, p2) = Orthant(denominatorInequalities ?? inequalities, denominatorEqualities ?? equalities);
+        var (evidence, e2, p2) = denominator ?? Orthant(inequalities, equalities);
         if (p2 is not null) return new Result(joint, evidence, double.NaN, p2);
         if (!(evidence > 0))
         {
@@ -40,7 +43,8 @@ internal static class GaussianConditioning
         return new Result(joint, evidence, rel, null);
     }
 
-    private static (double Value, double Error, string? Problem) Orthant(IReadOnlyList<LinearizedEvent> ineq, IReadOnlyList<LinearizedEvent> eq)
+    /// <summary>P(Z_I ≤ −β_I | Z_E = −β_E) with its error, or the reason it cannot be computed.</summary>
+    public static (double Value, double Error, string? Problem) Orthant(IReadOnlyList<LinearizedEvent> ineq, IReadOnlyList<LinearizedEvent> eq, double relativeError = 5e-3)
     {
         var m = eq.Count;
         var n = ineq.Count;
@@ -99,8 +103,18 @@ internal static class GaussianConditioning
                 r[a, b] = a == b ? 1.0 : Math.Clamp(cov[keep[a], keep[b]] / Math.Sqrt(cov[keep[a], keep[a]] * cov[keep[b], keep[b]]), -1.0, 1.0);
             }
 
-        var (value, error) = InterimMultinormal.Cdf(limits.ToArray(), r);
-        return (value, error, null);
+        // Limits above 8.5 hold with probability above 1 − 1e-17: dropping them keeps the dimension down.
+        var kept = Enumerable.Range(0, limits.Count).Where(i => !(limits[i] > 8.5)).ToArray();
+        if (kept.Length == 0) return (1.0, 0.0, null);
+        var rk = new double[kept.Length, kept.Length];
+        for (var a = 0; a < kept.Length; a++)
+            for (var b = 0; b < kept.Length; b++) rk[a, b] = r[kept[a], kept[b]];
+        // Fixed seed (common random numbers): the lattice error is smooth in t, so ΔPf differences stay clean.
+        var options = new MultinormalOptions { RelativeTolerance = relativeError, AbsoluteTolerance = 1e-300, MaxEvaluations = 400_000 };
+        var result = MultivariateNormal.Cdf(kept.Select(i => limits[i]).ToArray(), rk, options);
+        return result.Converged || result.ErrorEstimate <= 0.05 * result.Value
+            ? (result.Value, result.ErrorEstimate, null)
+            : (result.Value, result.ErrorEstimate, "The multinormal integration did not reach its tolerance: " + result.Diagnostic);
     }
 
     internal static double Dot(IReadOnlyList<double> a, IReadOnlyList<double> b)

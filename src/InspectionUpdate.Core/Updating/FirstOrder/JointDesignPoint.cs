@@ -51,7 +51,7 @@ internal static class JointDesignPoint
                 var worst = 0.0;
                 for (var a = 0; a < idx.Length; a++)
                 {
-                    var h = functions[idx[a]].ValueAndGradientAtU(u, grad);
+                    var h = functions[idx[a]].ValueAndForwardGradientAtU(u, grad);
                     var norm = Math.Sqrt(grad.Sum(g => g * g));
                     if (!(norm > 0) || !double.IsFinite(h)) return new Result(u, false, $"'{functions[idx[a]].Name}' has no usable gradient at the joint design point.");
                     c[a] = h;
@@ -76,7 +76,7 @@ internal static class JointDesignPoint
                 var len = step.L2Norm();
                 if (len > MaxStep) step *= MaxStep / len;
                 for (var b = 0; b < d; b++) u[b] += step[b];
-                if (len < 1e-9 * Math.Max(1.0, uv.L2Norm()) && worst < 1e-8)
+                if (len < 1e-7 * Math.Max(1.0, uv.L2Norm()) && worst < 1e-7)
                 {
                     inner = true;
                     break;
@@ -109,9 +109,8 @@ internal static class JointDesignPoint
             for (var i = 0; i < k; i++)
             {
                 if (active[i] || functions[i].IsEquality) continue;
-                var h = functions[i].ValueAndGradientAtU(u, grad);
-                var norm = Math.Sqrt(grad.Sum(g => g * g));
-                if (h / Math.Max(norm, 1e-300) > 1e-7)
+                // A violated inequality joins; the tolerance is on h itself (event functions are O(1) to O(100)).
+                if (functions[i].ValueAtU(u) > 1e-9)
                 {
                     active[i] = true;
                     added = true;

@@ -103,7 +103,7 @@ internal sealed class LikelihoodImportanceSampler
 
         // Centre of the numerator's sampling density: the design point of g in posterior-whitened coordinates.
         var shifted = new ShiftedTransformation(_t, lap.Mean, lap.Lower);
-        var form = FormSolver.Solve(new ReliabilityProblem(shifted, new LimitState("failure", g)), _options.Form);
+        var form = FormSolver.Solve(new ReliabilityProblem(shifted, _model.FailureLimitState(componentId, timeYears)), _options.Form);
         evaluations += form.LimitStateEvaluations;
         double[]? centre = null;
         if (form.Converged && form.DesignPointU.All(double.IsFinite))

@@ -1,3 +1,4 @@
+using InspectionUpdate.Degradation;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Probability;
 using InspectionUpdate.Updating;
@@ -9,7 +10,7 @@ internal static class PlanningCases
 {
     public static readonly DateOnly InService = new(2000, 1, 1);
 
-    public static PlanningRequest Request(LogLinearGrowthModel model, double targetPf, double endYears = 40,
+    public static PlanningRequest Request(IDegradationModel model, double targetPf, double endYears = 40,
         IReadOnlyList<InspectionOutcome>? evidence = null, double? start = null,
         AnnualMeasure measure = AnnualMeasure.IntervalPf, PlanningOptions? options = null) => new()
         {
@@ -26,6 +27,6 @@ internal static class PlanningCases
     public static double WorkedPriorPf(double t) =>
         StandardNormal.Cdf((Math.Log(0.5) + 0.10 * t - Math.Log(20)) / Math.Sqrt(0.25 + 0.0004 * t * t));
 
-    /// <summary>Worked case prior ΔPf(t) = Pf(t) − Pf(t − 1), the window starting no earlier than 0.</summary>
-    public static double WorkedPriorIntervalPf(double t) => WorkedPriorPf(t) - WorkedPriorPf(Math.Max(0, t - 1));
+    /// <summary>Worked case prior ΔPf(t) = Pf(t) − Pf(t − 1); in the first year the window starts at entry into service with Pf = 0.</summary>
+    public static double WorkedPriorIntervalPf(double t) => WorkedPriorPf(t) - (t <= 1 ? 0 : WorkedPriorPf(t - 1));
 }

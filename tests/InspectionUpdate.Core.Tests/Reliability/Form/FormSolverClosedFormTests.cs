@@ -76,6 +76,35 @@ public class FormSolverClosedFormTests
         Assert.Equal(MathNet.Numerics.Distributions.Normal.CDF(0, 1, -expected), result.FailureProbability, 1e-6);
     }
 
+    // ln R, ln S are jointly normal with corr(ln R, ln S) = ρ₀ = ln(1 + ρ·V_R·V_S)/(ζ_R·ζ_S) (the exact Nataf fictive
+    // correlation of a lognormal pair), so β = (λR − λS)/√(ζR² + ζS² − 2ρ₀ζRζS) and FORM is exact (the surface is a plane).
+    [Theory]
+    [Reference("Liu & Der Kiureghian (1986), lognormal–lognormal fictive correlation (REFERENCES.md [memory, verified numerically]); exact β in log space")]
+    [InlineData(0.5)]
+    [InlineData(-0.4)]
+    [InlineData(0.9)]
+    public void Correlated_lognormal_pair_reproduces_the_exact_beta(double rho)
+    {
+        var r = LognormalVariable.FromMeanCov("R", 300, 0.15);
+        var s = LognormalVariable.FromMeanCov("S", 150, 0.35);
+        var corr = new CorrelationMatrix(new double[,] { { 1, rho }, { rho, 1 } });
+        var problem = new ReliabilityProblem(new StochasticModel([r, s], corr), new LimitState("R-S", x => x[0] - x[1]));
+        var result = FormSolver.Solve(problem);
+
+        var zr = Math.Sqrt(Math.Log(1 + 0.15 * 0.15));
+        var zs = Math.Sqrt(Math.Log(1 + 0.35 * 0.35));
+        var lr = Math.Log(300) - 0.5 * zr * zr;
+        var ls = Math.Log(150) - 0.5 * zs * zs;
+        var rho0 = Math.Log(1 + rho * 0.15 * 0.35) / (zr * zs);
+        var expected = (lr - ls) / Math.Sqrt(zr * zr + zs * zs - 2 * rho0 * zr * zs);
+        Assert.True(result.Converged, result.Diagnostic);
+        Assert.Equal(expected, result.Beta, 1e-6);
+        // In z = L₀u, ∇_z G ∝ (ζR, −ζS) at R = S, and γ ∝ L₀⁻ᵀα ∝ (−ζR, ζS): the importance vector ignores ρ.
+        var norm = Math.Sqrt(zr * zr + zs * zs);
+        Assert.Equal(-zr / norm, result.ImportanceVector![0], 1e-6);
+        Assert.Equal(zs / norm, result.ImportanceVector![1], 1e-6);
+    }
+
     // Correlated normals, g = a₀ + aᵀx: β = (a₀ + aᵀμ)/√(aᵀΣa) with Σ = DRD.
     [Fact]
     [Reference("Closed form: linear margin of correlated normals, β = E[g]/sd[g]")]

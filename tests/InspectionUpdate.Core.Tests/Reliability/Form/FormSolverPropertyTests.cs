@@ -97,11 +97,13 @@ public class FormSolverPropertyTests
             {
                 var mean = 50 + 50 * rng.NextDouble();
                 var cov = 0.1 + 0.3 * rng.NextDouble();
-                variables[i] = (i % 3) switch
+                variables[i] = rng.Next(5) switch
                 {
                     0 => new NormalVariable($"L{i}", mean, cov * mean),
                     1 => LognormalVariable.FromMeanCov($"L{i}", mean, cov),
-                    _ => new TestGumbelVariable($"L{i}", mean, cov),
+                    2 => GumbelVariable.FromMeanCov($"L{i}", mean, cov),
+                    3 => WeibullVariable.FromMeanCov($"L{i}", mean, cov),
+                    _ => GammaVariable.FromMeanCov($"L{i}", mean, cov),
                 };
             }
 
@@ -133,6 +135,48 @@ public class FormSolverPropertyTests
             {
                 Assert.True(Math.Abs(original.ImportanceFactors[i] - shuffled.ImportanceFactors[at[i]]) <= 1e-5, $"{label}: importance of {variables[i].Name}");
                 Assert.Equal(original.VariableNames[i], shuffled.VariableNames[at[i]]);
+            }
+        }
+    }
+
+    [Fact]
+    [Reference("Definition: β is invariant to the order of variables; for correlated inputs γ reorders with them (Der Kiureghian 2005, from memory)")]
+    public void Correlated_non_normal_beta_does_not_depend_on_the_order_of_variables()
+    {
+        var rng = new Random(13);
+        for (var c = 0; c < 10; c++)
+        {
+            RandomVariable[] variables =
+            [
+                LognormalVariable.FromMeanCov("R", 300, 0.08 + 0.1 * rng.NextDouble()),
+                GumbelVariable.FromMeanCov("S1", 80, 0.2 + 0.2 * rng.NextDouble()),
+                LognormalVariable.FromMeanCov("S2", 60, 0.2 + 0.2 * rng.NextDouble()),
+                WeibullVariable.FromMeanCov("M", 1.0, 0.1 + 0.1 * rng.NextDouble()),
+            ];
+            var r12 = 0.6 * rng.NextDouble();
+            var r23 = 0.6 * rng.NextDouble();
+            var corr = new double[,] { { 1, 0, 0, 0.3 }, { 0, 1, r12, 0 }, { 0, r12, 1, r23 }, { 0.3, 0, r23, 1 } };
+            double G(ReadOnlySpan<double> x, int[] at) => x[at[0]] * x[at[3]] - x[at[1]] - x[at[2]];
+            int[] identity = [0, 1, 2, 3];
+            var perm = identity.OrderBy(_ => rng.Next()).ToArray();
+            var at = new int[4];
+            for (var p = 0; p < 4; p++) at[perm[p]] = p;
+            var permuted = new double[4, 4];
+            for (var p = 0; p < 4; p++)
+                for (var q = 0; q < 4; q++) permuted[p, q] = corr[perm[p], perm[q]];
+
+            var original = FormSolver.Solve(new ReliabilityProblem(
+                new StochasticModel(variables, new CorrelationMatrix(corr)), new LimitState("g", x => G(x, identity))));
+            var shuffled = FormSolver.Solve(new ReliabilityProblem(
+                new StochasticModel(perm.Select(i => variables[i]).ToArray(), new CorrelationMatrix(permuted)),
+                new LimitState("g", x => G(x, at))));
+            var label = $"case {c}";
+            Assert.True(original.Converged, $"{label}: {original.Diagnostic}");
+            Assert.True(shuffled.Converged, $"{label}: {shuffled.Diagnostic}");
+            Assert.True(Math.Abs(original.Beta - shuffled.Beta) <= 1e-6, $"{label}: β {original.Beta:R} vs {shuffled.Beta:R}");
+            for (var i = 0; i < 4; i++)
+            {
+                Assert.True(Math.Abs(original.ImportanceFactors[i] - shuffled.ImportanceFactors[at[i]]) <= 1e-4, $"{label}: γ² of {variables[i].Name}");
             }
         }
     }

@@ -198,6 +198,24 @@ public class FormSolverRobustnessTests
         }
     }
 
+    public class Scale_invariance
+    {
+        [Theory]
+        [Reference("REFERENCES.md [derived]: g = X1·X2 − X3, β = 3.049073; k·g has the same failure domain")]
+        [InlineData(1e-6)]
+        [InlineData(1e6)]
+        public void Rescaling_the_limit_state_changes_neither_beta_nor_the_path(double k)
+        {
+            var baseProblem = FormTestModels.ProductOfNormals();
+            var scaled = new ReliabilityProblem(baseProblem.Transformation, new LimitState("k·g", x => k * (x[0] * x[1] - x[2])));
+            var a = FormSolver.Solve(baseProblem);
+            var b = FormSolver.Solve(scaled);
+            Assert.True(b.Converged, b.Diagnostic);
+            Assert.Equal(a.Beta, b.Beta, 1e-7);
+            Assert.Equal(a.Iterations, b.Iterations);
+        }
+    }
+
     public class Options
     {
         public static TheoryData<FormOptions, string> BadOptions => new()
@@ -219,6 +237,28 @@ public class FormSolverRobustnessTests
         {
             var ex = Assert.Throws<ArgumentOutOfRangeException>(() => FormSolver.Solve(FormTestModels.ProductOfNormals(), options));
             Assert.Equal(name, ex.ParamName);
+        }
+
+        [Fact]
+        public void Problem_without_random_variables_is_rejected()
+        {
+            var model = new StochasticModel([new DeterministicVariable("a", 2.0)]);
+            var ex = Assert.Throws<ArgumentException>(() => FormSolver.Solve(new ReliabilityProblem(model, new LimitState("g", x => x[0]))));
+            Assert.Equal("problem", ex.ParamName);
+        }
+
+        [Fact]
+        [Reference("Cornell (1969) with a deterministic offset: β = (μR − μS − d)/√(σR² + σS²)")]
+        public void Deterministic_inputs_take_part_in_x_but_not_in_u()
+        {
+            var model = new StochasticModel([new NormalVariable("R", 200, 20), new DeterministicVariable("d", 10), new NormalVariable("S", 100, 30)]);
+            var result = FormSolver.Solve(new ReliabilityProblem(model, new LimitState("R-d-S", x => x[0] - x[1] - x[2])));
+            Assert.True(result.Converged, result.Diagnostic);
+            Assert.Equal(90 / Math.Sqrt(1300), result.Beta, 1e-9);
+            Assert.Equal(2, result.DesignPointU.Count);
+            Assert.Equal(3, result.DesignPointX.Count);
+            Assert.Equal(10, result.DesignPointX[1]);
+            Assert.Equal(["R", "S"], result.VariableNames);
         }
 
         [Fact]

@@ -5,49 +5,31 @@ using MathNet.Numerics.Distributions;
 namespace InspectionUpdate.Tests.Reliability.Form;
 
 /// <summary>
-/// Gumbel (largest values) written out in the test from its closed form, F(x) = exp(−exp(−(x − μ₀)/b)),
-/// mean μ₀ + γ_E·b, standard deviation πb/√6 (Gumbel 1958; any statistics handbook). It keeps the nonlinear
-/// cases independent of the library's own distributions.
+/// The Gumbel (largest values) closed form written out in the test, F(x) = exp(−exp(−(x − u)/b)) (Gumbel 1958; any
+/// statistics handbook), so the reference computations do not depend on the library's own distribution.
 /// </summary>
-internal sealed class TestGumbelVariable : RandomVariable
+/// <param name="Location">Mode u.</param>
+/// <param name="Scale">Scale b.</param>
+internal readonly record struct GumbelClosedForm(double Location, double Scale)
 {
     private const double EulerGamma = 0.57721566490153286061;
 
-    public TestGumbelVariable(string name, double mean, double coefficientOfVariation) : base(name)
+    /// <summary>From mean and CoV: b = σ√6/π, u = μ − γ_E·b.</summary>
+    public static GumbelClosedForm FromMeanCov(double mean, double cov)
     {
-        Scale = mean * coefficientOfVariation * Math.Sqrt(6) / Math.PI;
-        Location = mean - EulerGamma * Scale;
+        var scale = mean * cov * Math.Sqrt(6) / Math.PI;
+        return new GumbelClosedForm(mean - EulerGamma * scale, scale);
     }
 
-    public double Location { get; }
+    /// <summary>1 − F(x) = −expm1(−exp(−z)), with Kahan's expm1 so the upper tail keeps its digits.</summary>
+    public double Ccdf(double x) => -Expm1(-Math.Exp(-(x - Location) / Scale));
 
-    public double Scale { get; }
-
-    public override string Family => "Gumbel (test)";
-
-    public override double Mean => Location + EulerGamma * Scale;
-
-    public override double StandardDeviation => Math.PI * Scale / Math.Sqrt(6);
-
-    public override double Pdf(double x)
+    private static double Expm1(double x)
     {
-        var z = (x - Location) / Scale;
-        return Math.Exp(-z - Math.Exp(-z)) / Scale;
-    }
-
-    public override double Cdf(double x) => Math.Exp(-Math.Exp(-(x - Location) / Scale));
-
-    public override double Ccdf(double x) => -MathNet.Numerics.SpecialFunctions.Expm1(-Math.Exp(-(x - Location) / Scale));
-
-    public override double InverseCdf(double p) => Location - Scale * Math.Log(-Math.Log(p));
-
-    // −ln(1 − q) = −log1p(−q), with Goldberg's log1p so tiny q keep their digits.
-    public override double InverseCcdf(double q) => Location - Scale * Math.Log(-Log1p(-q));
-
-    private static double Log1p(double x)
-    {
-        var y = 1 + x;
-        return y == 1 ? x : Math.Log(y) * x / (y - 1);
+        var e = Math.Exp(x);
+        if (e == 1.0) return x;
+        var em1 = e - 1.0;
+        return em1 == -1.0 ? -1.0 : em1 * x / Math.Log(e);
     }
 }
 
@@ -111,11 +93,11 @@ internal static class FormTestModels
             -9, 9, -9, 9, 256);
 
     /// <summary>R ~ LN(mean 300, CoV 0.1), S ~ Gumbel-max(mean 150, CoV 0.3), g = R − S (REFERENCES.md).</summary>
-    public static ReliabilityProblem LognormalMinusGumbel(out LognormalVariable r, out TestGumbelVariable s)
+    public static ReliabilityProblem LognormalMinusGumbel(out LognormalVariable r, out GumbelClosedForm s)
     {
         r = LognormalVariable.FromMeanCov("R", 300, 0.1);
-        s = new TestGumbelVariable("S", 150, 0.3);
-        return new ReliabilityProblem(new StochasticModel([r, s]), new LimitState("R-S", x => x[0] - x[1]));
+        s = GumbelClosedForm.FromMeanCov(150, 0.3);
+        return new ReliabilityProblem(new StochasticModel([r, GumbelVariable.FromMeanCov("S", 150, 0.3)]), new LimitState("R-S", x => x[0] - x[1]));
     }
 
     /// <summary>
@@ -123,42 +105,39 @@ internal static class FormTestModels
     /// (mean 150, CoV 0.3) (load): an invented case whose product X1·X2 is lognormal with λ = λ1 + λ2 and
     /// ζ = √(ζ1² + ζ2²), so the exact Pf and the FORM design point reduce to one dimension.
     /// </summary>
-    public static ReliabilityProblem LognormalProductMinusGumbel(out LognormalVariable x1, out LognormalVariable x2, out TestGumbelVariable s)
+    public static ReliabilityProblem LognormalProductMinusGumbel(out LognormalVariable x1, out LognormalVariable x2, out GumbelClosedForm s)
     {
         x1 = LognormalVariable.FromMeanCov("X1", 1.0, 0.1);
         x2 = LognormalVariable.FromMeanCov("X2", 400, 0.08);
-        s = new TestGumbelVariable("S", 150, 0.3);
-        return new ReliabilityProblem(new StochasticModel([x1, x2, s]), new LimitState("X1*X2-S", x => x[0] * x[1] - x[2]));
+        s = GumbelClosedForm.FromMeanCov(150, 0.3);
+        return new ReliabilityProblem(
+            new StochasticModel([x1, x2, GumbelVariable.FromMeanCov("S", 150, 0.3)]), new LimitState("X1*X2-S", x => x[0] * x[1] - x[2]));
     }
 
     /// <summary>
     /// Exact P(exp(λ + ζT) ≤ S), T ~ N(0, 1), by one-dimensional Gauss–Legendre integration (order 1024) of
     /// φ(t)·Q_S(exp(λ + ζt)) over [−12, 12]; the integrand is smooth and negligible outside.
     /// </summary>
-    public static double LognormalBelowGumbelExactPf(double lambda, double zeta, TestGumbelVariable s) =>
+    public static double LognormalBelowGumbelExactPf(double lambda, double zeta, GumbelClosedForm s) =>
         MathNet.Numerics.Integrate.GaussLegendre(
-            t => Normal.PDF(0, 1, t) * GumbelCcdf(s, Math.Exp(lambda + zeta * t)), -12, 12, 1024);
+            t => Normal.PDF(0, 1, t) * s.Ccdf(Math.Exp(lambda + zeta * t)), -12, 12, 1024);
 
     /// <summary>
     /// The FORM β of the same problem by direct one-dimensional minimization: on the limit-state surface
     /// exp(λ + ζt) = s the Gumbel coordinate is u_S(t) = Φ⁻¹(F_S(exp(λ + ζt))), and β² = min_t t² + u_S(t)².
     /// Returns β and the minimizing t.
     /// </summary>
-    public static (double Beta, double T) LognormalBelowGumbelFormBeta(double lambda, double zeta, TestGumbelVariable s)
+    public static (double Beta, double T) LognormalBelowGumbelFormBeta(double lambda, double zeta, GumbelClosedForm s)
     {
         double Objective(double t)
         {
-            var us = UpperTailInvPhi(GumbelCcdf(s, Math.Exp(lambda + zeta * t)));
+            var us = UpperTailInvPhi(s.Ccdf(Math.Exp(lambda + zeta * t)));
             return t * t + us * us;
         }
 
         var t = MathNet.Numerics.FindMinimum.OfScalarFunctionConstrained(Objective, -8, 2, 1e-12, 10_000);
         return (Math.Sqrt(Objective(t)), t);
     }
-
-    /// <summary>Q_S(x) = 1 − exp(−exp(−z)) written with expm1 so the upper tail keeps its digits.</summary>
-    public static double GumbelCcdf(TestGumbelVariable s, double x) =>
-        -MathNet.Numerics.SpecialFunctions.Expm1(-Math.Exp(-(x - s.Location) / s.Scale));
 
     /// <summary>u with Q(u) = q.</summary>
     public static double UpperTailInvPhi(double q) => -InvPhi(q);

@@ -1,0 +1,118 @@
+using InspectionUpdate.Degradation;
+using InspectionUpdate.Inspection;
+using InspectionUpdate.Planning;
+using InspectionUpdate.Reliability;
+using InspectionUpdate.Time;
+using InspectionUpdate.TimeVariant;
+using InspectionUpdate.Updating;
+
+namespace InspectionUpdate.Cli.Engine;
+
+/// <summary>What to assess: one component's model and its evidence, with the dates that place it in time.</summary>
+/// <param name="ComponentId">Component identifier.</param>
+/// <param name="Model">The degradation model (time in years since entry into service).</param>
+/// <param name="InServiceDate">Date of entry into service (time zero).</param>
+/// <param name="AsOf">Evidence date: findings after it are left out by the caller.</param>
+/// <param name="Evidence">Findings and repairs up to <paramref name="AsOf"/>, in time order.</param>
+/// <param name="HorizonYears">Profile horizon and end of service life, years since entry into service.</param>
+/// <param name="StepsPerYear">Grid steps per year (1 gives annual failure probabilities).</param>
+/// <param name="Route">Updating route: automatic (first order, simulation where first order is unreliable), first order only, or simulation only.</param>
+internal sealed record AssessmentRequest(string ComponentId, IDegradationModel Model, DateOnly InServiceDate, DateOnly AsOf,
+    IReadOnlyList<InspectionOutcome> Evidence, double HorizonYears, int StepsPerYear, UpdatingRoute Route = UpdatingRoute.Auto)
+{
+    /// <summary>Years from entry into service to the evidence date.</summary>
+    public double AsOfYears => ServiceTime.YearsSince(InServiceDate, AsOf);
+}
+
+/// <summary>The profiles of one assessment and what they rest on.</summary>
+/// <param name="Prior">Profile without inspection evidence.</param>
+/// <param name="Updated">Profile given the evidence; null when there is none.</param>
+/// <param name="Posterior">Posterior summary of the inputs; null without evidence or when the sampler failed (see <paramref name="PosteriorNote"/>).</param>
+/// <param name="PosteriorNote">Why the posterior is missing, or null.</param>
+internal sealed record AssessmentOutcome(ReliabilityProfile Prior, ReliabilityProfile? Updated, PosteriorSummary? Posterior, string? PosteriorNote)
+{
+    /// <summary>The profile that describes the component now: updated when there is evidence, else the prior.</summary>
+    public ReliabilityProfile Current => Updated ?? Prior;
+
+    /// <summary>True when every number of both profiles converged.</summary>
+    public bool AllConverged => Prior.AllConverged && (Updated?.AllConverged ?? true);
+}
+
+/// <summary>The plan of one component.</summary>
+/// <param name="Next">Latest date of the next inspection.</param>
+/// <param name="Schedule">Life-cycle schedule with the planned method (each planned inspection assumed to find nothing).</param>
+/// <param name="RemainingLife">Remaining life without further inspection.</param>
+internal sealed record PlanOutcome(NextInspection Next, InspectionSchedule? Schedule, RemainingLife RemainingLife)
+{
+    /// <summary>True when every estimate behind the plan converged.</summary>
+    public bool AllConverged => Next.Computation.AllConverged && (Schedule?.Computation.AllConverged ?? true) && RemainingLife.Computation.AllConverged;
+}
+
+/// <summary>
+/// Runs the engine for the CLI: the prior profile by time-stepped FORM, the updated profile and posterior by the
+/// updater, and the plan by the planner. It only orchestrates; every number comes from the core.
+/// </summary>
+internal static class ComponentAssessment
+{
+    private static readonly Dictionary<UpdatingRoute, ReliabilityUpdater> Updaters = Enum.GetValues<UpdatingRoute>()
+        .ToDictionary(r => r, r => new ReliabilityUpdater(UpdatingOptions.Default with { Route = r }));
+
+    /// <summary>The updater of a route (default seeded options of the updating layer).</summary>
+    public static ReliabilityUpdater Updater(UpdatingRoute route) => Updaters[route];
+
+    /// <summary>Prior and updated profiles on a grid from the first step to the horizon.</summary>
+    public static AssessmentOutcome Assess(AssessmentRequest request, Action<double> progress)
+    {
+        ArgumentNullException.ThrowIfNull(request);
+        var grid = TimeGrid.Yearly(request.HorizonYears, request.StepsPerYear);
+        var prior = TimeVariantReliability.Profile(request.Model, grid, ProfileOptions.Default with
+        {
+            Label = "prior",
+            Fallback = new ImportanceSamplingFallback(),
+        });
+        progress(request.Evidence.Count == 0 ? 1.0 : 0.4);
+        if (request.Evidence.Count == 0) return new AssessmentOutcome(prior, null, null, "no findings: the prior stands");
+
+        var session = Updater(request.Route).Prepare(request.Model, request.Evidence);
+        var label = $"updated with {request.Evidence.Count} record(s) to {request.AsOf:yyyy-MM-dd}";
+        var updated = session.Profile(UpdatingCase.SingleComponentId, grid.TimesYears, label);
+        progress(0.8);
+        PosteriorSummary? posterior = null;
+        string? note = null;
+        try
+        {
+            posterior = session.Posterior();
+        }
+        catch (InvalidOperationException e)
+        {
+            note = "posterior not computed: " + e.Message;
+        }
+
+        progress(1.0);
+        return new AssessmentOutcome(prior, updated, posterior, note);
+    }
+
+    /// <summary>Next inspection, schedule and remaining life against <paramref name="target"/>.</summary>
+    public static PlanOutcome Plan(AssessmentRequest request, AnnualTarget target, InspectionMethod? method, Action<double> progress)
+    {
+        ArgumentNullException.ThrowIfNull(request);
+        ArgumentNullException.ThrowIfNull(target);
+        var planner = new InspectionPlanner(Updater(request.Route));
+        var planning = new PlanningRequest
+        {
+            Model = request.Model,
+            Evidence = request.Evidence,
+            InServiceDate = request.InServiceDate,
+            Target = target,
+            EndOfServiceYears = request.HorizonYears,
+            StartTimeYears = Math.Clamp(request.AsOfYears, 0, request.HorizonYears),
+        };
+        var next = planner.NextInspection(planning);
+        progress(0.3);
+        var life = planner.RemainingLife(planning);
+        progress(0.5);
+        var schedule = method is null ? null : planner.Schedule(planning, method);
+        progress(1.0);
+        return new PlanOutcome(next, schedule, life);
+    }
+}
