@@ -45,8 +45,9 @@ public class FormBenchmarks
     public FormResult Analytic_gradient() => FormSolver.Solve(_analytic);
 
     /// <summary>
-    /// An invented member check: resistance R = f_y·Z·m·exp(−0.05·c) (yield stress, section modulus, model factor,
-    /// corrosion allowance) against load effects Σ aᵢ·Lᵢ with two products of loads; 6 or 10 inputs, all non-normal.
+    /// An invented member check: resistance R = f_y·Z·m·exp(−0.05·c) (yield stress, section modulus and model factor
+    /// lognormal, corrosion allowance Weibull) against the load effect 2.5·(Σ Lᵢ + 0.01·L₄L₅ [+ 0.01·L₆L₇]) with
+    /// Gumbel, Weibull and lognormal loads; 6 or 10 inputs, all non-normal.
     /// </summary>
     internal static ReliabilityProblem Problem(int n, bool correlated, bool analytic)
     {
@@ -55,9 +56,20 @@ public class FormBenchmarks
             LognormalVariable.FromMeanCov("fy", 355, 0.07),
             LognormalVariable.FromMeanCov("Z", 1.0, 0.05),
             LognormalVariable.FromMeanCov("m", 1.0, 0.1),
-            LognormalVariable.FromMeanCov("c", 2.0, 0.5),
+            WeibullVariable.FromMeanCov("c", 2.0, 0.5),
         };
-        for (var i = vars.Count; i < n; i++) vars.Add(LognormalVariable.FromMeanCov($"L{i}", 60.0 / (n - 4), 0.2 + 0.02 * i));
+        // Loads: Gumbel, Gumbel, Weibull, Gumbel, lognormal, Weibull, in that order.
+        for (var i = vars.Count; i < n; i++)
+        {
+            var mean = 60.0 / (n - 4);
+            var cov = 0.2 + 0.02 * i;
+            vars.Add((i - 4) switch
+            {
+                0 or 1 or 3 => GumbelVariable.FromMeanCov($"L{i}", mean, cov),
+                4 => LognormalVariable.FromMeanCov($"L{i}", mean, cov),
+                _ => WeibullVariable.FromMeanCov($"L{i}", mean, cov),
+            });
+        }
 
         CorrelationMatrix? corr = null;
         if (correlated)

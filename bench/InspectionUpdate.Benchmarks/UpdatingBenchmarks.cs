@@ -18,7 +18,7 @@ public class UpdatingBenchmarks
     private CrackGrowthModel _model = null!;
     private InspectionOutcome[] _evidence = null!;
     private double[] _years = null!;
-    private ReliabilityUpdater _updater = null!;
+    private UpdatingOptions _options = null!;
 
     /// <summary>An invented weld-toe crack: one-stage Paris law, constant amplitude, closed form.</summary>
     public static CrackGrowthModel CrackModel() => new(new StochasticModel([
@@ -54,12 +54,12 @@ public class UpdatingBenchmarks
         _model = CrackModel();
         _evidence = Findings();
         _years = Enumerable.Range(1, 50).Select(y => (double)y).ToArray();
-        _updater = new ReliabilityUpdater(new UpdatingOptions { Route = UpdatingRoute.FirstOrder });
+        _options = new UpdatingOptions { Route = UpdatingRoute.FirstOrder };
     }
 
-    /// <summary>The whole updated profile, evidence linearization included.</summary>
+    /// <summary>The whole updated profile, evidence linearization included (a new updater, so no cached session).</summary>
     [Benchmark]
-    public ReliabilityProfile UpdatedProfile50YearsFirstOrder() => _updater.Profile(_model, _evidence, _years, "updated");
+    public ReliabilityProfile UpdatedProfile50YearsFirstOrder() => new ReliabilityUpdater(_options).Profile(_model, _evidence, _years, "updated");
 
     /// <summary>A point mass, for the fixed inputs of the benchmark model.</summary>
     private sealed class Fixed(string name, double value) : RandomVariable(name)

@@ -2,7 +2,8 @@ using System.Globalization;
 using InspectionUpdate.Register;
 
 // Commands (all paths absolute):
-//   add-findings <register> <component> <method> <count> <tag>   one transaction per finding; prints "done <count>"
+//   add-findings <register> <component> <method> <count> <tag>   prints "ready", waits for the file <register>.go, then
+//                                                               writes one transaction per finding; prints "done <count>"
 //   import-and-hang <register> <csv> <hangAtRow>                  prints "hanging" inside the import transaction, then blocks
 if (args.Length < 1)
 {
@@ -17,10 +18,29 @@ switch (args[0])
         {
             var count = int.Parse(args[4], CultureInfo.InvariantCulture);
             var start = new DateOnly(2020, 1, 1);
+            // A start barrier, so the writers really overlap instead of one finishing before the other has started.
+            Console.WriteLine("ready");
+            Console.Out.Flush();
+            var deadline = DateTime.UtcNow.AddMinutes(2);
+            while (!File.Exists(args[1] + ".go"))
+            {
+                if (DateTime.UtcNow > deadline)
+                {
+                    Console.Error.WriteLine("no start signal");
+                    return 3;
+                }
+
+                Thread.Sleep(5);
+            }
+
             for (var i = 0; i < count; i++)
             {
                 var finding = new NewFinding(args[2], start.AddDays(i), FindingKind.NoIndication, args[3], Location: $"{args[5]}-{i}");
                 store.AddFinding(finding, args[5], "concurrent writer test").Require();
+
+                // A short pause between transactions, as between two users' writes: SQLite's lock is not fair, and a
+                // writer looping without pause can hold it for long runs.
+                Thread.Sleep(2);
             }
 
             Console.WriteLine($"done {count}");

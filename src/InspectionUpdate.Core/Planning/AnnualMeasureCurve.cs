@@ -108,7 +108,16 @@ internal sealed class AnnualMeasureCurve
             Route = now.Route,
             Converged = now.Converged && (before?.Converged ?? true) && double.IsFinite(interval),
             CoefficientOfVariation = now.CoefficientOfVariation,
+            IntervalPfCoefficientOfVariation = IntervalCov(interval, now, before),
         };
+    }
+
+    private static double? IntervalCov(double interval, UpdatedEstimate now, UpdatedEstimate? before)
+    {
+        if (now.CoefficientOfVariation is null && before?.CoefficientOfVariation is null) return null;
+        var a = (now.CoefficientOfVariation ?? 0) * now.CumulativePf;
+        var b = before is null ? 0 : (before.CoefficientOfVariation ?? 0) * before.CumulativePf;
+        return interval == 0 ? double.PositiveInfinity : Math.Sqrt(a * a + b * b) / Math.Abs(interval);
     }
 
     // Scan points reached by repeated addition and t − 1 differ in the last bits; 1e-8 years (0.3 s) is one key.

@@ -46,4 +46,12 @@ public sealed record AnnualValue
 
     /// <summary>Coefficient of variation of the simulated Pf(t), null for first-order or exact routes.</summary>
     public double? CoefficientOfVariation { get; init; }
+
+    /// <summary>
+    /// Coefficient of variation of <see cref="IntervalPf"/> when either Pf is simulated, treating the two estimates
+    /// as independent: √((V_t·Pf(t))² + (V_s·Pf(s))²)/|ΔPf|. A difference of two simulated probabilities can be far
+    /// less precise than either; above about 0.3 the annual number, and a date found from it, is noise-dominated.
+    /// Null when neither estimate is simulated.
+    /// </summary>
+    public double? IntervalPfCoefficientOfVariation { get; init; }
 }

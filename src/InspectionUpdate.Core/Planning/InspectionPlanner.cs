@@ -356,6 +356,14 @@ public sealed partial class InspectionPlanner
             {
                 status = ScheduleStatus.Degenerate;
                 stopReason = Invariant($"Planned inspection {number} on {Iso(before.Date)} with {method.Name}, assumed to find nothing, leaves the annual {measureName} at {after.Value:0.0##E+000}, {after.Value / target.AnnualPf:0.0#} times the target: the method cannot bring the failure probability back under the target, so the intervals would collapse to zero. The schedule stops there; consider a better method, a repair or a different target.");
+                if (after.Value > before.Value)
+                {
+                    // Finding nothing cannot raise the failure probability of a monotone degradation with a
+                    // non-decreasing PoD: the estimate itself is suspect.
+                    stopReason += Invariant($" Note: the measure rose from {before.Value:0.0##E+000} to {after.Value:0.0##E+000} on a finding of nothing, which monotone degradation does not allow; check the updated estimate (route {after.Route}).");
+                    log.AddNote(Invariant($"t = {tk:0.###} years: the annual {measureName} rose after a planned no-indication finding ({before.Value:0.0##E+000} → {after.Value:0.0##E+000}, route {after.Route}); the updated estimate is suspect."));
+                }
+
                 break;
             }
         }

@@ -41,12 +41,17 @@ public static class FormSolver
     /// <param name="problem">The random inputs, their transformation and the limit state.</param>
     /// <param name="options">Settings; null takes <see cref="FormOptions.Default"/>.</param>
     /// <exception cref="ArgumentOutOfRangeException">An option is out of range.</exception>
-    /// <exception cref="ArgumentException">The start point does not match the problem, or an analytic gradient was
-    /// requested from a limit state that has none.</exception>
+    /// <exception cref="ArgumentException">The problem has no random variables, the start point does not match the
+    /// problem, or an analytic gradient was requested from a limit state that has none.</exception>
     public static FormResult Solve(ReliabilityProblem problem, FormOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(problem);
         options ??= FormOptions.Default;
+        if (problem.Transformation.StandardDimension == 0)
+        {
+            throw new ArgumentException("The problem has no random variables (all inputs are deterministic): there is no reliability index to find.", nameof(problem));
+        }
+
         options.Validate(problem.Transformation.StandardDimension);
         if (options.Gradient == GradientMethod.Analytic && !problem.LimitState.HasGradient)
         {

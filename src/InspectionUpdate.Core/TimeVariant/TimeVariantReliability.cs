@@ -178,15 +178,16 @@ public static class TimeVariantReliability
         }
 
         // A deterministic annual maximum makes the yearly events nested under monotone degradation: the union is the last year's event.
-        var engine = uIndex < 0 ? NestedEventsEngine.Instance : options.SeriesEngine ?? UnionBoundsEngine.Instance;
+        var engine = uIndex < 0 ? NestedEventsEngine.Instance : options.SeriesEngine ?? MultinormalSeriesEngine.Instance;
         var stepper = new FormStepper(model, transformation, options with { Fallback = null });
         var lastYear = (int)Math.Round(grid.TimesYears[^1]);
         var yearTimes = Enumerable.Range(1, lastYear).Select(y => (double)y).ToArray();
         var yearly = Sweep(stepper, yearTimes, options).ToList();
         long total = yearly.Sum(y => (long)y.Evaluations);
 
+        var unions = CumulativeUnions(yearly, uIndex, engine);
         var startYear = (int)Math.Round(grid.StartYears);
-        var startPf = startYear > 0 ? Union(yearly, startYear, uIndex, engine).Probability : 0.0;
+        var startPf = startYear > 0 ? unions[startYear - 1].Probability : 0.0;
         var points = new List<ProfilePoint>();
         var forms = new List<FormResult>();
         var previous = startPf;
@@ -194,7 +195,7 @@ public static class TimeVariantReliability
         foreach (var t in grid.TimesYears)
         {
             var year = (int)Math.Round(t);
-            var union = Union(yearly, year, uIndex, engine);
+            var union = unions[year - 1];
             var own = yearly[year - 1];
             var allConverged = union.Converged && yearly.Take(year).All(y => y.Form.Converged);
             var evaluations = yearly.Skip(previousYear).Take(year - previousYear).Sum(y => y.Evaluations);
@@ -274,8 +275,10 @@ public static class TimeVariantReliability
         return outcomes;
     }
 
-    private static SeriesEstimate Union(List<StepOutcome> yearly, int years, int renewedU, ISeriesSystemEngine engine)
+    private static IReadOnlyList<SeriesEstimate> CumulativeUnions(List<StepOutcome> yearly, int renewedU, ISeriesSystemEngine engine)
     {
+        // ρᵢⱼ over the shared inputs only: each year's maximum is an independent variable of its own.
+        var years = yearly.Count;
         var betas = new double[years];
         var r = new double[years, years];
         for (var i = 0; i < years; i++)
@@ -297,7 +300,7 @@ public static class TimeVariantReliability
             }
         }
 
-        return engine.Union(betas, r);
+        return engine.CumulativeUnions(betas, r);
     }
 
     private static ProfilePoint MakePoint(double t, double pf, double previousPf, ComputationRoute route, bool converged, int evaluations,

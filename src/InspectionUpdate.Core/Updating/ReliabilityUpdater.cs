@@ -13,7 +13,9 @@ namespace InspectionUpdate.Updating;
 /// </summary>
 /// <remarks>
 /// Every estimate carries its route, its convergence and, when simulated, its CoV. Results support, and never
-/// replace, engineering judgement. Immutable and thread-safe; the work is done in an <see cref="UpdatingSession"/>.
+/// replace, engineering judgement. Thread-safe; the work is done in an <see cref="UpdatingSession"/>. The
+/// <see cref="IReliabilityUpdater"/> methods keep the last few sessions (same model instance, equal findings), so a
+/// planner that asks for many times on one set of findings pays for linearizing the findings once.
 /// </remarks>
 public sealed class ReliabilityUpdater : IReliabilityUpdater
 {
@@ -25,6 +27,10 @@ public sealed class ReliabilityUpdater : IReliabilityUpdater
         options.Validate();
         Options = options;
     }
+
+    private const int CachedSessions = 8;
+    private readonly Lock _cacheGate = new();
+    private readonly LinkedList<(IDegradationModel Model, InspectionOutcome[] Evidence, UpdatingSession Session)> _recent = new();
 
     /// <summary>The settings.</summary>
     public UpdatingOptions Options { get; }
@@ -46,12 +52,39 @@ public sealed class ReliabilityUpdater : IReliabilityUpdater
 
     /// <inheritdoc />
     public UpdatedEstimate Estimate(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, double timeYears) =>
-        Prepare(model, evidence).Estimate(UpdatingCase.SingleComponentId, timeYears);
+        Cached(model, evidence).Estimate(UpdatingCase.SingleComponentId, timeYears);
 
     /// <inheritdoc />
     public ReliabilityProfile Profile(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, IReadOnlyList<double> timesYears, string label) =>
-        Prepare(model, evidence).Profile(UpdatingCase.SingleComponentId, timesYears, label);
+        Cached(model, evidence).Profile(UpdatingCase.SingleComponentId, timesYears, label);
 
     /// <summary>Posterior summaries of a single component's inputs given its findings.</summary>
-    public PosteriorSummary Posterior(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence) => Prepare(model, evidence).Posterior();
+    public PosteriorSummary Posterior(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence) => Cached(model, evidence).Posterior();
+
+    private UpdatingSession Cached(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence)
+    {
+        ArgumentNullException.ThrowIfNull(model);
+        ArgumentNullException.ThrowIfNull(evidence);
+        lock (_cacheGate)
+        {
+            for (var node = _recent.First; node is not null; node = node.Next)
+            {
+                if (ReferenceEquals(node.Value.Model, model) && node.Value.Evidence.SequenceEqual(evidence))
+                {
+                    _recent.Remove(node);
+                    _recent.AddFirst(node);
+                    return node.Value.Session;
+                }
+            }
+        }
+
+        var session = Prepare(model, evidence);
+        lock (_cacheGate)
+        {
+            _recent.AddFirst((model, evidence.ToArray(), session));
+            while (_recent.Count > CachedSessions) _recent.RemoveLast();
+        }
+
+        return session;
+    }
 }

@@ -83,7 +83,7 @@ public class ComponentModelDefinitionTests
         string[] expected =
         [
             "$.name", "$.serviceLife_years", "$.colour", "$.mechanism.growthLaw", "$.mechanism.leakFraction",
-            "$.inputs.wallThickness_mm.standardDeviation", "$.inputs.rate_mmPerYear", "$.inputs.diameter_mm",
+            "$.inputs.wallThickness_mm.sd", "$.inputs.rate_mmPerYear", "$.inputs.diameter_mm",
             "$.inputs.tensileStrength_MPa.family", "$.inputs.corrosionRate", "$.correlations[0].between", "$.correlations[1].rho",
         ];
         foreach (var e in expected) Assert.Contains(e, paths);
@@ -91,7 +91,7 @@ public class ComponentModelDefinitionTests
         Assert.Contains(result.Problems, p => p.Path == "$.inputs" && p.Message.Contains("'defectLength_mm'"));
         // Values are quoted as written.
         Assert.Contains(result.Problems, p => p.Path == "$.mechanism.growthLaw" && p.Value == "\"cubic\"" && p.Message.Contains("linear, powerLaw"));
-        Assert.Contains(result.Problems, p => p.Path == "$.inputs.wallThickness_mm.standardDeviation" && p.Value == "-0.2");
+        Assert.Contains(result.Problems, p => p.Path == "$.inputs.wallThickness_mm.sd" && p.Value == "-0.2");
         Assert.True(result.Problems.Count >= expected.Length);
     }
 
@@ -110,7 +110,7 @@ public class ComponentModelDefinitionTests
             {
               "schemaVersion": 1, "name": "x", "serviceLife_years": 10,
               "mechanism": { "type": "expression", "limitState": "R - S * factr" },
-              "inputs": { "R": { "family": "Normal", "mean": 10, "standardDeviation": 1 }, "S": 5 }
+              "inputs": { "R": { "family": "Normal", "mean": 10, "sd": 1 }, "S": 5 }
             }
             """;
         var result = ComponentModelDefinition.Parse(json);
@@ -127,7 +127,7 @@ public class ComponentModelDefinitionTests
             {
               "schemaVersion": 1, "name": "corr", "serviceLife_years": 10,
               "mechanism": { "type": "expression", "limitState": "R - S" },
-              "inputs": { "R": { "family": "Normal", "mean": 10, "standardDeviation": 1 }, "S": { "family": "Normal", "mean": 5, "cov": 0.2 } },
+              "inputs": { "R": { "family": "Normal", "mean": 10, "sd": 1 }, "S": { "family": "Normal", "mean": 5, "cov": 0.2 } },
               "correlations": [ { "between": ["R", "S"], "rho": 0.4 } ]
             }
             """;

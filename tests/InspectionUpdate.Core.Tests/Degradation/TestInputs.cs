@@ -2,24 +2,6 @@ using InspectionUpdate.Probability;
 
 namespace InspectionUpdate.Tests.Degradation;
 
-/// <summary>A point mass for tests until the probability layer's deterministic variable is used.</summary>
-internal sealed class FixedValue(string name, double value) : RandomVariable(name)
-{
-    public override string Family => "Deterministic";
-
-    public override double Mean => value;
-
-    public override double StandardDeviation => 0;
-
-    public override bool IsDeterministic => true;
-
-    public override double Pdf(double x) => x == value ? double.PositiveInfinity : 0;
-
-    public override double Cdf(double x) => x >= value ? 1 : 0;
-
-    public override double InverseCdf(double p) => value;
-}
-
 internal static class TestInputs
 {
     public static StochasticModel Model(params RandomVariable[] variables) => new(variables);
@@ -28,7 +10,7 @@ internal static class TestInputs
 
     public static NormalVariable N(string name, double mean, double sd) => new(name, mean, sd);
 
-    public static FixedValue D(string name, double value) => new(name, value);
+    public static DeterministicVariable D(string name, double value) => new(name, value);
 
     /// <summary>x at the means (deterministic values included).</summary>
     public static double[] Means(StochasticModel model) => model.Variables.Select(v => v.Mean).ToArray();

@@ -69,6 +69,8 @@ public class InspectionScheduleTests
         Assert.Equal(ScheduleStatus.Degenerate, schedule.Status);
         Assert.Single(schedule.Inspections);
         Assert.Contains("cannot bring the failure probability back under the target", schedule.Message, StringComparison.Ordinal);
+        Assert.Contains("rose", schedule.Message, StringComparison.Ordinal);
+        Assert.Contains(schedule.Computation.Notes, n => n.Contains("suspect", StringComparison.Ordinal));
     }
 
     [Fact]

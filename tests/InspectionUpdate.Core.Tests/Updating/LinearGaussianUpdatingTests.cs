@@ -170,4 +170,20 @@ public class LinearGaussianUpdatingTests
         var without = updater.Estimate(Model(), [s1, s2], 20);
         Assert.NotEqual(without.CumulativePf, a.CumulativePf);
     }
+
+    [Fact]
+    [Reference("Independent computation in the test: a fresh updater and a reused one give the same number")]
+    public void Repeated_estimates_on_equal_findings_reuse_the_session_and_agree_with_a_fresh_updater()
+    {
+        var updater = new ReliabilityUpdater();
+        var first = updater.Estimate(Model(), Evidence(), 20);
+        var again = updater.Estimate(Model(), Evidence(), 20); // new list and model instance: a new session
+        var model = Model();
+        var evidence = Evidence();
+        var a = updater.Estimate(model, evidence, 18);
+        var b = updater.Estimate(model, evidence.ToList(), 20); // same model instance, equal findings: cached
+        Assert.Equal(first.CumulativePf, again.CumulativePf, 12);
+        Assert.Equal(first.CumulativePf, b.CumulativePf, 9);
+        Assert.True(a.CumulativePf < b.CumulativePf);
+    }
 }

@@ -38,9 +38,12 @@ public class MultiProcessTests
     public async Task Two_processes_writing_at_once_lose_nothing()
     {
         using var r = new TestRegister();
-        const int perProcess = 150;
+        const int perProcess = 100;
         using var a = StartChild("add-findings", r.Path, TestRegister.Component, TestRegister.Ut, perProcess.ToString(System.Globalization.CultureInfo.InvariantCulture), "alpha");
         using var b = StartChild("add-findings", r.Path, TestRegister.Component, TestRegister.Ut, perProcess.ToString(System.Globalization.CultureInfo.InvariantCulture), "beta");
+        Assert.Equal("ready", await a.StandardOutput.ReadLineAsync().WaitAsync(TimeSpan.FromMinutes(2)));
+        Assert.Equal("ready", await b.StandardOutput.ReadLineAsync().WaitAsync(TimeSpan.FromMinutes(2)));
+        File.WriteAllText(r.Path + ".go", "");
         // The parent writes too, to the sister component, while both children run.
         for (var i = 0; i < 50; i++)
         {
@@ -58,6 +61,11 @@ public class MultiProcessTests
         Assert.Equal(2 * perProcess + 50, r.Count("finding"));
         Assert.Equal(2 * perProcess + 50, r.Count("finding_revision"));
         Assert.True(r.Store.Check().IsHealthy);
+
+        // The test is only worth something if the writers overlapped: their findings' ids must interleave.
+        var order = r.Store.Findings(r.ComponentId).OrderBy(f => f.FindingId).Select(f => f.Location[0]).ToList();
+        var switches = order.Zip(order.Skip(1)).Count(p => p.First != p.Second);
+        Assert.True(switches >= 10, $"the two writers did not overlap (owner changed {switches} times)");
     }
 
     [Fact]

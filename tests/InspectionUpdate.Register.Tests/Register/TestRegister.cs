@@ -69,7 +69,7 @@ internal sealed class TestRegister : IDisposable
     public static void Delete(string path)
     {
         SqliteConnection.ClearAllPools();
-        foreach (var suffix in new[] { "", "-wal", "-shm", "-journal" })
+        foreach (var suffix in new[] { "", "-wal", "-shm", "-journal", ".go", ".csv" })
         {
             File.Delete(path + suffix);
         }

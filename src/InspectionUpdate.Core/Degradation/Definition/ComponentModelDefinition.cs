@@ -144,7 +144,7 @@ public sealed class ComponentModelDefinition
     /// <exception cref="ArgumentException">The inputs do not fit the mechanism (cannot happen for a definition that parsed as valid).</exception>
     public IDegradationModel Build()
     {
-        var variables = Inputs.Select(i => InputDistributions.Create(i.Name, i.Family, i.Parameters)).ToArray();
+        var variables = Inputs.Select(i => RandomVariableFactory.Create(i.Name, i.Family, i.Parameters)).ToArray();
         CorrelationMatrix? correlation = null;
         if (Correlations.Count > 0)
         {
@@ -468,14 +468,17 @@ public sealed class ComponentModelDefinition
                 if (spec is null) continue;
                 try
                 {
-                    InputDistributions.Create(spec.Name, spec.Family, spec.Parameters);
+                    RandomVariableFactory.Create(spec.Name, spec.Family, spec.Parameters);
                     list.Add(spec);
                 }
                 catch (ArgumentException e)
                 {
                     var param = e.ParamName;
-                    var at = param is not null && spec.Parameters.ContainsKey(param) ? $"{path}.{param}" : param == "family" ? $"{path}.family" : path;
-                    var value = param is not null && spec.Parameters.TryGetValue(param, out var pv) ? pv.ToString("R", CultureInfo.InvariantCulture) : null;
+                    // The variable constructors name the standard deviation in full; the file calls it "sd".
+                    var wanted = param == "standardDeviation" ? "sd" : param;
+                    var key = wanted is null ? null : spec.Parameters.Keys.FirstOrDefault(k => string.Equals(k, wanted, StringComparison.OrdinalIgnoreCase));
+                    var at = key is not null ? $"{path}.{key}" : param == "family" ? $"{path}.family" : path;
+                    var value = key is not null ? spec.Parameters[key].ToString("R", CultureInfo.InvariantCulture) : param == "family" ? spec.Family : null;
                     Add(at, value, WithoutParameterSuffix(e));
                 }
             }
@@ -578,7 +581,7 @@ public sealed class ComponentModelDefinition
             {
                 foreach (var n in new[] { c.First, c.Second })
                 {
-                    if (inputs?.FirstOrDefault(s => s.Name == n) is { Family: "Deterministic" }) Add("$.correlations", n, "a deterministic input cannot be correlated");
+                    if (inputs?.FirstOrDefault(s => s.Name == n) is { } spec && string.Equals(spec.Family, "Deterministic", StringComparison.OrdinalIgnoreCase)) Add("$.correlations", n, "a deterministic input cannot be correlated");
                 }
             }
 

@@ -1,3 +1,4 @@
+using InspectionUpdate.Reliability.Multinormal;
 using MathNet.Numerics.LinearAlgebra;
 
 namespace InspectionUpdate.Updating.FirstOrder;
@@ -5,7 +6,8 @@ namespace InspectionUpdate.Updating.FirstOrder;
 /// <summary>
 /// First-order updating on linearized events (Madsen 1987; DESIGN §3): with Z_i = −α_iᵀU, ρ_ij = α_iᵀα_j, the
 /// equalities fix Z_E = −β_E; the others are conditionally normal with mean R_OE R_EE⁻¹(−β_E) and covariance
-/// R_OO − R_OE R_EE⁻¹ R_EO, and P(F | I, E) = P(F ∩ I | E) / P(I | E) are multinormal orthant probabilities.
+/// R_OO − R_OE R_EE⁻¹ R_EO, and P(F | I, E) = P(F ∩ I | E) / P(I | E) are multinormal orthant probabilities
+/// (<see cref="MultivariateNormal.Cdf"/>).
 /// </summary>
 internal static class GaussianConditioning
 {
@@ -101,8 +103,18 @@ internal static class GaussianConditioning
                 r[a, b] = a == b ? 1.0 : Math.Clamp(cov[keep[a], keep[b]] / Math.Sqrt(cov[keep[a], keep[a]] * cov[keep[b], keep[b]]), -1.0, 1.0);
             }
 
-        var (value, error) = InterimMultinormal.Cdf(limits.ToArray(), r, relativeError);
-        return (value, error, null);
+        // Limits above 8.5 hold with probability above 1 − 1e-17: dropping them keeps the dimension down.
+        var kept = Enumerable.Range(0, limits.Count).Where(i => !(limits[i] > 8.5)).ToArray();
+        if (kept.Length == 0) return (1.0, 0.0, null);
+        var rk = new double[kept.Length, kept.Length];
+        for (var a = 0; a < kept.Length; a++)
+            for (var b = 0; b < kept.Length; b++) rk[a, b] = r[kept[a], kept[b]];
+        // Fixed seed (common random numbers): the lattice error is smooth in t, so ΔPf differences stay clean.
+        var options = new MultinormalOptions { RelativeTolerance = relativeError, AbsoluteTolerance = 1e-300, MaxEvaluations = 400_000 };
+        var result = MultivariateNormal.Cdf(kept.Select(i => limits[i]).ToArray(), rk, options);
+        return result.Converged || result.ErrorEstimate <= 0.05 * result.Value
+            ? (result.Value, result.ErrorEstimate, null)
+            : (result.Value, result.ErrorEstimate, "The multinormal integration did not reach its tolerance: " + result.Diagnostic);
     }
 
     internal static double Dot(IReadOnlyList<double> a, IReadOnlyList<double> b)

@@ -1,3 +1,4 @@
+using InspectionUpdate.Degradation;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Probability;
 using InspectionUpdate.Updating;
@@ -9,7 +10,7 @@ internal static class PlanningCases
 {
     public static readonly DateOnly InService = new(2000, 1, 1);
 
-    public static PlanningRequest Request(LogLinearGrowthModel model, double targetPf, double endYears = 40,
+    public static PlanningRequest Request(IDegradationModel model, double targetPf, double endYears = 40,
         IReadOnlyList<InspectionOutcome>? evidence = null, double? start = null,
         AnnualMeasure measure = AnnualMeasure.IntervalPf, PlanningOptions? options = null) => new()
         {

@@ -240,6 +240,28 @@ public class FormSolverRobustnessTests
         }
 
         [Fact]
+        public void Problem_without_random_variables_is_rejected()
+        {
+            var model = new StochasticModel([new DeterministicVariable("a", 2.0)]);
+            var ex = Assert.Throws<ArgumentException>(() => FormSolver.Solve(new ReliabilityProblem(model, new LimitState("g", x => x[0]))));
+            Assert.Equal("problem", ex.ParamName);
+        }
+
+        [Fact]
+        [Reference("Cornell (1969) with a deterministic offset: β = (μR − μS − d)/√(σR² + σS²)")]
+        public void Deterministic_inputs_take_part_in_x_but_not_in_u()
+        {
+            var model = new StochasticModel([new NormalVariable("R", 200, 20), new DeterministicVariable("d", 10), new NormalVariable("S", 100, 30)]);
+            var result = FormSolver.Solve(new ReliabilityProblem(model, new LimitState("R-d-S", x => x[0] - x[1] - x[2])));
+            Assert.True(result.Converged, result.Diagnostic);
+            Assert.Equal(90 / Math.Sqrt(1300), result.Beta, 1e-9);
+            Assert.Equal(2, result.DesignPointU.Count);
+            Assert.Equal(3, result.DesignPointX.Count);
+            Assert.Equal(10, result.DesignPointX[1]);
+            Assert.Equal(["R", "S"], result.VariableNames);
+        }
+
+        [Fact]
         [Reference("Closed form: Cornell (1969)")]
         public void Zero_iterations_reports_the_linearization_at_the_start_point()
         {
