@@ -115,8 +115,8 @@ public static class CliApp
         {
             if (args[i] == value && args[i - 1].StartsWith('-'))
             {
-                var kind = message.EndsWith("Double.", StringComparison.Ordinal) ? "a number"
-                    : message.EndsWith("Int32.", StringComparison.Ordinal) ? "a whole number" : "of the expected type";
+                var kind = message.Contains("Double", StringComparison.Ordinal) ? "a number"
+                    : message.Contains("Int32", StringComparison.Ordinal) ? "a whole number" : "of the expected type";
                 return $"{args[i - 1]} '{value}' is not {kind}.";
             }
         }

@@ -24,6 +24,17 @@ public class AssessSettings : RegisterSettings
     [Description("Findings file (CSV) for --model; default: <model>.findings.csv beside the model when it exists.")]
     public string? Findings { get; init; }
 
+    /// <summary>Date of entry into service for --model.</summary>
+    [CommandOption("--in-service <DATE>")]
+    [Description("With --model: the date the component entered service (needed when there are findings).")]
+    public string? InService { get; init; }
+
+    /// <summary>Updating route.</summary>
+    [CommandOption("--route <ROUTE>")]
+    [Description("Updating route: auto (first order, simulation where first order is unreliable), first-order or simulation.")]
+    [DefaultValue("auto")]
+    public string Route { get; init; } = "auto";
+
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
     [Description("Use findings up to this date (ISO 8601); default today.")]
@@ -31,9 +42,11 @@ public class AssessSettings : RegisterSettings
 
     /// <summary>Profile horizon.</summary>
     [CommandOption("--horizon-years <YEARS>")]
-    [Description("Profile horizon in years of service.")]
-    [DefaultValue(40.0)]
-    public double HorizonYears { get; init; } = 40;
+    [Description("Profile horizon and end of service in years since entry into service (default: the model's service life, else 40).")]
+    public double? HorizonYears { get; init; }
+
+    /// <summary>The horizon: the option, else the model's service life, else 40 years.</summary>
+    public double Horizon(double? serviceLifeYears) => HorizonYears ?? serviceLifeYears ?? 40;
 
     /// <summary>Grid steps per year.</summary>
     [CommandOption("--steps-per-year <N>")]
@@ -46,9 +59,9 @@ public class AssessSettings : RegisterSettings
     {
         if (Model is null && Component is null) return ValidationResult.Error("Name a COMPONENT of the register or give --model FILE.");
         if (Model is not null && Component is not null) return ValidationResult.Error($"Give either COMPONENT '{Component}' or --model '{Model}', not both.");
-        if (!(HorizonYears > 0) || !double.IsFinite(HorizonYears)) return ValidationResult.Error($"--horizon-years '{HorizonYears.ToString(CultureInfo.InvariantCulture)}' must be a positive number of years.");
+        if (HorizonYears is { } h && (!(h > 0) || !double.IsFinite(h))) return ValidationResult.Error($"--horizon-years '{HorizonYears?.ToString(CultureInfo.InvariantCulture)}' must be a positive number of years.");
         if (StepsPerYear is < 1 or > 12) return ValidationResult.Error($"--steps-per-year '{StepsPerYear.ToString(CultureInfo.InvariantCulture)}' must be a whole number from 1 to 12.");
-        if (HorizonYears > 200) return ValidationResult.Error($"--horizon-years '{HorizonYears.ToString(CultureInfo.InvariantCulture)}' is more than 200 years of service.");
+        if (HorizonYears is > 200) return ValidationResult.Error($"--horizon-years '{HorizonYears?.ToString(CultureInfo.InvariantCulture)}' is more than 200 years of service.");
         if (AsOf is not null && !DateOnly.TryParseExact(AsOf, "yyyy-MM-dd", CultureInfo.InvariantCulture, DateTimeStyles.None, out _))
         {
             return ValidationResult.Error($"--as-of '{AsOf}' is not an ISO 8601 date (yyyy-MM-dd).");
@@ -79,6 +92,11 @@ public sealed class PlanSettings : AssessSettings
     [CommandOption("--method <METHOD>")]
     [Description("Inspection method assumed for the planned inspections (default: the last one used).")]
     public string? Method { get; init; }
+
+    /// <summary>Skip the life-cycle schedule.</summary>
+    [CommandOption("--no-schedule")]
+    [Description("Only the next inspection and the remaining life, no life-cycle schedule (faster).")]
+    public bool NoSchedule { get; init; }
 
     /// <inheritdoc />
     public override ValidationResult Validate()

@@ -1,5 +1,8 @@
 using System.ComponentModel;
+using System.Globalization;
+using InspectionUpdate.Cli.Engine;
 using InspectionUpdate.Cli.Infrastructure;
+using InspectionUpdate.Planning;
 using Spectre.Console.Cli;
 
 namespace InspectionUpdate.Cli.Commands;
@@ -9,7 +12,7 @@ public sealed class ReportSettings : RegisterSettings
 {
     /// <summary>Only this component.</summary>
     [CommandArgument(0, "[COMPONENT]")]
-    [Description("Only this component (default: every component and the register report).")]
+    [Description("Only this component (default: every component).")]
     public string? Component { get; init; }
 
     /// <summary>Output folder.</summary>
@@ -20,7 +23,7 @@ public sealed class ReportSettings : RegisterSettings
 
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
-    [Description("Use findings up to this date (ISO 8601); default today.")]
+    [Description("Use the register as known on this date (ISO 8601); default today.")]
     public string? AsOf { get; init; }
 
     /// <summary>Target.</summary>
@@ -28,12 +31,69 @@ public sealed class ReportSettings : RegisterSettings
     [Description("Target annual failure probability for plans and ranking.")]
     [DefaultValue(1e-4)]
     public double TargetAnnualPf { get; init; } = 1e-4;
+
+    /// <summary>Include schedules.</summary>
+    [CommandOption("--schedule")]
+    [Description("Also compute each component's life-cycle schedule (slower).")]
+    public bool Schedule { get; init; }
+
+    /// <summary>Updating route.</summary>
+    [CommandOption("--route <ROUTE>")]
+    [Description("Updating route: auto, first-order or simulation.")]
+    [DefaultValue("auto")]
+    public string Route { get; init; } = "auto";
 }
 
 /// <summary>Writes reports.</summary>
 public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(host)
 {
     /// <inheritdoc />
-    protected override int Run(ReportSettings settings, CancellationToken cancellation) =>
-        throw CliException.NotAvailable("the register (issue 5), component models (issue 4) and the updater (issue 5) have not landed.");
+    protected override int Run(ReportSettings settings, CancellationToken cancellation)
+    {
+        if (!(settings.TargetAnnualPf > 0 && settings.TargetAnnualPf < 1)) throw CliException.BadInput("--target-annual-pf", settings.TargetAnnualPf, "must be a probability strictly between 0 and 1.");
+        var asOf = settings.AsOf is null ? Host.Today() : RegisterAccess.Date("--as-of", settings.AsOf);
+        var registerPath = settings.RegisterPath(Host);
+        var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null);
+        var result = Produce(Host, registerPath, settings.Component, Host.Resolve(settings.Out), options, settings.Json, Path.GetFileNameWithoutExtension(registerPath));
+        if (settings.Json) WriteJson(result.Document);
+        else
+        {
+            Summary(result.Document);
+            Line($"Report: {result.Document.PortfolioReport}");
+            Caution();
+        }
+
+        return result.ExitCode;
+    }
+
+    /// <summary>Runs the report over a register; shared with demo.</summary>
+    internal static (ReportDocument Document, int ExitCode) Produce(CliHost host, string registerPath, string? only, string folder, ReportRunOptions options, bool quiet, string title)
+    {
+        using var store = RegisterAccess.Open(host, registerPath);
+        var known = RegisterAccess.AsKnownOn(options.AsOf);
+        var components = only is null ? store.Components(known) : [RegisterAccess.Component(store, only, known)];
+        var fingerprint = store.Fingerprint(known);
+        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(store, c, options.AsOf))).ToArray();
+        var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
+        var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, []);
+        var rows = runs.Select(r => new ReportRow(r.ComponentId,
+            r.Outcome is null || r.Request is null ? null : ComponentStudy.Current(r.Outcome.Current, r.Request.AsOfYears)?.AnnualPf,
+            r.Plan?.Next.Date, r.Plan?.RemainingLife.UntilAnnualTarget.RemainingYears, r.AllConverged, r.Error,
+            r.Context is null ? null : Path.Combine(folder, ReportRun.Safe(r.ComponentId) + ".html"))).ToArray();
+        var code = runs.Any(r => r.Error is not null) ? ExitCodes.BadInput : runs.All(r => r.AllConverged) ? ExitCodes.Ok : ExitCodes.NotConverged;
+        return (new ReportDocument(folder, index, fingerprint, options.AsOf, options.Target.AnnualPf, rows, Reporting.Cautions.Line), code);
+    }
+
+    internal void Summary(ReportDocument doc) =>
+        Table(["component", "annual Pf now", "next inspection", "years to target", "converged", "note"], doc.Components.Select(r => (IReadOnlyList<string>)
+        [
+            r.ComponentId, r.AnnualPfNow is { } p ? Study.P(p) : "-", r.NextInspection?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? "-",
+            r.YearsToTarget is { } y ? y.ToString("0.0", CultureInfo.InvariantCulture) : "-", r.AllConverged ? "yes" : "NO", r.Error ?? string.Empty,
+        ]));
 }
+
+/// <summary>One component in the --json of <c>report</c> and <c>demo</c>.</summary>
+public sealed record ReportRow(string ComponentId, double? AnnualPfNow, DateOnly? NextInspection, double? YearsToTarget, bool AllConverged, string? Error, string? Report);
+
+/// <summary>--json of <c>report</c>.</summary>
+public sealed record ReportDocument(string OutputFolder, string PortfolioReport, string Fingerprint, DateOnly AsOf, double TargetAnnualPf, IReadOnlyList<ReportRow> Components, string Caution);

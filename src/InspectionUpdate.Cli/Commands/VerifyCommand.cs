@@ -1,5 +1,10 @@
 using System.ComponentModel;
+using System.Globalization;
 using InspectionUpdate.Cli.Infrastructure;
+using InspectionUpdate.Cli.Verification;
+using InspectionUpdate.Probability;
+using InspectionUpdate.Reliability;
+using InspectionUpdate.Reliability.Verification;
 using Spectre.Console.Cli;
 
 namespace InspectionUpdate.Cli.Commands;
@@ -13,10 +18,104 @@ public sealed class VerifySettings : CommonSettings
     public string? WriteDoc { get; init; }
 }
 
-/// <summary>Runs the verification cases.</summary>
+/// <summary>
+/// Runs published checks through the engine's side-by-side comparison (FORM, SORM, importance sampling, subset
+/// simulation) and compares each method with its expected value. The cases are data (a limit state, its inputs and
+/// the published or closed-form value); every obtained number comes from the engine.
+/// </summary>
 public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(host)
 {
+    private sealed record Case(string Name, string Source, ReliabilityProblem Problem, double FormBeta, string FormSource, double ExactPf, string ExactSource,
+        double? BreitungPf = null);
+
     /// <inheritdoc />
-    protected override int Run(VerifySettings settings, CancellationToken cancellation) =>
-        throw CliException.NotAvailable("the verification cases (Reliability/Verification, issue 3) have not landed.");
+    protected override int Run(VerifySettings settings, CancellationToken cancellation)
+    {
+        var cases = Cases();
+        var rows = ProgressRunner.Run(Host, settings.Json, "Running verification cases", progress =>
+        {
+            var list = new List<VerificationTableRow>();
+            for (var i = 0; i < cases.Count; i++)
+            {
+                var c = cases[i];
+                var report = ReliabilityVerification.Run(c.Problem, VerificationOptions.Default, cancellation);
+                foreach (var r in report.Rows)
+                {
+                    if (r.Route == ComputationRoute.FirstOrder)
+                    {
+                        // FORM is compared on β with a tight tolerance: the design point is exact to the solver's tolerance.
+                        list.Add(new(c.Name, c.FormSource, "β (FORM)", c.FormBeta, r.GeneralizedBeta, 1e-4, r.Method, r.Converged ? null : "not converged"));
+                    }
+                    else if (r.Method.Contains("Breitung", StringComparison.Ordinal) && c.BreitungPf is { } b)
+                    {
+                        list.Add(new(c.Name, "REFERENCES.md: Breitung (1984) formula value [derived]", "Pf (SORM formula)", b, r.FailureProbability, 1e-3, r.Method, r.Note));
+                    }
+                    else if (r.CoefficientOfVariation is { } cov && r.Converged)
+                    {
+                        // Simulation against the exact Pf: within three estimated standard errors (relative tolerance 3·CoV).
+                        list.Add(new(c.Name, c.ExactSource, "Pf", c.ExactPf, r.FailureProbability, 3 * cov, r.Method,
+                            "CoV " + cov.ToString("0.000", CultureInfo.InvariantCulture)));
+                    }
+                }
+
+                progress((i + 1.0) / cases.Count);
+            }
+
+            return list;
+        });
+
+        if (settings.WriteDoc is not null)
+        {
+            var path = Host.Resolve(settings.WriteDoc);
+            Directory.CreateDirectory(Path.GetDirectoryName(path)!);
+            File.WriteAllText(path, VerificationTable.Markdown(rows, CliApp.Version, Host.Today()));
+        }
+
+        var failed = rows.Count(r => !r.Pass);
+        if (settings.Json)
+        {
+            WriteJson(new VerifyDocument(rows.Select(r => new VerifyRowDocument(r.Case, r.Source, r.Quantity, r.Method, r.Expected, r.Obtained, r.RelativeDifference, r.Tolerance, r.Pass, r.Note)).ToArray(),
+                rows.Count - failed, failed, Reporting.Cautions.Line));
+        }
+        else
+        {
+            Table(VerificationTable.Headers, rows.Select(VerificationTable.Cells));
+            Line($"{rows.Count - failed} of {rows.Count} checks pass.");
+            if (settings.WriteDoc is not null) Line("Written to " + Host.Resolve(settings.WriteDoc));
+            Caution();
+        }
+
+        return failed == 0 ? ExitCodes.Ok : ExitCodes.VerificationFailed;
+    }
+
+    private static List<Case> Cases()
+    {
+        // 1. Linear margin of two normals: FORM is exact. Cornell (1969): β = (μR − μS)/√(σR² + σS²) = 100/√1300.
+        var linear = new ReliabilityProblem(new StochasticModel([new NormalVariable("R", 200, 20), new NormalVariable("S", 100, 30)]),
+            new LimitState("R − S", x => x[0] - x[1]));
+        var cornell = 100 / Math.Sqrt(1300);
+
+        // 2. g = X1·X2 − X3 (REFERENCES.md, non-trivial FORM case, derived): β_FORM = 3.049073, exact Pf = 1.176882e−3.
+        var product = new ReliabilityProblem(new StochasticModel(
+            [new NormalVariable("X1", 40, 5), new NormalVariable("X2", 50, 2.5), new NormalVariable("X3", 1000, 200)]),
+            new LimitState("X1·X2 − X3", x => x[0] * x[1] - x[2]));
+
+        // 3. Paraboloid in standard normal space, failure if u2 ≥ β + (κ/2)u1², β = 3, κ = 0.1 (REFERENCES.md, SORM exact
+        //    paraboloid, derived by integration over χ²): exact 1.168962e−3, Breitung (1984) 1.183939e−3, β_FORM = 3.
+        var parabola = new ReliabilityProblem(new StochasticModel([new NormalVariable("U1", 0, 1), new NormalVariable("U2", 0, 1)]),
+            new LimitState("3 + 0.05·U1² − U2", x => 3 + 0.05 * x[0] * x[0] - x[1]));
+
+        return
+        [
+            new("linear R − S, normal", "Cornell (1969)", linear, cornell, "Cornell (1969), closed form", StandardNormal.Ccdf(cornell), "closed form Φ(−β), exact for a linear normal margin"),
+            new("X1·X2 − X3, normal", "REFERENCES.md (derived)", product, 3.049073, "REFERENCES.md: FORM check value [derived]", 1.176882e-3, "REFERENCES.md: exact Pf [derived]"),
+            new("paraboloid β = 3, κ = 0.1", "REFERENCES.md (derived)", parabola, 3.0, "distance to the apex, exact", 1.168962e-3, "exact by integration over χ² (REFERENCES.md, derived)", 1.183939e-3),
+        ];
+    }
 }
+
+/// <summary>--json row of <c>verify</c>.</summary>
+public sealed record VerifyRowDocument(string Case, string Source, string Quantity, string Method, double Expected, double Obtained, double RelativeDifference, double Tolerance, bool Pass, string? Note);
+
+/// <summary>--json of <c>verify</c>.</summary>
+public sealed record VerifyDocument(IReadOnlyList<VerifyRowDocument> Rows, int Passed, int Failed, string Caution);

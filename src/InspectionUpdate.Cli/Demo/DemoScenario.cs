@@ -16,6 +16,7 @@ internal sealed record DemoScenario(
     IReadOnlyList<DemoMethod> Methods,
     IReadOnlyList<DemoComponent> Components,
     string Findings,
+    IReadOnlyList<DemoCorrection> Corrections,
     IReadOnlyList<DemoRepair> Repairs)
 {
     public const string FormatName = "inspection-update/demo-scenario/1";
@@ -63,6 +64,8 @@ internal sealed record DemoSite(string Id, string Name, string Location);
 
 internal sealed record DemoMethod(string Id, string File);
 
-internal sealed record DemoComponent(string Id, string Site, string Name, string Model, DateOnly InService);
+internal sealed record DemoComponent(string Id, string Site, string Name, string Model, DateOnly InService, double? WallMm);
+
+internal sealed record DemoCorrection(string Component, DateOnly InspectionDate, string Method, double MeasuredSizeMm, string By, string Reason);
 
 internal sealed record DemoRepair(string Component, DateOnly Date, string Description, string By);

@@ -27,6 +27,9 @@ internal sealed record ComponentContext
     /// <summary>Model name and version, e.g. "corrosion (leak), version corrosion-1".</summary>
     public required string ModelDescription { get; init; }
 
+    /// <summary>Service life of the model definition in years, when it states one: the default horizon.</summary>
+    public double? ServiceLifeYears { get; init; }
+
     /// <summary>Where the model's inputs come from, e.g. "model file wil-01.model.json".</summary>
     public required string InputSource { get; init; }
 

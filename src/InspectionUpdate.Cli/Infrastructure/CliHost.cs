@@ -79,6 +79,9 @@ public sealed class CliHost
         return new CliHost(console, output, error, false, () => today, workingDirectory, new FixedClock(today));
     }
 
+    /// <summary>The same host with another register clock (the demo and what-if registers record at their evidence date).</summary>
+    public CliHost WithClock(TimeProvider clock) => new(Console, RawOut, Error, ShowProgress, Today, WorkingDirectory, clock);
+
     /// <summary>An absolute path for a user-given one.</summary>
     public string Resolve(string path) => Path.GetFullPath(path, WorkingDirectory);
 }

@@ -12,7 +12,7 @@ namespace InspectionUpdate.Cli.Verification;
 /// <param name="Tolerance">Allowed relative difference.</param>
 /// <param name="Method">Engine route that computed it, e.g. "FORM", "SORM (Breitung)", "subset simulation".</param>
 /// <param name="Note">Anything else (e.g. the CoV of a simulated value), or null.</param>
-public sealed record VerificationRow(string Case, string Source, string Quantity, double Expected, double Obtained, double Tolerance, string Method, string? Note)
+public sealed record VerificationTableRow(string Case, string Source, string Quantity, double Expected, double Obtained, double Tolerance, string Method, string? Note)
 {
     /// <summary>|obtained − expected| / |expected| (absolute difference when expected is 0).</summary>
     public double RelativeDifference => Expected == 0 ? Math.Abs(Obtained) : Math.Abs(Obtained - Expected) / Math.Abs(Expected);
@@ -28,7 +28,7 @@ public static class VerificationTable
     public static IReadOnlyList<string> Headers { get; } = ["case", "source", "quantity", "method", "expected", "obtained", "relative difference", "tolerance", "pass"];
 
     /// <summary>The cells of one row, formatted invariantly.</summary>
-    public static IReadOnlyList<string> Cells(VerificationRow row)
+    public static IReadOnlyList<string> Cells(VerificationTableRow row)
     {
         ArgumentNullException.ThrowIfNull(row);
         return
@@ -40,7 +40,7 @@ public static class VerificationTable
     }
 
     /// <summary>The Markdown page docs/verification.md.</summary>
-    public static string Markdown(IReadOnlyList<VerificationRow> rows, string toolVersion, DateOnly date)
+    public static string Markdown(IReadOnlyList<VerificationTableRow> rows, string toolVersion, DateOnly date)
     {
         ArgumentNullException.ThrowIfNull(rows);
         var s = new StringBuilder();

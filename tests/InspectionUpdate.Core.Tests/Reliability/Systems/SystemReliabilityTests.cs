@@ -105,6 +105,29 @@ public class SystemReliabilityTests
     }
 
     [Fact]
+    [Reference("Independent computation in the test: P(u1 ≥ 3, u2 ≥ 3 + 0.3·u1²) = ∫₃^∞ φ(u1) Q(3 + 0.3·u1²) du1 by MathNet double-exponential quadrature")]
+    public void Joint_linearization_fixes_a_parallel_system_whose_individual_design_points_mislead()
+    {
+        var model = new StochasticModel([new NormalVariable("U1", 0, 1), new NormalVariable("U2", 0, 1)]);
+        var g1 = new LimitState("g1", x => 3 - x[0]);
+        var g2 = new LimitState("g2", x => 3 - x[1] + 0.3 * x[0] * x[0]);
+        var exact = MathNet.Numerics.Integrate.DoubleExponential(a => StandardNormal.Pdf(a) * StandardNormal.Ccdf(3 + 0.3 * a * a), 3, 40, 1e-25);
+        var t = new NatafTransformation(model);
+
+        var individual = SystemReliability.Analyze(t, [g1, g2], SystemKind.Parallel);
+        var joint = SystemReliability.Analyze(t, [g1, g2], SystemKind.Parallel, new SystemOptions { Linearization = SystemLinearization.JointDesignPoint });
+
+        Assert.True(joint.Converged, joint.Diagnostic);
+        // The joint point is (3, 3 + 0.3·9) = (3, 5.7): both constraints active.
+        Assert.Equal(3.0, joint.JointDesignPointU![0], 1e-5);
+        Assert.Equal(5.7, joint.JointDesignPointU[1], 1e-5);
+        var jointError = Math.Abs(joint.FailureProbability - exact) / exact;
+        var individualError = Math.Abs(individual.FailureProbability - exact) / exact;
+        Assert.True(jointError < 0.5, $"joint {joint.FailureProbability:G4} vs exact {exact:G4}");
+        Assert.True(individualError > 100, $"individual {individual.FailureProbability:G4} vs exact {exact:G4}");
+    }
+
+    [Fact]
     public void Series_system_asked_for_the_joint_point_says_it_used_the_individual_points()
     {
         var result = SystemReliability.Analyze(new NatafTransformation(Model()), [Linear("g1", C1, A1), Linear("g2", C2, A2)], SystemKind.Series,

@@ -1,0 +1,126 @@
+using System.Globalization;
+using System.Security.Cryptography;
+using System.Text;
+using InspectionUpdate.Cli.Commands;
+using InspectionUpdate.Cli.Infrastructure;
+using InspectionUpdate.Degradation;
+using InspectionUpdate.Degradation.Definition;
+using InspectionUpdate.Register;
+using InspectionUpdate.Reporting;
+using InspectionUpdate.Time;
+
+namespace InspectionUpdate.Cli.Engine;
+
+/// <summary>Builds <see cref="ComponentContext"/>s from the register or from files.</summary>
+internal static class ComponentContexts
+{
+    /// <summary>Parses and builds a component model definition; every problem becomes a line of one bad-input error.</summary>
+    public static (IDegradationModel Model, ComponentModelDefinition Definition) BuildModel(string json, string source)
+    {
+        var parsed = ComponentModelDefinition.Parse(json);
+        if (!parsed.IsValid)
+        {
+            var lines = parsed.Problems.Select(p => p.Value is null ? $"{p.Path}: {p.Message}." : $"{p.Path} '{p.Value}': {p.Message}.").ToArray();
+            throw lines.Length == 1
+                ? new CliException(ExitCodes.BadInput, $"The model of {source} is not valid: {lines[0]}")
+                : new CliException(ExitCodes.BadInput, $"The model of {source} has {lines.Length.ToString(CultureInfo.InvariantCulture)} problems.", lines);
+        }
+
+        return (parsed.Definition!.Build(), parsed.Definition!);
+    }
+
+    /// <summary>One component of the register as known on <paramref name="asOf"/>.</summary>
+    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf)
+    {
+        var known = RegisterAccess.AsKnownOn(asOf);
+        var (model, definition) = BuildModel(component.Model.DefinitionJson, "component " + component.Code);
+        var site = store.Sites(known).FirstOrDefault(s => s.Id == component.SiteId);
+        var findings = store.Findings(component.Id, known, includeWithdrawn: true)
+            .SelectMany(f => store.FindingHistory(f.FindingId).Where(r => r.Recorded.RecordedUtc <= known))
+            .ToList();
+        var latest = findings.GroupBy(f => f.FindingId).ToDictionary(g => g.Key, g => g.Max(r => r.Revision));
+        var methods = store.Methods(known);
+        var used = findings.Select(f => f.MethodName).Where(n => n is not null).Distinct().ToHashSet();
+        return new ComponentContext
+        {
+            Id = component.Code,
+            Name = component.Description,
+            Site = site is null ? "?" : $"{site.Code} ({site.Name})",
+            InServiceDate = component.InstallDate,
+            Model = model,
+            ModelDescription = $"{definition.Name}, version {component.Model.ModelVersion} (revision {component.Model.Revision.ToString(CultureInfo.InvariantCulture)})",
+            InputSource = $"model version {component.Model.ModelVersion} in the register",
+            ServiceLifeYears = definition.ServiceLifeYears > 0 ? definition.ServiceLifeYears : null,
+            Evidence = store.EvidenceFor(component.Id, known),
+            Findings = findings.OrderBy(f => f.InspectionDate).ThenBy(f => f.FindingId).ThenBy(f => f.Revision)
+                .Select(f => Finding(f, component.InstallDate, f.Revision < latest[f.FindingId] || f.Withdrawn)).ToArray(),
+            Repairs = store.Repairs(component.Id, known).Select(r => new ReportRepair(r.RepairDate, ServiceTime.YearsSince(component.InstallDate, r.RepairDate), r.Description)).ToArray(),
+            Methods = methods.OrderBy(m => used.Contains(m.Name) ? 0 : 1).Select(m => m.ToInspectionMethod()).ToArray(),
+            Fingerprint = store.Fingerprint(known),
+            Source = store.Path,
+        };
+    }
+
+    /// <summary>
+    /// A component from a model file, with an optional findings CSV and the method files (*.method.json) of the
+    /// model's folder. The findings go through a temporary register so that they are validated and mapped exactly as
+    /// the register does; nothing is kept.
+    /// </summary>
+    public static ComponentContext FromFiles(CliHost host, string modelPath, string? findingsPath, DateOnly inService, DateOnly asOf)
+    {
+        var json = ModelFiles.Read(modelPath);
+        var (model, definition) = BuildModel(json, Path.GetFileName(modelPath));
+        var folder = Path.GetDirectoryName(modelPath)!;
+        var methodFiles = Directory.GetFiles(folder, "*.method.json").Order(StringComparer.Ordinal).ToArray();
+        var hash = new StringBuilder(json);
+        var temp = Path.Combine(Path.GetTempPath(), "iu-whatif-" + Guid.NewGuid().ToString("N")[..12] + ".register");
+        try
+        {
+            // The what-if register records at the evidence date, so that reads "as known on" that date see everything.
+            using var store = RegisterAccess.Open(host.WithClock(new FixedClock(asOf)), temp, RegisterOpenMode.CreateNew);
+            const string actor = "what-if";
+            RegisterAccess.Require(store.AddSite(new NewSite("FILE", "model file"), actor), "what-if site");
+            var code = Path.GetFileNameWithoutExtension(modelPath).Replace(".model", string.Empty, StringComparison.Ordinal);
+            RegisterAccess.Require(store.AddComponent(new NewComponent("FILE", code, definition.Name, inService, model.MaximumSizeMm is { } w && double.IsFinite(w) ? w : null, json, ModelFiles.Version(json) ?? "file"), actor), "what-if component");
+            foreach (var file in methodFiles)
+            {
+                var name = Path.GetFileName(file)[..^".method.json".Length].ToUpperInvariant();
+                RegisterAccess.Require(store.AddMethod(MethodFile.Read(file, name), actor), "method file " + Path.GetFileName(file));
+                hash.Append(File.ReadAllText(file));
+            }
+
+            if (findingsPath is not null)
+            {
+                var csv = File.ReadAllText(findingsPath);
+                hash.Append(csv);
+                // The file names the component by the model file's name; rewrite nothing: rows must use that code.
+                var result = store.ImportFindingsCsv(new StringReader(csv), Path.GetFileName(findingsPath), actor, "what-if");
+                if (!result.Succeeded) throw RegisterAccess.Problems("findings file " + Path.GetFileName(findingsPath), result.Problems);
+            }
+
+            var component = store.FindComponent(code)!;
+            var context = FromRegister(store, component, asOf);
+            return context with
+            {
+                Site = "-",
+                ModelDescription = definition.Name + " (model file)",
+                InputSource = "model file " + Path.GetFileName(modelPath),
+                Fingerprint = "sha256:" + Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(hash.ToString()))),
+                Source = modelPath + (findingsPath is null ? string.Empty : " + " + findingsPath),
+            };
+        }
+        finally
+        {
+            Microsoft.Data.Sqlite.SqliteConnection.ClearAllPools();
+            foreach (var f in new[] { temp, temp + "-wal", temp + "-shm" })
+            {
+                if (File.Exists(f)) File.Delete(f);
+            }
+        }
+    }
+
+    private static ReportFinding Finding(FindingRevision f, DateOnly inService, bool superseded) => new(
+        $"F-{f.FindingId.ToString(CultureInfo.InvariantCulture)} r{f.Revision.ToString(CultureInfo.InvariantCulture)}", f.InspectionDate,
+        ServiceTime.YearsSince(inService, f.InspectionDate), FindingText.Words(f.Kind) + (f.Withdrawn ? " (withdrawn)" : string.Empty), f.MethodName ?? "-",
+        f.MeasuredSizeMm ?? f.RemainingWallMm, f.Revision, f.Recorded.RecordedBy, f.Revision > 1 || f.Withdrawn ? f.Recorded.Reason : null, superseded);
+}

@@ -1,0 +1,121 @@
+using System.Globalization;
+using System.Text.Json;
+using InspectionUpdate.Cli.Infrastructure;
+using InspectionUpdate.Planning;
+using InspectionUpdate.Reporting;
+using InspectionUpdate.Reporting.Export;
+using InspectionUpdate.Reporting.Html;
+using InspectionUpdate.Updating;
+
+namespace InspectionUpdate.Cli.Engine;
+
+/// <summary>One component's run for a report: the engine's results, or why it could not be assessed.</summary>
+internal sealed record ComponentRun(string ComponentId, ComponentContext? Context, AssessmentRequest? Request, AssessmentOutcome? Outcome, PlanOutcome? Plan, string? Error)
+{
+    public bool AllConverged => (Outcome?.AllConverged ?? true) && (Plan?.AllConverged ?? true);
+}
+
+/// <summary>Settings of a report run.</summary>
+internal sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool Schedule, UpdatingRoute Route, double? HorizonYears);
+
+/// <summary>Runs assess and plan over several components (in parallel) and writes the reports and exports.</summary>
+internal static class ReportRun
+{
+    /// <summary>Assesses and plans each component; a component that fails is recorded with its error, the others go on.</summary>
+    public static IReadOnlyList<ComponentRun> Run(IReadOnlyList<Func<ComponentContext>> components, IReadOnlyList<string> ids, ReportRunOptions options, Action<double> progress)
+    {
+        var runs = new ComponentRun[components.Count];
+        var done = 0;
+        Parallel.For(0, components.Count, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, i =>
+        {
+            try
+            {
+                var context = components[i]();
+                var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route);
+                var outcome = ComponentAssessment.Assess(request, _ => { });
+                var method = options.Schedule ? context.DefaultPlanMethod : null;
+                PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, options.Target, method, _ => { }) : null;
+                runs[i] = new ComponentRun(context.Id, context, request, outcome, plan, null);
+            }
+            catch (CliException e)
+            {
+                runs[i] = new ComponentRun(ids[i], null, null, null, null, e.Message + (e.Problems.Count > 0 ? " " + string.Join(" ", e.Problems) : string.Empty));
+            }
+            catch (ArgumentException e)
+            {
+                runs[i] = new ComponentRun(ids[i], null, null, null, null, e.Message);
+            }
+
+            progress(Interlocked.Increment(ref done) / (double)components.Count);
+        });
+        return runs;
+    }
+
+    /// <summary>Writes index.html, one HTML, profile CSV, plan CSV and JSON per component, and register.json.</summary>
+    /// <returns>The path of index.html.</returns>
+    public static string Write(string folder, string title, IReadOnlyList<ComponentRun> runs, ReportRunOptions options, string fingerprint, string source,
+        IReadOnlyList<string> notAvailable)
+    {
+        Directory.CreateDirectory(folder);
+        var rows = new List<PortfolioRow>();
+        foreach (var run in runs)
+        {
+            var safe = Safe(run.ComponentId);
+            if (run.Context is null || run.Request is null || run.Outcome is null)
+            {
+                rows.Add(new PortfolioRow(run.ComponentId, "-", "-", null, "-", null, null, "not assessed: " + run.Error, null));
+                continue;
+            }
+
+            var gaps = new List<string>(notAvailable);
+            if (!options.Schedule) gaps.Add("Life-cycle schedule not computed in this run (plan COMPONENT computes it); the plan shows the next inspection only.");
+            var data = ComponentStudy.Report(run.Context, run.Request, run.Outcome, run.Plan, gaps);
+            File.WriteAllText(Path.Combine(folder, safe + ".html"), HtmlReportWriter.Component(data));
+            File.WriteAllText(Path.Combine(folder, safe + ".json"), ProfileExport.ComponentJson(data));
+            using (var w = new StreamWriter(Path.Combine(folder, safe + ".profile.csv")))
+            {
+                ProfileExport.WriteCsv(w, run.ComponentId, new[] { run.Outcome.Prior, run.Outcome.Updated }.Where(p => p is not null)!);
+            }
+
+            if (data.Plan is not null)
+            {
+                using var w = new StreamWriter(Path.Combine(folder, safe + ".plan.csv"));
+                ProfileExport.WritePlanCsv(w, run.ComponentId, data.Plan);
+            }
+
+            rows.Add(ComponentStudy.Row(run.Context, run.Request, run.Outcome, run.Plan, safe + ".html"));
+        }
+
+        var portfolio = new PortfolioReportData
+        {
+            Title = title,
+            Rows = rows,
+            TargetAnnualPf = options.Target.AnnualPf,
+            Assumptions =
+            [
+                $"Target: {options.Target.Describe()}.",
+                $"Evidence as known on {options.AsOf:yyyy-MM-dd}; the current annual Pf is the updated ΔPf of the year ending at the first grid time at or after that date.",
+                "Years to target: from the evidence date until the updated annual Pf reaches the target without further inspection (the remaining life against the target).",
+                "Each component is assessed on its own; shared parameters across components are not pooled in this report.",
+                "Updating route: " + (options.Route switch
+                {
+                    UpdatingRoute.FirstOrder => "first order only (linearized events); numbers the updater flags as unreliable are noted per step — check them with --route auto",
+                    UpdatingRoute.Simulation => "simulation only (likelihood-weighted importance sampling)",
+                    _ => "automatic: first order, with simulation where first order is flagged unreliable",
+                }) + ".",
+            ],
+            NotAvailable = notAvailable,
+            Provenance = new ReportProvenance(CliApp.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf),
+        };
+        var index = Path.Combine(folder, "index.html");
+        File.WriteAllText(index, HtmlReportWriter.Portfolio(portfolio));
+        File.WriteAllText(Path.Combine(folder, "register.json"), JsonSerializer.Serialize(new RegisterExport("inspection-update/register-export/1", title, options.AsOf,
+            CliApp.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
+        return index;
+    }
+
+    /// <summary>A component code as a file name.</summary>
+    public static string Safe(string id) => string.Concat(id.Select(c => char.IsLetterOrDigit(c) || c is '-' or '_' or '.' ? c : '_'));
+
+    private sealed record RegisterExport(string Format, string Title, DateOnly AssessedAsOf, string ToolVersion, string RegisterFingerprint, double TargetAnnualPf, IReadOnlyList<PortfolioRow> Components);
+}
