@@ -15,20 +15,13 @@ public class CrudeMonteCarloTests
     // Cornell (1969): β = 50/√(20² + 25²), Pf = Φ(−β) ≈ 0.0592.
     private static readonly double CornellPf = Normal.CDF(0, 1, -50 / Math.Sqrt(20 * 20 + 25 * 25));
 
-    private static void AssertWithinStandardErrors(double exact, SimulationResult result, double k = 3)
-    {
-        Assert.True(result.Converged, result.Diagnostic);
-        Assert.True(Math.Abs(result.FailureProbability - exact) <= k * result.StandardError,
-            $"{result.Method}: {result.FailureProbability:R} vs exact {exact:R}, {k} SE = {k * result.StandardError:R}");
-    }
-
     [Fact]
     [Trait("Category", "Statistical")]
     [Reference("Cornell (1969) closed form for R − S of normals; the estimate lies within 3 estimated standard errors")]
     public void Estimate_of_a_linear_normal_margin_lies_within_three_standard_errors_of_the_exact_value()
     {
         var result = CrudeMonteCarlo.Run(CornellCase(), new SamplingOptions { Seed = 3, TargetCoefficientOfVariation = 0.03, BlockSize = 1024 });
-        AssertWithinStandardErrors(CornellPf, result);
+        SimulationAssert.WithinStandardErrors(CornellPf, result);
         Assert.True(result.CoefficientOfVariation <= 0.03);
         Assert.Equal(CrudeMonteCarlo.MethodName, result.Method);
         // The CoV of a binomial proportion: √((1 − p)/(N p)), up to the N − 1 of the sample variance.
@@ -44,7 +37,7 @@ public class CrudeMonteCarloTests
         var problem = FormTestModels.LognormalMinusGumbel(out var r, out var s);
         var exact = FormTestModels.LognormalBelowGumbelExactPf(r.Lambda, r.Zeta, s);
         var result = CrudeMonteCarlo.Run(problem, new SamplingOptions { Seed = 5, TargetCoefficientOfVariation = 0.05, BlockSize = 2048 });
-        AssertWithinStandardErrors(exact, result);
+        SimulationAssert.WithinStandardErrors(exact, result);
     }
 
     [Fact]
@@ -58,7 +51,7 @@ public class CrudeMonteCarloTests
             new LimitState("t-A-B", x => 4 - x[0] - x[1]));
         var exact = Normal.CDF(0, 1, -4 / Math.Sqrt(1 + 4 + 2 * 0.7 * 2));
         var result = CrudeMonteCarlo.Run(problem, new SamplingOptions { Seed = 9, TargetCoefficientOfVariation = 0.04, BlockSize = 1024 });
-        AssertWithinStandardErrors(exact, result);
+        SimulationAssert.WithinStandardErrors(exact, result);
     }
 
     [Fact]

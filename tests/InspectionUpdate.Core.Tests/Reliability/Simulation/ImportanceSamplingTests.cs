@@ -8,13 +8,6 @@ namespace InspectionUpdate.Tests.Reliability.Simulation;
 
 public class ImportanceSamplingTests
 {
-    private static void AssertWithinStandardErrors(double exact, SimulationResult result, double k = 3)
-    {
-        Assert.True(result.Converged, result.Diagnostic);
-        Assert.True(Math.Abs(result.FailureProbability - exact) <= k * result.StandardError,
-            $"{result.Method}: {result.FailureProbability:R} vs exact {exact:R}, {k} SE = {k * result.StandardError:R}");
-    }
-
     [Fact]
     [Trait("Category", "Statistical")]
     [Reference("REFERENCES.md [derived]: exact Pf = 1.083727e-2, recomputed by 1-D integration in the test; within 3 standard errors")]
@@ -24,7 +17,7 @@ public class ImportanceSamplingTests
         var exact = FormTestModels.LognormalBelowGumbelExactPf(r.Lambda, r.Zeta, s);
         var form = FormSolver.Solve(problem);
         var result = ImportanceSampling.Run(problem, form, new SamplingOptions { Seed = 11, TargetCoefficientOfVariation = 0.01, BlockSize = 1024 });
-        AssertWithinStandardErrors(exact, result);
+        SimulationAssert.WithinStandardErrors(exact, result);
         Assert.Equal(ImportanceSampling.MethodName, result.Method);
         // Far fewer samples than crude Monte Carlo would need for the same CoV: (1 − p)/(p·0.01²) ≈ 9.1e5.
         Assert.True(result.Samples < 100_000, $"{result.Samples} samples");
@@ -40,7 +33,7 @@ public class ImportanceSamplingTests
             x1.Lambda + x2.Lambda, Math.Sqrt(x1.Zeta * x1.Zeta + x2.Zeta * x2.Zeta), s);
         var form = FormSolver.Solve(problem);
         var result = ImportanceSampling.Run(problem, form, new SamplingOptions { Seed = 12, TargetCoefficientOfVariation = 0.02, BlockSize = 1024 });
-        AssertWithinStandardErrors(exact, result);
+        SimulationAssert.WithinStandardErrors(exact, result);
     }
 
     [Fact]
@@ -54,7 +47,7 @@ public class ImportanceSamplingTests
         var form = FormSolver.Solve(problem);
         Assert.True(form.Beta < 0);
         var result = ImportanceSampling.Run(problem, form, new SamplingOptions { Seed = 13, TargetCoefficientOfVariation = 0.01, BlockSize = 1024 });
-        AssertWithinStandardErrors(Normal.CDF(0, 1, 0.8), result);
+        SimulationAssert.WithinStandardErrors(Normal.CDF(0, 1, 0.8), result);
     }
 
     [Fact]
