@@ -4,6 +4,13 @@ namespace InspectionUpdate.Probability;
 /// The Nataf transformation (Liu &amp; Der Kiureghian 1986): z = Φ⁻¹(F(x)) componentwise, z = L₀u with L₀ the
 /// lower Cholesky factor of the fictive correlation matrix R₀. For independent inputs L₀ = I.
 /// </summary>
+/// <remarks>
+/// R₀ comes from <see cref="FictiveCorrelations"/> (closed forms where exact, Gauss–Hermite quadrature and Brent's
+/// method otherwise). Deterministic variables have no u coordinate; their correlations are ignored. The Jacobian is
+/// ∂xᵢ/∂uⱼ = L₀[k, j]·φ(zₖ)/fᵢ(xᵢ) for the k-th random variable i. Immutable after construction: every method
+/// may be called from many threads at once; <see cref="ToPhysical"/> and <see cref="JacobianPhysicalByStandard"/>
+/// allocate nothing, <see cref="ToStandard"/> allocates only beyond 64 random variables.
+/// </remarks>
 public sealed class NatafTransformation : IProbabilityTransformation
 {
     private readonly RandomVariable[] _variables;
@@ -13,7 +20,10 @@ public sealed class NatafTransformation : IProbabilityTransformation
     private readonly double[,]? _l0Inverse;
 
     /// <summary>Builds the transformation, computing the fictive correlation matrix where the inputs are correlated.</summary>
-    /// <exception cref="DistributionParameterException">The fictive correlation matrix is not positive definite.</exception>
+    /// <exception cref="DistributionParameterException">
+    /// A physical correlation is not attainable for its pair of marginals (ParamName is the entry, e.g. "[2,0]"), or
+    /// the fictive correlation matrix is not positive definite (VariableName "fictive correlation").
+    /// </exception>
     public NatafTransformation(StochasticModel model)
     {
         ArgumentNullException.ThrowIfNull(model);
@@ -52,15 +62,8 @@ public sealed class NatafTransformation : IProbabilityTransformation
 
         for (var k = 0; k < n; k++)
         {
-            var z = u[k];
-            if (_l0 is not null)
-            {
-                z = 0;
-                for (var j = 0; j <= k; j++) z += _l0[k, j] * u[j];
-            }
-
             var i = _randomIndices[k];
-            x[i] = _variables[i].FromStandardNormal(z);
+            x[i] = _variables[i].FromStandardNormal(Correlated(u, k));
         }
     }
 
@@ -97,13 +100,7 @@ public sealed class NatafTransformation : IProbabilityTransformation
         jacobian[..(m * n)].Clear();
         for (var k = 0; k < n; k++)
         {
-            var z = u[k];
-            if (_l0 is not null)
-            {
-                z = 0;
-                for (var j = 0; j <= k; j++) z += _l0[k, j] * u[j];
-            }
-
+            var z = Correlated(u, k);
             var i = _randomIndices[k];
             var x = _variables[i].FromStandardNormal(z);
             // dx/dz = φ(z)/f(x); guard the far tails where both vanish.
@@ -118,6 +115,15 @@ public sealed class NatafTransformation : IProbabilityTransformation
                 for (var j = 0; j <= k; j++) jacobian[i * n + j] = dxdz * _l0[k, j];
             }
         }
+    }
+
+    /// <summary>zₖ = (L₀u)ₖ, the k-th correlated standard normal coordinate (uₖ itself when independent).</summary>
+    private double Correlated(ReadOnlySpan<double> u, int k)
+    {
+        if (_l0 is null) return u[k];
+        var z = 0.0;
+        for (var j = 0; j <= k; j++) z += _l0[k, j] * u[j];
+        return z;
     }
 
     private static double[,] InvertLower(double[,] l)

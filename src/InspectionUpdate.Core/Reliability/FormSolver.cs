@@ -85,6 +85,7 @@ public static class FormSolver
         private readonly double[] _xStep;
         private readonly double[] _jac;
         private readonly GradientMethod _method;
+        private readonly NatafTransformation? _nataf;
         private int _evaluations;
 
         public Workspace(ReliabilityProblem problem, FormOptions options)
@@ -98,6 +99,7 @@ public static class FormSolver
             _scale = problem.StepScales;
             _xStep = new double[_m];
             _jac = new double[_m * _n];
+            _nataf = _t as NatafTransformation;
             _method = options.Gradient switch
             {
                 GradientMethod.Automatic => _g.HasGradient ? GradientMethod.Analytic : GradientMethod.ForwardDifference,
@@ -309,7 +311,8 @@ public static class FormSolver
         private bool GradientU(double[] u, double[] x, double g, double[] gradX, double[] gradU)
         {
             if (!Analytic) FiniteDifference(x, g, gradX);
-            _t.JacobianPhysicalByStandard(u, _jac);
+            if (_nataf is not null) NatafJacobian(u, x);
+            else _t.JacobianPhysicalByStandard(u, _jac);
             Array.Clear(gradU);
             var ok = true;
             for (var i = 0; i < _m; i++)
@@ -328,6 +331,41 @@ public static class FormSolver
             }
 
             return ok;
+        }
+
+        /// <summary>
+        /// J = ∂x/∂u of the Nataf transformation at a point whose x is already known: dxᵢ/dz_k = φ(z_k)/fᵢ(xᵢ) times
+        /// row k of L₀. Same formula as <see cref="NatafTransformation.JacobianPhysicalByStandard"/>, without mapping
+        /// u to x a second time (the inverse marginal CDFs dominate the cost of an iteration).
+        /// </summary>
+        private void NatafJacobian(double[] u, double[] x)
+        {
+            var random = _problem.Model.RandomIndices;
+            var variables = _problem.Model.Variables;
+            var l0 = _nataf!.FictiveCorrelation?.CholeskyLower;
+            Array.Clear(_jac);
+            for (var k = 0; k < _n; k++)
+            {
+                var z = u[k];
+                if (l0 is not null)
+                {
+                    z = 0;
+                    for (var j = 0; j <= k; j++) z += l0[k, j] * u[j];
+                }
+
+                var i = random[k];
+                var f = variables[i].Pdf(x[i]);
+                // Far tails: both densities vanish; the variable then has no first-order influence.
+                var dxdz = f > 0 ? StandardNormal.Pdf(z) / f : 0.0;
+                if (l0 is null)
+                {
+                    _jac[i * _n + k] = dxdz;
+                }
+                else
+                {
+                    for (var j = 0; j <= k; j++) _jac[i * _n + j] = dxdz * l0[k, j];
+                }
+            }
         }
 
         private void FiniteDifference(double[] x, double g, double[] gradX)

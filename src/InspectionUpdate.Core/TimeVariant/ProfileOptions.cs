@@ -33,9 +33,11 @@ public sealed record ProfileOptions
     public bool WarmStart { get; init; } = true;
 
     /// <summary>
-    /// True (default) to sweep the grid backwards after the forward sweep, each step warm-started from the later one,
-    /// keeping per step the converged result with the smaller β. Costs a few evaluations per step; guards against a
-    /// warm start that stays on a failure mode another one overtakes, and retries steps the forward sweep missed.
+    /// True (default) to sweep the grid backwards after the forward sweep: a step whose forward run failed, or whose
+    /// design point lies more than 0.5 (in u) from the later step's, is retried from the later step's design point,
+    /// keeping the converged result with the smaller β. Guards against a warm start that stays on a failure mode
+    /// another one overtakes, and retries steps the forward sweep missed; costs nothing where the design points move
+    /// smoothly.
     /// </summary>
     public bool BackwardSweep { get; init; } = true;
 

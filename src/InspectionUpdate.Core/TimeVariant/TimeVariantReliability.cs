@@ -245,7 +245,10 @@ public static class TimeVariantReliability
                     continue;
                 }
 
-                var backward = i == times.Count - 1 && forward.Converged ? forward : stepper.Retry(times[i], start);
+                // Retry only where the forward point is missing or far (more than half a standard deviation in u)
+                // from the later step's: neighbouring design points of one failure mode lie close together.
+                var near = forward.Converged && Distance(forward.Form.DesignPointU, start) < 0.5;
+                var backward = near || i == times.Count - 1 && forward.Converged ? forward : stepper.Retry(times[i], start);
                 if (ReferenceEquals(backward.Form, forward.Form))
                 {
                     next = forward.Form.DesignPointU;
@@ -323,6 +326,13 @@ public static class TimeVariantReliability
             DesignPointX = route == ComputationRoute.FirstOrder ? form.DesignPointX : null,
             Note = note,
         };
+    }
+
+    private static double Distance(IReadOnlyList<double> a, IReadOnlyList<double> b)
+    {
+        var s = 0.0;
+        for (var i = 0; i < a.Count; i++) s += (a[i] - b[i]) * (a[i] - b[i]);
+        return Math.Sqrt(s);
     }
 
     private static string? Join(string? a, string b) => a is null ? b : $"{a}; {b}";

@@ -15,6 +15,7 @@ public sealed class UpdatingSession
     private readonly Lock _gate = new();
     private readonly UpdatingOptions _options;
     private readonly FirstOrderUpdater _firstOrder;
+    private readonly NatafTransformation _transformation;
     private readonly LikelihoodImportanceSampler _sampler;
     private readonly Dictionary<string, double[]> _warm = new(StringComparer.Ordinal);
 
@@ -24,6 +25,7 @@ public sealed class UpdatingSession
         _options = options;
         Model = EvidenceModel.Build(updatingCase);
         var transformation = new NatafTransformation(Model.Model);
+        _transformation = transformation;
         _firstOrder = new FirstOrderUpdater(Model, transformation, options);
         _sampler = new LikelihoodImportanceSampler(Model, options);
         VariableNames = Model.Model.RandomIndices.Select(i => Model.Model.Variables[i].Name).ToArray();
@@ -169,7 +171,7 @@ public sealed class UpdatingSession
                         : flags is null ? null : "first-order flags: " + flags;
                     if (fo.Problem is not null) note = fo.Problem + (note is null ? "" : "; " + note);
                     var x = new double[Model.Model.PhysicalDimension];
-                    new NatafTransformation(Model.Model).ToPhysical(fo.Failure.PointU, x);
+                    _transformation.ToPhysical(fo.Failure.PointU, x);
                     return (new UpdatedEstimate
                     {
                         CumulativePf = fo.Pf,

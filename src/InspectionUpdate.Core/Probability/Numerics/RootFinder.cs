@@ -197,6 +197,10 @@ internal static class RootFinder
 
             var tol = tolerance + 4 * 2.220446049250313e-16 * Math.Abs(next);
             if (Math.Abs(next - t) <= tol || (haveLo && haveHi && hi - lo <= tol)) return next;
+
+            // Newton converges quadratically: after a step of size d the error is about C·d² with C = f″/(2f′),
+            // of order 1 for these log-tail functions, so a step below 1e−9 leaves an error below rounding.
+            if (newtonOk && Math.Abs(next - t) <= 1e-9 * Math.Max(1, Math.Abs(next))) return next;
             t = next;
         }
 

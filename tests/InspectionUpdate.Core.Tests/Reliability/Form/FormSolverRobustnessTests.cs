@@ -198,6 +198,31 @@ public class FormSolverRobustnessTests
         }
     }
 
+    public class Transformation_routes
+    {
+        [Fact]
+        [Reference("Identity: the solver's Nataf Jacobian from the known x equals the transformation's own Jacobian")]
+        public void Nataf_fast_Jacobian_gives_the_same_run_as_the_interface_Jacobian()
+        {
+            RandomVariable[] variables =
+            [
+                LognormalVariable.FromMeanCov("R", 300, 0.1),
+                GumbelVariable.FromMeanCov("S1", 80, 0.3),
+                WeibullVariable.FromMeanCov("S2", 60, 0.25),
+            ];
+            var corr = new CorrelationMatrix(new double[,] { { 1, 0.2, 0 }, { 0.2, 1, 0.5 }, { 0, 0.5, 1 } });
+            var nataf = new NatafTransformation(new StochasticModel(variables, corr));
+            var g = new LimitState("g", x => x[0] - x[1] - x[2] - 0.002 * x[1] * x[2]);
+            var fast = FormSolver.Solve(new ReliabilityProblem(nataf, g));
+            var general = FormSolver.Solve(new ReliabilityProblem(new OpaqueTransformation(nataf), g));
+            Assert.True(fast.Converged, fast.Diagnostic);
+            Assert.Equal(general.Iterations, fast.Iterations);
+            Assert.Equal(general.LimitStateEvaluations, fast.LimitStateEvaluations);
+            Assert.Equal(general.Beta, fast.Beta, 1e-12);
+            for (var i = 0; i < 3; i++) Assert.Equal(general.Alpha[i], fast.Alpha[i], 1e-12);
+        }
+    }
+
     public class Scale_invariance
     {
         [Theory]

@@ -33,6 +33,22 @@ internal readonly record struct GumbelClosedForm(double Location, double Scale)
     }
 }
 
+/// <summary>Delegates to a Nataf transformation but hides its type, so the general-Jacobian route is used.</summary>
+internal sealed class OpaqueTransformation(IProbabilityTransformation inner) : IProbabilityTransformation
+{
+    public StochasticModel Model => inner.Model;
+
+    public int StandardDimension => inner.StandardDimension;
+
+    public int PhysicalDimension => inner.PhysicalDimension;
+
+    public void ToPhysical(ReadOnlySpan<double> u, Span<double> x) => inner.ToPhysical(u, x);
+
+    public void ToStandard(ReadOnlySpan<double> x, Span<double> u) => inner.ToStandard(x, u);
+
+    public void JacobianPhysicalByStandard(ReadOnlySpan<double> u, Span<double> jacobian) => inner.JacobianPhysicalByStandard(u, jacobian);
+}
+
 /// <summary>A limit state that counts every call, to check the solver's evaluation count.</summary>
 internal sealed class CountingLimitState(ILimitState inner) : ILimitState
 {

@@ -6,22 +6,6 @@ namespace InspectionUpdate.Tests.Reliability.Form;
 /// <summary>The importance vector γ for correlated inputs and α² for independent ones.</summary>
 public class ImportanceFactorsTests
 {
-    /// <summary>Delegates to a Nataf transformation but hides its type, so the general-Jacobian route is used.</summary>
-    private sealed class OpaqueTransformation(IProbabilityTransformation inner) : IProbabilityTransformation
-    {
-        public StochasticModel Model => inner.Model;
-
-        public int StandardDimension => inner.StandardDimension;
-
-        public int PhysicalDimension => inner.PhysicalDimension;
-
-        public void ToPhysical(ReadOnlySpan<double> u, Span<double> x) => inner.ToPhysical(u, x);
-
-        public void ToStandard(ReadOnlySpan<double> x, Span<double> u) => inner.ToStandard(x, u);
-
-        public void JacobianPhysicalByStandard(ReadOnlySpan<double> u, Span<double> jacobian) => inner.JacobianPhysicalByStandard(u, jacobian);
-    }
-
     private static readonly double[] Sd = [2, 1, 1.5];
     private static readonly double[] A = [1.0, -1.5, -0.8];
 
