@@ -1,0 +1,140 @@
+using System.Text.Json;
+using InspectionUpdate.Cli.Infrastructure;
+
+namespace InspectionUpdate.Tests.Cli;
+
+/// <summary>The command line end to end, in process, on a temporary register built from the shipped sample data.</summary>
+public sealed class EndToEndTests
+{
+    private static readonly string SampleData = Path.Combine(AppContext.BaseDirectory, "sample-data");
+
+    private static CliRunner Prepared(out string register)
+    {
+        var cli = new CliRunner();
+        register = cli.PathOf("t.register");
+        Assert.Equal(ExitCodes.Ok, cli.Run("register", "create", register).ExitCode);
+        Assert.Equal(ExitCodes.Ok, cli.Run("site", "add", "SF-IL3", "--name", "test line", "-r", register).ExitCode);
+        Assert.Equal(ExitCodes.Ok, cli.Run("method", "add", "MFL-ILI", "--file", Path.Combine(SampleData, "methods", "mfl-ili.method.json"), "-r", register).ExitCode);
+        var add = cli.Run("component", "add", "IL3-KP42", "--site", "SF-IL3", "--model", Path.Combine(SampleData, "models", "sandwick-injection-line-external-corrosion.json"),
+            "--in-service", "2008-05-01", "--wall-mm", "12.7", "-r", register, "--json");
+        Assert.Equal(ExitCodes.Ok, add.ExitCode);
+        Assert.Equal("IL3-KP42", add.Json().GetProperty("code").GetString());
+        return cli;
+    }
+
+    [Fact]
+    public void Log_correct_and_list_keep_every_revision()
+    {
+        using var cli = Prepared(out var register);
+        var log = cli.Run("finding", "log", "IL3-KP42", "--date", "2019-06-18", "--method", "MFL-ILI", "--outcome", "sized", "--size-mm", "1.6", "--by", "tester", "-r", register, "--json");
+        Assert.Equal(ExitCodes.Ok, log.ExitCode);
+        var id = log.Json().GetProperty("finding_id").GetInt64().ToString(System.Globalization.CultureInfo.InvariantCulture);
+        var fix = cli.Run("finding", "correct", id, "--size-mm", "2.1", "--by", "tester", "--reason", "verification dig", "-r", register, "--json");
+        Assert.Equal(ExitCodes.Ok, fix.ExitCode);
+        Assert.Equal(2, fix.Json().GetProperty("revision").GetInt32());
+        var list = cli.Run("finding", "list", "IL3-KP42", "--all-revisions", "-r", register, "--json").Json().GetProperty("findings").EnumerateArray().ToArray();
+        Assert.Equal([1.6, 2.1], list.Select(f => f.GetProperty("measured_size_mm").GetDouble()).ToArray());
+        Assert.Equal("verification dig", list[1].GetProperty("reason").GetString());
+    }
+
+    [Fact]
+    public void A_bad_import_is_refused_with_every_problem_and_leaves_the_register_unchanged()
+    {
+        using var cli = Prepared(out var register);
+        var before = cli.Run("register", "check", "-r", register, "--json").Json().GetProperty("fingerprint").GetString();
+        var bad = cli.PathOf("bad.csv");
+        File.WriteAllText(bad, "component_code,inspection_date,kind,method,measured_size_mm\nIL3-KP42,2016-05-20,no-indication,MFL-ILI,\nNOPE,2017-05-20,sized-indication,MFL-ILI,-1\n");
+        var run = cli.Run("finding", "import", bad, "-r", register, "--json");
+        Assert.Equal(ExitCodes.BadInput, run.ExitCode);
+        var problems = run.Json().GetProperty("error").GetProperty("problems").EnumerateArray().Select(p => p.GetString()!).ToArray();
+        Assert.Contains(problems, p => p.Contains("NOPE", StringComparison.Ordinal));
+        Assert.Contains(problems, p => p.Contains("-1", StringComparison.Ordinal));
+        Assert.Equal(before, cli.Run("register", "check", "-r", register, "--json").Json().GetProperty("fingerprint").GetString());
+        Assert.Empty(cli.Run("finding", "list", "-r", register, "--json").Json().GetProperty("findings").EnumerateArray());
+
+        var good = cli.PathOf("good.csv");
+        File.WriteAllText(good, "component_code,inspection_date,kind,method,measured_size_mm\nIL3-KP42,2016-05-20,no-indication,MFL-ILI,\n");
+        var ok = cli.Run("finding", "import", good, "-r", register, "--json");
+        Assert.Equal(ExitCodes.Ok, ok.ExitCode);
+        Assert.Equal(1, ok.Json().GetProperty("findings").GetInt32());
+    }
+
+    [Fact]
+    public void Assess_plan_and_report_on_the_register_give_parseable_json_and_files()
+    {
+        using var cli = Prepared(out var register);
+        cli.Run("finding", "log", "IL3-KP42", "--date", "2016-05-20", "--method", "MFL-ILI", "--outcome", "none", "-r", register);
+        var assess = cli.Run("assess", "IL3-KP42", "-r", register, "--route", "first-order", "--as-of", "2025-06-30", "--json");
+        Assert.True(assess.ExitCode is ExitCodes.Ok or ExitCodes.NotConverged, assess.Error);
+        var a = assess.Json();
+        Assert.Equal(1, a.GetProperty("evidence_count").GetInt32());
+        Assert.Equal(30, a.GetProperty("prior").GetProperty("points").GetArrayLength()); // service life of the model file: 30 years
+        Assert.Equal(a.GetProperty("all_converged").GetBoolean(), assess.ExitCode == ExitCodes.Ok);
+        Assert.Contains("judgement", a.GetProperty("caution").GetString(), StringComparison.Ordinal);
+
+        var plan = cli.Run("plan", "IL3-KP42", "-r", register, "--route", "first-order", "--as-of", "2025-06-30", "--no-schedule", "--target-annual-pf", "1e-4", "--json");
+        Assert.True(plan.ExitCode is ExitCodes.Ok or ExitCodes.NotConverged, plan.Error);
+        var p = plan.Json();
+        Assert.Equal(1e-4, p.GetProperty("target_annual_pf").GetDouble());
+        Assert.True(DateOnly.Parse(p.GetProperty("next_date").GetString()!, System.Globalization.CultureInfo.InvariantCulture) >= new DateOnly(2025, 6, 30));
+
+        var report = cli.Run("report", "IL3-KP42", "-r", register, "--route", "first-order", "--as-of", "2025-06-30", "--out", "rep", "--json");
+        Assert.True(report.ExitCode is ExitCodes.Ok or ExitCodes.NotConverged, report.Error);
+        foreach (var f in new[] { "index.html", "IL3-KP42.html", "IL3-KP42.json", "IL3-KP42.profile.csv", "register.json" })
+        {
+            Assert.True(File.Exists(Path.Combine(cli.PathOf("rep"), f)), f);
+        }
+    }
+
+    [Fact]
+    public void Assess_runs_straight_on_a_model_file_without_a_register()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("assess", "--model", Path.Combine(SampleData, "models", "hollin-reef-brace-joint-crack-growth.json"), "--route", "first-order", "--horizon-years", "10", "--json");
+        Assert.True(run.ExitCode is ExitCodes.Ok or ExitCodes.NotConverged, run.Error);
+        Assert.Equal(10, run.Json().GetProperty("prior").GetProperty("points").GetArrayLength());
+    }
+
+    [Fact]
+    public void A_bad_model_file_is_bad_input_naming_the_path_of_the_problem()
+    {
+        using var cli = new CliRunner();
+        var model = cli.PathOf("bad.model.json");
+        File.WriteAllText(model, "{\"schemaVersion\": 1, \"name\": \"x\", \"mechanism\": {\"type\": \"corrosion\"}, \"inputs\": {\"rate_mmPerYear\": {\"family\": \"Lognormal\", \"mean\": -1, \"cov\": 0.2}}}");
+        var run = cli.Run("assess", "--model", model);
+        Assert.Equal(ExitCodes.BadInput, run.ExitCode);
+        Assert.Contains("$.", run.Error, StringComparison.Ordinal);
+        Assert.DoesNotContain("   at ", run.Error, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void A_missing_register_is_a_register_error()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("site", "list", "-r", cli.PathOf("none.register"));
+        Assert.Equal(ExitCodes.RegisterError, run.ExitCode);
+    }
+
+    [Fact]
+    public void Verify_passes_every_case_and_writes_the_markdown_table()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("verify", "--json", "--write-doc", "v.md");
+        Assert.Equal(ExitCodes.Ok, run.ExitCode);
+        var doc = run.Json();
+        Assert.Equal(0, doc.GetProperty("failed").GetInt32());
+        Assert.True(doc.GetProperty("passed").GetInt32() >= 6);
+        Assert.Contains("| case | source |", File.ReadAllText(cli.PathOf("v.md")), StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Method_fit_from_the_shipped_trials_gives_a_curve_without_storing_on_dry_run()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("method", "fit", "ACFM-FIT", "--data", Path.Combine(SampleData, "qualification", "acfm-trials.csv"), "--sizing-sd-mm", "0.4", "--dry-run", "--json");
+        Assert.Equal(ExitCodes.Ok, run.ExitCode);
+        var fit = run.Json();
+        Assert.Equal(JsonValueKind.Null, fit.GetProperty("id").ValueKind);
+        Assert.True(fit.GetProperty("a90_at95_mm").GetDouble() > fit.GetProperty("a90_mm").GetDouble());
+    }
+}
