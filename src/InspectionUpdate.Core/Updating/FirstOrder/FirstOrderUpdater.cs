@@ -68,9 +68,16 @@ internal sealed class FirstOrderUpdater
                 flags, failure, failure.Evaluations + fn.Evaluations, failure.Converged ? null : failure.Diagnostic);
         }
 
-        _individualDenominator ??= GaussianConditioning.Orthant(ineq, eq);
-        // The individual result only checks the joint one (10 % agreement): 1 % integration accuracy is enough.
-        var individual = GaussianConditioning.Evaluate(failure, ineq, eq, _individualDenominator, relativeError: 1e-2);
+        // The individual result is the fallback where the joint search fails, and the agreement check of a joint
+        // result that nothing else has flagged; it is computed only then (a multinormal integral of the full
+        // dimension per time). 1 % integration accuracy is enough for the 10 % agreement check.
+        GaussianConditioning.Result? individualResult = null;
+        GaussianConditioning.Result Individual()
+        {
+            _individualDenominator ??= GaussianConditioning.Orthant(ineq, eq);
+            return individualResult ??= GaussianConditioning.Evaluate(failure, ineq, eq, _individualDenominator, relativeError: 1e-2);
+        }
+
         flags.AddRange(NonlinearityFlags(fn, failure));
         var evaluations = fn.Evaluations + _evidenceEvaluations;
 
@@ -93,7 +100,7 @@ internal sealed class FirstOrderUpdater
         {
             flags.Add("Joint design point: " + (numeratorPoint.Diagnostic ?? _denominatorPoint.Diagnostic));
             evaluations += all.Sum(f => f.Evaluations) - before;
-            return Finish(individual, failure, converged, reliable: false, joint: false, flags, evaluations);
+            return Finish(Individual(), failure, converged, reliable: false, joint: false, flags, evaluations);
         }
 
         _jointWarm[key] = numeratorPoint.U;
@@ -111,16 +118,22 @@ internal sealed class FirstOrderUpdater
         if (joint.Problem is not null)
         {
             flags.Add("Joint linearization: " + joint.Problem);
-            return Finish(individual, failure, converged, reliable: false, joint: false, flags, evaluations);
+            return Finish(Individual(), failure, converged, reliable: false, joint: false, flags, evaluations);
         }
 
-        var pi = individual.Problem is null ? individual.Conditional : double.NaN;
-        var pj = joint.Conditional;
-        var agree = double.IsFinite(pi) && Math.Abs(pj - pi) <= _options.FirstOrderAgreement * Math.Max(pj, pi);
-        if (!agree)
+        // An already flagged result is unreliable whatever the agreement, so the check is made only where it can
+        // still decide (the note then lists the departures without the agreement figures).
+        if (flags.Count == 0)
         {
-            flags.Add(FormattableString.Invariant(
-                $"Individual and joint linearizations disagree: {pi:G4} against {pj:G4}."));
+            var individual = Individual();
+            var pi = individual.Problem is null ? individual.Conditional : double.NaN;
+            var pj = joint.Conditional;
+            var agree = double.IsFinite(pi) && Math.Abs(pj - pi) <= _options.FirstOrderAgreement * Math.Max(pj, pi);
+            if (!agree)
+            {
+                flags.Add(FormattableString.Invariant(
+                    $"Individual and joint linearizations disagree: {pi:G4} against {pj:G4}."));
+            }
         }
 
         // Any flag (a departure of an event from its linearization, or the disagreement) marks the result unreliable.
