@@ -122,8 +122,15 @@ public static class MultivariateNormal
 
             case 3 when lowerInfinite && IsSafelyPositiveDefinite3(r):
                 {
-                    var (p, err) = TrivariateNormal.Cdf(b, r);
-                    return new MultinormalResult(p, err, "trivariate (Plackett reduction, adaptive Gauss–Kronrod)", 0) { Rank = 3, StandardError = err };
+                    // A nearly singular matrix can make the one-dimensional integrand too steep for the quadrature's
+                    // budget: then separation of variables below takes over.
+                    var (p, err, converged) = TrivariateNormal.Cdf(b, r);
+                    if (converged)
+                    {
+                        return new MultinormalResult(p, err, "trivariate (Plackett reduction, adaptive Gauss–Kronrod)", 0) { Rank = 3, StandardError = err };
+                    }
+
+                    break;
                 }
         }
 

@@ -30,6 +30,36 @@ public class MultivariateNormalTests
         return Integrate.DoubleExponential(F, -12, 12, 1e-16);
     }
 
+    /// <summary>
+    /// The one-factor integral of <see cref="OneFactorProbability"/> (lower bounds −∞) by 20-point Gauss–Legendre on
+    /// 4800 panels of width 0.005 over [−12, 12]: loadings near ±1 make the integrand steep (width √(1 − λ²)), which an
+    /// adaptive rule started on the whole line can step over.
+    /// </summary>
+    internal static double OneFactorProbabilityPanels(double[] loadings, double[] upper)
+    {
+        var rule = new MathNet.Numerics.Integration.GaussLegendreRule(-1, 1, 20);
+        const int panels = 4800;
+        const double width = 24.0 / panels;
+        var sum = 0.0;
+        for (var k = 0; k < panels; k++)
+        {
+            var mid = -12 + (k + 0.5) * width;
+            for (var j = 0; j < 20; j++)
+            {
+                var z = mid + 0.5 * width * rule.Abscissas[j];
+                var p = StandardNormal.Pdf(z);
+                for (var i = 0; i < loadings.Length; i++)
+                {
+                    p *= StandardNormal.Cdf((upper[i] - loadings[i] * z) / Math.Sqrt(1 - loadings[i] * loadings[i]));
+                }
+
+                sum += 0.5 * width * rule.Weights[j] * p;
+            }
+        }
+
+        return sum;
+    }
+
     internal static double[,] OneFactorCorrelation(double[] loadings)
     {
         var n = loadings.Length;
@@ -77,6 +107,23 @@ public class MultivariateNormalTests
             var expected = OneFactorProbability(l, Filled(3, double.NegativeInfinity), b);
             var result = MultivariateNormal.Cdf(b, OneFactorCorrelation(l));
             Assert.Equal(expected, result.Value, Math.Max(1e-14, 1e-11 * expected));
+        }
+
+        // The first row is a matrix met in updating a crack with two no-indication findings (the failure event is
+        // almost the complement of one finding): before the bounded quadrature this single call ran for minutes.
+        [Theory]
+        [Reference("Independent computation in the test: one-factor 1-D integral with MathNet double-exponential quadrature")]
+        [InlineData(0.99940, -0.79580, -0.99300, -2.4734, 1.8170, 2.1378)]
+        [InlineData(0.9999, -0.8, -0.9999, -1.0, 0.5, 1.2)]
+        [InlineData(0.999, 0.999, -0.5, -3.5, -3.4, 0.3)]
+        public void Nearly_singular_trivariate_matrices_stay_accurate(double l1, double l2, double l3, double b1, double b2, double b3)
+        {
+            double[] l = [l1, l2, l3];
+            double[] b = [b1, b2, b3];
+            var expected = OneFactorProbabilityPanels(l, b);
+            var result = MultivariateNormal.Cdf(b, OneFactorCorrelation(l), new MultinormalOptions { RelativeTolerance = 1e-4, AbsoluteTolerance = 1e-15 });
+            Assert.True(result.Converged, result.Diagnostic);
+            Assert.Equal(expected, result.Value, Math.Max(1e-13, 3e-4 * expected));
         }
 
         [Fact]
