@@ -84,4 +84,53 @@ public class CrackGrowthNoIndicationTests
         Assert.Equal(ComputationRoute.ImportanceSampling, auto.Route);
         Assert.Contains("first order flagged unreliable", auto.Note, StringComparison.Ordinal);
     }
+
+    [Fact]
+    [Trait("Category", "Statistical")]
+    [Reference("Closed form of the model: the crack grows monotonically, so F(t − 1) ⊂ F(t) and the exact updated Pf(t) never decreases; ΔPf against likelihood-weighted Monte Carlo of P(F(t) \\ F(t − 1) | no indication) done in the test")]
+    public void A_simulated_profile_never_decreases_and_its_annual_increments_match_Monte_Carlo()
+    {
+        const int samples = 400_000;
+        var model = TestModels.ParisCrack();
+        var t = new NatafTransformation(model.Inputs);
+        var rng = new Random(31);
+        var u = new double[3];
+        var x = new double[3];
+        double sw = 0, swd = 0, swd2 = 0;
+        for (var i = 0; i < samples; i++)
+        {
+            for (var k = 0; k < 3; k++) u[k] = StandardNormal.InverseCdf(rng.NextDouble());
+            t.ToPhysical(u, x);
+            var w = 1 - Pod.Evaluate(model.Size(x, InspectionYears));
+            sw += w;
+            if (model.Margin(x, AssessYears) <= 0 && model.Margin(x, AssessYears - 1) > 0)
+            {
+                swd += w;
+                swd2 += w * w;
+            }
+        }
+
+        var exactDelta = swd / sw;
+        // Ratio estimator standard error, Var(w·(1_D − p)) ≈ E[w²1_D](1 − 2p) + p²E[w²] ≤ E[w²1_D] + p²; p is small here.
+        var seDelta = Math.Sqrt(swd2 / samples + exactDelta * exactDelta) / Math.Sqrt(samples) / (sw / samples);
+
+        var profile = new ReliabilityUpdater(new UpdatingOptions { Route = UpdatingRoute.Simulation, Seed = 5 })
+            .Profile(model, [new NoIndication(InspectionYears, "N-10", TestModels.Method(Pod))], Enumerable.Range(0, 41).Select(i => 15 + 0.25 * i).ToArray(), "updated");
+
+        // Common random numbers across times: on this quarter-year grid, independent estimates at the 5 % CoV target
+        // give negative increments.
+        for (var i = 1; i < profile.Points.Count; i++)
+        {
+            Assert.True(profile.Points[i].CumulativePf >= profile.Points[i - 1].CumulativePf,
+                $"Pf({profile.Points[i].TimeYears}) = {profile.Points[i].CumulativePf:G5} < Pf({profile.Points[i - 1].TimeYears}) = {profile.Points[i - 1].CumulativePf:G5}");
+        }
+
+        var at = profile.Points.Single(p => p.TimeYears == AssessYears);
+        var before = profile.Points.Single(p => p.TimeYears == AssessYears - 1);
+        var delta = at.CumulativePf - before.CumulativePf;
+        // Without a covariance of the two estimates, their standard deviations add (the worst case for a difference).
+        var sdDelta = at.CoefficientOfVariation!.Value * at.CumulativePf + before.CoefficientOfVariation!.Value * before.CumulativePf;
+        Assert.True(Math.Abs(delta - exactDelta) <= 3 * sdDelta + 4 * seDelta,
+            $"ΔPf(20) {delta:G5} (sd ≤ {sdDelta:G3}) against Monte Carlo {exactDelta:G5} ± {seDelta:G3}");
+    }
 }
