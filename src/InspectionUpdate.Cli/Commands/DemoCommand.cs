@@ -60,7 +60,7 @@ public sealed class DemoCommand(CliHost host) : CliCommand<DemoSettings>(host)
         var findings = Build(demoHost, scenario, sampleData, registerPath, steps);
 
         var options = new ReportRunOptions(scenario.EvidenceDate, AnnualTarget.FromAnnualPf(scenario.TargetAnnualPf, AnnualMeasure.IntervalPf, scenario.TargetSource),
-            settings.Schedule, UpdatingRoute.FirstOrder, null);
+            settings.Schedule, UpdatingRoute.Auto, null);
         // Exit 0 once every step ran: numbers that did not converge are flagged in the summary and the reports.
         var (report, _) = ReportCommand.Produce(demoHost, registerPath, null, Path.Combine(outDir, "reports"), options, settings.Json, scenario.Title);
         steps.Add(new DemoStep("assess", "done", $"{report.Components.Count(r => r.Error is null)} of {report.Components.Count} components: prior and updated profiles"));

@@ -46,6 +46,13 @@ public sealed record UpdatingOptions
     /// <summary>Target coefficient of variation of a simulated updated Pf; above it the result is not converged. Default 0.05.</summary>
     public double TargetCoefficientOfVariation { get; init; } = 0.05;
 
+    /// <summary>
+    /// A simulated P(F | data) whose estimate plus three standard errors lies below this level stops sampling and
+    /// counts as converged (the note says so). Default 1e-9: two orders below the smallest annual target of the
+    /// JCSS Probabilistic Model Code table (β = 4.7, about 1.3e-6), so no planning decision depends on more digits.
+    /// </summary>
+    public double NegligibleProbability { get; init; } = 1e-9;
+
     /// <summary>Weight of the wide defensive component of the importance-sampling mixtures (Hesterberg 1995), in (0, 1). Default 0.1.</summary>
     public double DefensiveWeight { get; init; } = 0.1;
 
@@ -63,6 +70,11 @@ public sealed record UpdatingOptions
         if (!(TargetCoefficientOfVariation > 0 && TargetCoefficientOfVariation < 1))
         {
             throw new ArgumentOutOfRangeException(nameof(TargetCoefficientOfVariation), TargetCoefficientOfVariation, "Must lie in (0, 1).");
+        }
+
+        if (!(NegligibleProbability >= 0 && NegligibleProbability < 1))
+        {
+            throw new ArgumentOutOfRangeException(nameof(NegligibleProbability), NegligibleProbability, "Must lie in [0, 1).");
         }
 
         if (!(DefensiveWeight > 0 && DefensiveWeight < 1)) throw new ArgumentOutOfRangeException(nameof(DefensiveWeight), DefensiveWeight, "Must lie in (0, 1).");

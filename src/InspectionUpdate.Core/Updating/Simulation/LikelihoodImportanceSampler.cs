@@ -78,7 +78,9 @@ internal sealed class LikelihoodImportanceSampler
             }
 
             cov = CoefficientOfVariation(logW, null, out _);
-            if (cov <= _options.TargetCoefficientOfVariation || logW.Count + _options.SamplesPerBatch > _options.MaxSamples) break;
+            // The evidence is the denominator of every P(F | data): it gets half the CoV budget, so that the ratio can
+            // still reach the target (with equal shares the numerator alone could never bring the total under it).
+            if (cov <= EvidenceShare * _options.TargetCoefficientOfVariation || logW.Count + _options.SamplesPerBatch > _options.MaxSamples) break;
         }
 
         var logScale = logW.Max();
@@ -120,6 +122,13 @@ internal sealed class LikelihoodImportanceSampler
         var u = new double[_d];
         double cov;
         var wCentre = 1 - _options.DefensiveWeight;
+        long failures = 0;
+        string? stop = null;
+        var evidenceMean = evidence.Weights.Sum() / evidence.Weights.Length;
+        var pilot = true;
+        var recentred = 0;
+        var failureU = new List<double[]>();
+        var failureLogW = new List<double>();
         while (true)
         {
             for (var s = 0; s < _options.SamplesPerBatch; s++)
@@ -137,25 +146,104 @@ internal sealed class LikelihoodImportanceSampler
                     continue;
                 }
 
+                failures++;
                 var lp = LogPosterior(u);
                 evaluations += _events.Length;
                 logW.Add(lp - LogMixture(u, lap, centre));
+                if (pilot)
+                {
+                    failureU.Add((double[])u.Clone());
+                    failureLogW.Add(logW[^1]);
+                }
             }
 
             cov = CoefficientOfVariation(logW, null, out _);
-            if (cov <= _options.TargetCoefficientOfVariation || logW.Count + _options.SamplesPerBatch > _options.MaxSamples) break;
+            var covEvidence = evidence.Evidence.CoefficientOfVariation;
+            if (Math.Sqrt(cov * cov + covEvidence * covEvidence) <= _options.TargetCoefficientOfVariation
+                || logW.Count + _options.SamplesPerBatch > _options.MaxSamples) break;
+
+            // Two honest early stops, so that probabilities far below any decision level do not spend the sample cap:
+            // (1) many failures were drawn and every one contradicts the findings (zero likelihood), so F ∩ data is
+            // empty to working precision; (2) the estimate plus three standard errors lies below the negligible level.
+            if (failures >= ImpossibleAfterFailures && double.IsPositiveInfinity(cov))
+            {
+                stop = FormattableString.Invariant($"all {failures} sampled failures contradict the findings (zero likelihood): P(F | data) is 0 to working precision");
+                break;
+            }
+
+            var estimate = double.IsFinite(cov) ? RatioOf(logW, evidence.LogScale, evidenceMean) : double.NaN;
+            if (double.IsFinite(estimate) && estimate * (1 + 3 * Math.Sqrt(cov * cov + evidence.Evidence.CoefficientOfVariation * evidence.Evidence.CoefficientOfVariation)) < _options.NegligibleProbability)
+            {
+                stop = FormattableString.Invariant($"below the negligible level {_options.NegligibleProbability:G3} with three standard errors");
+                break;
+            }
+
+            // Cross-entropy steps (Rubinstein & Kroese 2004, the mean of the optimal density): where a pilot batch
+            // did not reach the target, the design point in posterior coordinates is a poor centre (the
+            // findings bend the failure region), so the centre moves to the weighted mean of the batch's failures
+            // and the estimate restarts from the new density; the pilot batch is not used in the estimate.
+            if (pilot)
+            {
+                var moved = WeightedMean(failureU, failureLogW);
+                failureU.Clear();
+                failureLogW.Clear();
+                pilot = moved is not null && recentred + 1 < CrossEntropySteps;
+                if (moved is not null)
+                {
+                    centre = moved;
+                    recentred++;
+                    logW.Clear();
+                    failures = 0;
+                    continue;
+                }
+            }
         }
 
-        var scale = evidence.LogScale;
-        var mean = logW.Sum(l => Math.Exp(l - scale)) / logW.Count;
-        var ratio = mean / (evidence.Weights.Sum() / evidence.Weights.Length);
+        var ratio = RatioOf(logW, evidence.LogScale, evidenceMean);
         var total = Math.Sqrt(cov * cov + evidence.Evidence.CoefficientOfVariation * evidence.Evidence.CoefficientOfVariation);
-        if (mean == 0) total = double.PositiveInfinity;
-        var converged = total <= _options.TargetCoefficientOfVariation && evidence.Evidence.Converged;
+        if (ratio == 0 && stop is null) total = double.PositiveInfinity;
+        var converged = (stop is not null || total <= _options.TargetCoefficientOfVariation) && evidence.Evidence.Converged;
         var note = FormattableString.Invariant($"likelihood-weighted importance sampling: {logW.Count} samples for P(F ∩ data), {evidence.Weights.Length} for P(data)")
             + (centre is null ? "; FORM in posterior coordinates failed, sampling around the posterior mode" : "")
+            + (recentred > 0 ? FormattableString.Invariant($"; sampling centre moved {recentred} time(s) to the weighted mean of a pilot batch's failures") : "")
+            + (stop is null ? "" : "; stopped early: " + stop)
             + (converged ? "" : FormattableString.Invariant($"; target CoV {_options.TargetCoefficientOfVariation:G3} not reached (CoV {total:G3})"));
         return new SimulatedValue(Math.Clamp(ratio, 0, 1), total, logW.Count + evidence.Weights.Length, evaluations + evidence.Evidence.Evaluations, converged, note);
+    }
+
+    /// <summary>Largest number of cross-entropy moves of the sampling centre (each costs one discarded batch).</summary>
+    private const int CrossEntropySteps = 2;
+
+    /// <summary>Share of the target CoV given to the evidence P(data), the common denominator.</summary>
+    private const double EvidenceShare = 0.5;
+
+    /// <summary>Smallest number of sampled failures, all of zero likelihood, that ends the sampling with P(F | data) = 0.</summary>
+    private const int ImpossibleAfterFailures = 2000;
+
+    /// <summary>Σ wᵢuᵢ / Σ wᵢ with wᵢ = exp(ln wᵢ), or null when no weight is positive.</summary>
+    private static double[]? WeightedMean(List<double[]> us, List<double> logW)
+    {
+        if (us.Count == 0) return null;
+        var top = logW.Max();
+        if (!double.IsFinite(top)) return null;
+        var mean = new double[us[0].Length];
+        var total = 0.0;
+        for (var k = 0; k < us.Count; k++)
+        {
+            var w = Math.Exp(logW[k] - top);
+            total += w;
+            for (var i = 0; i < mean.Length; i++) mean[i] += w * us[k][i];
+        }
+
+        for (var i = 0; i < mean.Length; i++) mean[i] /= total;
+        return mean;
+    }
+
+    private static double RatioOf(List<double> logW, double evidenceLogScale, double evidenceMean)
+    {
+        var mean = 0.0;
+        foreach (var l in logW) mean += Math.Exp(l - evidenceLogScale);
+        return mean / logW.Count / evidenceMean;
     }
 
     /// <summary>ln φ(u) + Σ ln L_k(x(u)); leaves x(u) in the scratch vector.</summary>
