@@ -18,6 +18,7 @@ public sealed class UpdatingSession
     private readonly NatafTransformation _transformation;
     private readonly LikelihoodImportanceSampler _sampler;
     private readonly Dictionary<string, double[]> _warm = new(StringComparer.Ordinal);
+    private readonly Dictionary<(string, double), (UpdatedEstimate, IReadOnlyList<double>?, IReadOnlyList<double>?, int)> _memo = [];
 
     internal UpdatingSession(UpdatingCase updatingCase, UpdatingOptions options)
     {
@@ -155,50 +156,60 @@ public sealed class UpdatingSession
     {
         lock (_gate)
         {
-            var pEvidenceKnown = !Model.Events.Any(e => e.Kind == EvidenceEventKind.Equality);
-            string? flagNote = null;
-            if (_options.Route != UpdatingRoute.Simulation)
-            {
-                var key = componentId + "#" + Model.RenewalStartYears(componentId, timeYears).ToString("R", System.Globalization.CultureInfo.InvariantCulture);
-                _warm.TryGetValue(key, out var warm);
-                var fo = _firstOrder.Estimate(componentId, timeYears, warm);
-                if (fo.Failure.Converged) _warm[key] = fo.Failure.PointU;
-                var flags = fo.Flags.Count == 0 ? null : string.Join(" ", fo.Flags);
-                if (_options.Route == UpdatingRoute.FirstOrder || fo.Reliable && fo.Converged)
-                {
-                    var note = (fo.Joint ? "linearized at the joint design points" : null) is { } j
-                        ? j + (flags is null ? "" : "; " + flags)
-                        : flags is null ? null : "first-order flags: " + flags;
-                    if (fo.Problem is not null) note = fo.Problem + (note is null ? "" : "; " + note);
-                    var x = new double[Model.Model.PhysicalDimension];
-                    _transformation.ToPhysical(fo.Failure.PointU, x);
-                    return (new UpdatedEstimate
-                    {
-                        CumulativePf = fo.Pf,
-                        Beta = -StandardNormal.InverseCdf(Math.Clamp(fo.Pf, 0, 1)),
-                        EvidenceProbability = fo.EvidenceProbability,
-                        Route = ComputationRoute.FirstOrder,
-                        Converged = fo.Converged && double.IsFinite(fo.Pf),
-                        CoefficientOfVariation = null,
-                        Note = note,
-                    }, fo.Failure.Alpha, x, fo.Evaluations);
-                }
+            // A planner asks for the same times again (the next inspection, then the remaining life on the same
+            // curve); every estimate is a deterministic function of (component, time) within a session.
+            if (_memo.TryGetValue((componentId, timeYears), out var known)) return known;
+            var result = EstimateUncached(componentId, timeYears);
+            _memo[(componentId, timeYears)] = result;
+            return result;
+        }
+    }
 
-                flagNote = "first order flagged unreliable, simulated instead: " + (fo.Problem ?? flags ?? "not converged");
+    private (UpdatedEstimate Estimate, IReadOnlyList<double>? Alpha, IReadOnlyList<double>? X, int Evaluations) EstimateUncached(string componentId, double timeYears)
+    {
+        var pEvidenceKnown = !Model.Events.Any(e => e.Kind == EvidenceEventKind.Equality);
+        string? flagNote = null;
+        if (_options.Route != UpdatingRoute.Simulation)
+        {
+            var key = componentId + "#" + Model.RenewalStartYears(componentId, timeYears).ToString("R", System.Globalization.CultureInfo.InvariantCulture);
+            _warm.TryGetValue(key, out var warm);
+            var fo = _firstOrder.Estimate(componentId, timeYears, warm);
+            if (fo.Failure.Converged) _warm[key] = fo.Failure.PointU;
+            var flags = fo.Flags.Count == 0 ? null : string.Join(" ", fo.Flags);
+            if (_options.Route == UpdatingRoute.FirstOrder || fo.Reliable && fo.Converged)
+            {
+                var note = (fo.Joint ? "linearized at the joint design points" : null) is { } j
+                    ? j + (flags is null ? "" : "; " + flags)
+                    : flags is null ? null : "first-order flags: " + flags;
+                if (fo.Problem is not null) note = fo.Problem + (note is null ? "" : "; " + note);
+                var x = new double[Model.Model.PhysicalDimension];
+                _transformation.ToPhysical(fo.Failure.PointU, x);
+                return (new UpdatedEstimate
+                {
+                    CumulativePf = fo.Pf,
+                    Beta = -StandardNormal.InverseCdf(Math.Clamp(fo.Pf, 0, 1)),
+                    EvidenceProbability = fo.EvidenceProbability,
+                    Route = ComputationRoute.FirstOrder,
+                    Converged = fo.Converged && double.IsFinite(fo.Pf),
+                    CoefficientOfVariation = null,
+                    Note = note,
+                }, fo.Failure.Alpha, x, fo.Evaluations);
             }
 
-            var sim = _sampler.Conditional(componentId, timeYears);
-            var ev = _sampler.Evidence().Evidence;
-            return (new UpdatedEstimate
-            {
-                CumulativePf = sim.Value,
-                Beta = -StandardNormal.InverseCdf(sim.Value),
-                EvidenceProbability = pEvidenceKnown ? ev.Value : double.NaN,
-                Route = ComputationRoute.ImportanceSampling,
-                Converged = sim.Converged,
-                CoefficientOfVariation = sim.CoefficientOfVariation,
-                Note = flagNote is null ? sim.Note : flagNote + "; " + sim.Note,
-            }, null, null, (int)Math.Min(int.MaxValue, sim.Evaluations));
+            flagNote = "first order flagged unreliable, simulated instead: " + (fo.Problem ?? flags ?? "not converged");
         }
+
+        var sim = _sampler.Conditional(componentId, timeYears);
+        var ev = _sampler.Evidence().Evidence;
+        return (new UpdatedEstimate
+        {
+            CumulativePf = sim.Value,
+            Beta = -StandardNormal.InverseCdf(sim.Value),
+            EvidenceProbability = pEvidenceKnown ? ev.Value : double.NaN,
+            Route = ComputationRoute.ImportanceSampling,
+            Converged = sim.Converged,
+            CoefficientOfVariation = sim.CoefficientOfVariation,
+            Note = flagNote is null ? sim.Note : flagNote + "; " + sim.Note,
+        }, null, null, (int)Math.Min(int.MaxValue, sim.Evaluations));
     }
 }

@@ -212,7 +212,7 @@ internal sealed class LikelihoodImportanceSampler
     }
 
     /// <summary>Largest number of cross-entropy moves of the sampling centre (each costs one discarded batch).</summary>
-    private const int CrossEntropySteps = 2;
+    private const int CrossEntropySteps = 4;
 
     /// <summary>Share of the target CoV given to the evidence P(data), the common denominator.</summary>
     private const double EvidenceShare = 0.5;
