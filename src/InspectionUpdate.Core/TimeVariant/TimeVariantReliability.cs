@@ -309,7 +309,10 @@ public static class TimeVariantReliability
     private static ProfilePoint MakePoint(double t, double pf, double previousPf, ComputationRoute route, bool converged, int evaluations,
         FormResult form, double? cov, string? note)
     {
-        var interval = pf - previousPf;
+        // A deterministic FORM profile has no CoV of its own; the check then allows 1e-3 relative.
+        var (interval, consistent, incrementNote) = ProfileIncrement.Of(pf, cov, previousPf, null);
+        converged &= consistent;
+        if (incrementNote is not null) note = note is null ? incrementNote : note + "; " + incrementNote;
         var survivor = 1 - previousPf;
         return new ProfilePoint
         {

@@ -64,6 +64,7 @@ public sealed class UpdatingSession
 
         var points = new List<ProfilePoint>(timesYears.Count);
         var prevPf = 0.0;
+        double? prevCov = null;
         var prevT = double.NegativeInfinity;
         foreach (var t in timesYears)
         {
@@ -71,9 +72,12 @@ public sealed class UpdatingSession
             var renewal = Model.RenewalStartYears(componentId, t);
             var restarted = renewal > 0 && renewal >= prevT;
             var basePf = restarted ? 0.0 : prevPf;
-            var interval = est.CumulativePf - basePf;
-            var hazard = basePf < 1 ? interval / (1 - basePf) : double.NaN;
             var note = est.Note;
+            var (interval, consistent, incrementNote) = ProfileIncrement.Of(est.CumulativePf, est.CoefficientOfVariation, basePf, restarted ? null : prevCov);
+            var converged = est.Converged && consistent;
+            if (incrementNote is not null) note = Append(note, incrementNote);
+
+            var hazard = basePf < 1 ? interval / (1 - basePf) : double.NaN;
             if (restarted && double.IsFinite(prevT))
             {
                 note = FormattableString.Invariant($"renewed by a repair at {renewal:0.###} y; ΔPf counts from the renewal") + (note is null ? "" : "; " + note);
@@ -87,7 +91,7 @@ public sealed class UpdatingSession
                 IntervalPf = interval,
                 Hazard = hazard,
                 Route = est.Route,
-                Converged = est.Converged,
+                Converged = converged,
                 CoefficientOfVariation = est.CoefficientOfVariation,
                 Evaluations = evaluations,
                 Alpha = alpha,
@@ -95,11 +99,14 @@ public sealed class UpdatingSession
                 Note = note,
             });
             prevPf = est.CumulativePf;
+            prevCov = est.CoefficientOfVariation;
             prevT = t;
         }
 
         return new ReliabilityProfile { Label = label, VariableNames = VariableNames, Points = points };
     }
+
+    private static string Append(string? note, string text) => note is null ? text : note + "; " + text;
 
     /// <summary>Posterior summaries of the model inputs given every finding (likelihood-weighted importance sampling).</summary>
     public PosteriorSummary Posterior()
