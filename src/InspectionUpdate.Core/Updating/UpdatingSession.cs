@@ -189,6 +189,7 @@ public sealed class UpdatingSession
                     ? j + (flags is null ? "" : "; " + flags)
                     : flags is null ? null : "first-order flags: " + flags;
                 if (fo.Problem is not null) note = fo.Problem + (note is null ? "" : "; " + note);
+                foreach (var certain in _firstOrder.CertainEventNotes) note = Append(note, certain);
                 var x = new double[Model.Model.PhysicalDimension];
                 _transformation.ToPhysical(fo.Failure.PointU, x);
                 return (new UpdatedEstimate

@@ -29,9 +29,10 @@ internal sealed class FirstOrderUpdater
     private readonly EvidenceModel _model;
     private readonly IProbabilityTransformation _transformation;
     private readonly UpdatingOptions _options;
-    private readonly EventFunction[] _events;
+    private EventFunction[] _events;
     private LinearizedEvent[]? _linear;
     private List<string>? _evidenceFlags;
+    private List<string>? _certainNotes;
     private int _evidenceEvaluations;
     private JointDesignPoint.Result? _denominatorPoint;
     private LinearizedEvent[]? _denominatorLinear;
@@ -48,6 +49,9 @@ internal sealed class FirstOrderUpdater
             .Select(e => new EventFunction(e.Name, e.Kind == EvidenceEventKind.Equality, e.Function, transformation))
             .ToArray();
     }
+
+    /// <summary>Evidence events left out because they hold almost surely (empty until the first estimate).</summary>
+    public IReadOnlyList<string> CertainEventNotes => _certainNotes ?? [];
 
     public FirstOrderEstimate Estimate(string componentId, double timeYears, IReadOnlyList<double>? warmStart)
     {
@@ -154,6 +158,27 @@ internal sealed class FirstOrderUpdater
         if (_linear is not null) return;
         _linear = _events.Select(e => e.LinearizeAtDesignPoint(_options.Form, null)).ToArray();
         _evidenceFlags = [];
+        _certainNotes = [];
+        var keep = new List<int>();
+        for (var i = 0; i < _events.Length; i++)
+        {
+            if (IsCertain(_events[i], _linear[i]))
+            {
+                _certainNotes.Add($"'{_linear[i].Name}' holds with probability above 1 − 1e-15 (e.g. a finding of nothing before degradation can start): it carries no information and is left out of the first-order events");
+            }
+            else
+            {
+                keep.Add(i);
+            }
+        }
+
+        if (keep.Count < _events.Length)
+        {
+            _evidenceEvaluations += _linear.Sum(l => l.Evaluations);
+            _events = keep.Select(i => _events[i]).ToArray();
+            _linear = keep.Select(i => _linear[i]).ToArray();
+        }
+
         foreach (var l in _linear.Where(l => !l.Converged)) _evidenceFlags.Add($"FORM on '{l.Name}' did not converge: {l.Diagnostic}");
         for (var i = 0; i < _events.Length; i++)
             for (var j = 0; j < _events.Length; j++)
@@ -166,7 +191,7 @@ internal sealed class FirstOrderUpdater
                 }
             }
 
-        _evidenceEvaluations = _linear.Sum(l => l.Evaluations) + _events.Sum(e => e.Evaluations);
+        _evidenceEvaluations += _linear.Sum(l => l.Evaluations) + _events.Sum(e => e.Evaluations);
     }
 
     private List<string> NonlinearityFlags(EventFunction fn, LinearizedEvent failure)
@@ -188,6 +213,21 @@ internal sealed class FirstOrderUpdater
 
         return flags;
     }
+
+    /// <summary>
+    /// True for an inequality that holds almost surely: its design point lies more than 8 (a complement probability
+    /// below Φ(−8) ≈ 6e-16) on the safe side, or FORM found no surface within that distance while the median point
+    /// satisfies it. Such an event (say, no indication before corrosion can start) has a flat likelihood of 1.
+    /// </summary>
+    private static bool IsCertain(EventFunction f, LinearizedEvent lin)
+    {
+        if (f.IsEquality) return false;
+        if (lin.Converged) return lin.Beta <= -CertainBeta;
+        var reach = Math.Sqrt(GaussianConditioning.Dot(lin.PointU, lin.PointU));
+        return reach >= CertainBeta && f.ValueAtU(new double[lin.PointU.Length]) < 0;
+    }
+
+    private const double CertainBeta = 8.0;
 
     /// <summary>
     /// True when the event's surface lies more than <paramref name="tolerance"/> (in u) from where its linearization
