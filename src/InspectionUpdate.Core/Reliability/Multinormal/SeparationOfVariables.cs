@@ -1,4 +1,5 @@
 using System.Globalization;
+using System.Runtime.InteropServices;
 using System.Runtime.Intrinsics;
 using InspectionUpdate.Probability;
 
@@ -398,16 +399,14 @@ internal sealed class SeparationOfVariables
         var dimension = w.Length;
         var sum = 0.0;
         var k = from;
+        var lanes = MemoryMarshal.Cast<Vector256<double>, double>(w4.AsSpan());
         for (; k + 4 <= to; k += 4)
         {
-            var weight0 = Transform(replicate, k, generator, kronecker, shifts, w);
-            for (var j = 0; j < dimension; j++) w4[j] = Vector256.Create(w[j], 0, 0, 0);
-            var weight1 = Transform(replicate, k + 1, generator, kronecker, shifts, w);
-            for (var j = 0; j < dimension; j++) w4[j] = w4[j].WithElement(1, w[j]);
-            var weight2 = Transform(replicate, k + 2, generator, kronecker, shifts, w);
-            for (var j = 0; j < dimension; j++) w4[j] = w4[j].WithElement(2, w[j]);
-            var weight3 = Transform(replicate, k + 3, generator, kronecker, shifts, w);
-            for (var j = 0; j < dimension; j++) w4[j] = w4[j].WithElement(3, w[j]);
+            // Coordinate j of lane i goes to lanes[4j + i], i.e. into element i of w4[j].
+            var weight0 = Transform(replicate, k, generator, kronecker, shifts, lanes, Vector256<double>.Count, 0);
+            var weight1 = Transform(replicate, k + 1, generator, kronecker, shifts, lanes, Vector256<double>.Count, 1);
+            var weight2 = Transform(replicate, k + 2, generator, kronecker, shifts, lanes, Vector256<double>.Count, 2);
+            var weight3 = Transform(replicate, k + 3, generator, kronecker, shifts, lanes, Vector256<double>.Count, 3);
             var f = Evaluate(w4, y4);
             // Added lane by lane in point order, so the sum is the same as one point at a time would give.
             sum += weight0 * f[0];
@@ -418,23 +417,27 @@ internal sealed class SeparationOfVariables
 
         for (; k < to; k++)
         {
-            var weight = Transform(replicate, k, generator, kronecker, shifts, w);
+            var weight = Transform(replicate, k, generator, kronecker, shifts, w, 1, 0);
             if (weight > 0) sum += weight * Evaluate(w, y);
         }
 
         return sum;
     }
 
-    /// <summary>Point k of a replicate, shifted and transformed, into <paramref name="w"/>; returns its weight (Jacobian).</summary>
-    private static double Transform(int replicate, long k, uint[] generator, double[] kronecker, List<double[][]> shifts, Span<double> w)
+    /// <summary>
+    /// Point k of a replicate, shifted and transformed; coordinate j goes to w[stride·j + offset]. Returns the point's
+    /// weight (the Jacobian of the transform).
+    /// </summary>
+    private static double Transform(int replicate, long k, uint[] generator, double[] kronecker, List<double[][]> shifts, Span<double> w, int stride, int offset)
     {
         const double scale = 1.0 / LatticeSequence.Points;
         var delta = shifts[(int)(k >> LatticeSequence.Log2Points)][replicate];
         var radicalInverse = LatticeSequence.RadicalInverse((uint)(k & (LatticeSequence.Points - 1)));
         var stored = generator.Length;
-        var smoothed = Math.Min(SmoothedCoordinates, w.Length);
+        var dimension = delta.Length;
+        var smoothed = Math.Min(SmoothedCoordinates, dimension);
         var weight = 1.0;
-        for (var j = 0; j < w.Length; j++)
+        for (var j = 0; j < dimension; j++)
         {
             var x = j < stored
                 ? LatticeSequence.Numerator(radicalInverse, generator[j]) * scale + delta[j]
@@ -443,13 +446,13 @@ internal sealed class SeparationOfVariables
             if (j < smoothed)
             {
                 weight *= 6 * x * (1 - x);
-                w[j] = x * x * (3 - 2 * x);
+                w[stride * j + offset] = x * x * (3 - 2 * x);
             }
             else
             {
                 // Baker's (tent) transform: lets the lattice rule's error behaviour for periodic integrands carry
                 // over to a non-periodic one (Hickernell 2002).
-                w[j] = Math.Abs(2 * x - 1);
+                w[stride * j + offset] = Math.Abs(2 * x - 1);
             }
         }
 
