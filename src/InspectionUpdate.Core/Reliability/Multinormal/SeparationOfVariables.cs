@@ -402,11 +402,21 @@ internal sealed class SeparationOfVariables
         var lanes = MemoryMarshal.Cast<Vector256<double>, double>(w4.AsSpan());
         for (; k + 4 <= to; k += 4)
         {
-            // Coordinate j of lane i goes to lanes[4j + i], i.e. into element i of w4[j].
-            var weight0 = Transform(replicate, k, generator, kronecker, shifts, lanes, Vector256<double>.Count, 0);
-            var weight1 = Transform(replicate, k + 1, generator, kronecker, shifts, lanes, Vector256<double>.Count, 1);
-            var weight2 = Transform(replicate, k + 2, generator, kronecker, shifts, lanes, Vector256<double>.Count, 2);
-            var weight3 = Transform(replicate, k + 3, generator, kronecker, shifts, lanes, Vector256<double>.Count, 3);
+            double weight0, weight1, weight2, weight3;
+            if (generator.Length == dimension && (k >> LatticeSequence.Log2Points) == ((k + 3) >> LatticeSequence.Log2Points))
+            {
+                var weights = Transform4(replicate, k, generator, shifts, w4);
+                (weight0, weight1, weight2, weight3) = (weights[0], weights[1], weights[2], weights[3]);
+            }
+            else
+            {
+                // Coordinate j of lane i goes to lanes[4j + i], i.e. into element i of w4[j].
+                weight0 = Transform(replicate, k, generator, kronecker, shifts, lanes, Vector256<double>.Count, 0);
+                weight1 = Transform(replicate, k + 1, generator, kronecker, shifts, lanes, Vector256<double>.Count, 1);
+                weight2 = Transform(replicate, k + 2, generator, kronecker, shifts, lanes, Vector256<double>.Count, 2);
+                weight3 = Transform(replicate, k + 3, generator, kronecker, shifts, lanes, Vector256<double>.Count, 3);
+            }
+
             var f = Evaluate(w4, y4);
             // Added lane by lane in point order, so the sum is the same as one point at a time would give.
             sum += weight0 * f[0];
@@ -422,6 +432,42 @@ internal sealed class SeparationOfVariables
         }
 
         return sum;
+    }
+
+    /// <summary>
+    /// <see cref="Transform"/> for points k … k + 3 of one pass through the lattice, all coordinates from the stored
+    /// vector, one point per lane; the same operations in the same order, so the same numbers.
+    /// </summary>
+    private static Vector256<double> Transform4(int replicate, long k, uint[] generator, List<double[][]> shifts, Span<Vector256<double>> w)
+    {
+        const double scale = 1.0 / LatticeSequence.Points;
+        var delta = shifts[(int)(k >> LatticeSequence.Log2Points)][replicate];
+        const uint mask = LatticeSequence.Points - 1;
+        var radicalInverse = Vector256.Create(
+            (ulong)LatticeSequence.RadicalInverse((uint)(k & mask)),
+            LatticeSequence.RadicalInverse((uint)((k + 1) & mask)),
+            LatticeSequence.RadicalInverse((uint)((k + 2) & mask)),
+            LatticeSequence.RadicalInverse((uint)((k + 3) & mask)));
+        var smoothed = Math.Min(SmoothedCoordinates, delta.Length);
+        var weight = Vector256<double>.One;
+        var one = Vector256<double>.One;
+        for (var j = 0; j < delta.Length; j++)
+        {
+            var numerator = (radicalInverse * Vector256.Create((ulong)generator[j])) & Vector256.Create((ulong)mask);
+            var x = Vector256.ConvertToDouble(numerator) * Vector256.Create(scale) + Vector256.Create(delta[j]);
+            x -= Vector256.Floor(x);
+            if (j < smoothed)
+            {
+                weight *= Vector256.Create(6.0) * x * (one - x);
+                w[j] = x * x * (Vector256.Create(3.0) - Vector256.Create(2.0) * x);
+            }
+            else
+            {
+                w[j] = Vector256.Abs(Vector256.Create(2.0) * x - one);
+            }
+        }
+
+        return weight;
     }
 
     /// <summary>
