@@ -222,6 +222,24 @@ public class MultivariateNormalTests
         }
 
         [Fact]
+        [Trait("Category", "Statistical")]
+        [Reference("Independent computation in the test: one-factor 1-D integral with MathNet double-exponential quadrature")]
+        public void Beyond_one_pass_through_the_lattice_the_estimate_stays_consistent()
+        {
+            // A tolerance no rule can meet, so the run uses its whole budget: 2^17 points per shift, i.e. a second
+            // pass through the 2^16-point lattice with fresh shifts.
+            double[] l = [0.7, -0.4, 0.6, 0.5, 0.8];
+            double[] b = [0.3, -0.2, 1.1, -0.6, 0.4];
+            var expected = OneFactorProbability(l, Filled(5, double.NegativeInfinity), b);
+            var options = new MultinormalOptions { AbsoluteTolerance = 1e-16, RelativeTolerance = 0, MaxEvaluations = 10L << 17 };
+            var result = MultivariateNormal.Cdf(b, OneFactorCorrelation(l), options);
+            Assert.False(result.Converged);
+            Assert.Equal(10L << 17, result.Evaluations);
+            Assert.InRange(result.Value, expected - 4 * result.StandardError - 1e-13, expected + 4 * result.StandardError + 1e-13);
+            Assert.True(result.StandardError < 1e-7, $"{result.StandardError:G3}");
+        }
+
+        [Fact]
         [Reference("Determinism by construction: each shift's sum runs over the points in a fixed order whatever thread computes it")]
         public void Concurrent_calls_give_the_same_value_as_a_lone_call()
         {
