@@ -11,8 +11,9 @@ namespace InspectionUpdate.Reliability.Multinormal;
 /// <para>Closed forms and deterministic quadrature where they exist: n = 1 (Φ), n = 2 (<see cref="BivariateNormal"/>),
 /// n = 3 (Plackett's reduction to a one-dimensional integral, as in Genz 2004).</para>
 /// <para>Otherwise Genz's (1992, J. Comput. Graph. Stat. 1:141–150) separation of variables: a Cholesky factor
-/// turns the integral into one over the unit cube of dimension rank − 1, integrated by a Richtmyer (Kronecker) lattice
-/// with random shifts, the baker's (tent) periodization and antithetic points; the error estimate comes from the
+/// turns the integral into one over the unit cube of dimension rank − 1, integrated by an embedded rank-1 lattice rule
+/// (component-by-component generating vector, Cools, Kuo &amp; Nuyens 2006) with random shifts, a polynomial smoothing
+/// of the two leading coordinates and the baker's (tent) transform of the others; the error estimate comes from the
 /// spread over the shifts. The variables are reordered while factorizing (Genz &amp; Bretz 2009, §4.1.3: at each step
 /// the variable with the smallest conditional probability comes next). The factorization is rank-revealing: a
 /// variable whose conditional variance falls below <see cref="MultinormalOptions.SingularityTolerance"/> (e.g. two

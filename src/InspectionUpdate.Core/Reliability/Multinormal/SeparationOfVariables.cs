@@ -1,11 +1,14 @@
 using System.Globalization;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
+using System.Runtime.Intrinsics;
 using InspectionUpdate.Probability;
 
 namespace InspectionUpdate.Reliability.Multinormal;
 
 /// <summary>
 /// Genz's (1992) separation-of-variables transform of a multivariate normal rectangle probability, with the
-/// prioritized, rank-revealing Cholesky factorization and randomized Richtmyer lattice integration.
+/// prioritized, rank-revealing Cholesky factorization and integration by a randomly shifted embedded lattice rule.
 /// </summary>
 internal sealed class SeparationOfVariables
 {
@@ -14,17 +17,27 @@ internal sealed class SeparationOfVariables
 
     private readonly int _rank;
     private readonly int[] _groupStart;
-    private readonly double[][] _coefficients;
     private readonly double[] _lower;
     private readonly double[] _upper;
+
+    // Row k's coefficients at [k·rank, k·rank + level]; the reciprocal of its last (pivot) coefficient apart.
+    private readonly double[] _flatCoefficients;
+    private readonly double[] _inverseDiagonal;
 
     private SeparationOfVariables(int rank, int[] groupStart, double[][] coefficients, double[] lower, double[] upper)
     {
         _rank = rank;
         _groupStart = groupStart;
-        _coefficients = coefficients;
         _lower = lower;
         _upper = upper;
+        _flatCoefficients = new double[coefficients.Length * rank];
+        _inverseDiagonal = new double[coefficients.Length];
+        for (var k = 0; k < coefficients.Length; k++)
+        {
+            var coef = coefficients[k];
+            coef.CopyTo(_flatCoefficients, k * rank);
+            _inverseDiagonal[k] = 1 / coef[^1];
+        }
     }
 
     public static MultinormalResult Integrate(double[] a, double[] b, double[,] r, MultinormalOptions options)
@@ -36,7 +49,7 @@ internal sealed class SeparationOfVariables
         var dimension = sov._rank - 1;
         if (dimension == 0)
         {
-            var exact = sov.Evaluate([], []);
+            var exact = sov.Evaluate(ReadOnlySpan<double>.Empty, Span<double>.Empty);
             return new MultinormalResult(exact, 1e-15, "exact (rank 1 after pivoted Cholesky)", 1) { Rank = 1, StandardError = 1e-15, Diagnostic = note };
         }
 
@@ -176,19 +189,26 @@ internal sealed class SeparationOfVariables
     private double Evaluate(ReadOnlySpan<double> w, Span<double> y)
     {
         var product = 1.0;
-        for (var j = 0; j < _rank; j++)
+        var rank = _rank;
+        var coefficients = _flatCoefficients;
+        var inverseDiagonal = _inverseDiagonal;
+        var lower = _lower;
+        var upper = _upper;
+        for (var j = 0; j < rank; j++)
         {
             var lo = double.NegativeInfinity;
             var hi = double.PositiveInfinity;
+            var yj = y[..j];
             for (var k = _groupStart[j]; k < _groupStart[j + 1]; k++)
             {
-                var coef = _coefficients[k];
+                var row = coefficients.AsSpan(k * rank, j);
                 var s = 0.0;
-                for (var l = 0; l < j; l++) s += coef[l] * y[l];
-                var cj = coef[j];
-                var ak = (_lower[k] - s) / cj;
-                var bk = (_upper[k] - s) / cj;
-                if (cj < 0) (ak, bk) = (bk, ak);
+                for (var l = 0; l < row.Length; l++) s += row[l] * yj[l];
+                // Multiplying by the stored reciprocal instead of dividing: the pivots do not change between points.
+                var inverse = inverseDiagonal[k];
+                var ak = (lower[k] - s) * inverse;
+                var bk = (upper[k] - s) * inverse;
+                if (inverse < 0) (ak, bk) = (bk, ak);
                 if (ak > lo) lo = ak;
                 if (bk < hi) hi = bk;
             }
@@ -200,14 +220,14 @@ internal sealed class SeparationOfVariables
                 var qLo = FastNormal.Ccdf(lo);
                 var qHi = hi < MaxBound ? FastNormal.Ccdf(hi) : 0;
                 mass = qLo - qHi;
-                if (j < _rank - 1) y[j] = -InverseCdf(qLo - w[j] * mass);
+                if (j < rank - 1) y[j] = -InverseCdf(qLo - w[j] * mass);
             }
             else
             {
                 var pLo = lo > -MaxBound ? FastNormal.Cdf(lo) : 0;
                 var pHi = hi < MaxBound ? FastNormal.Cdf(hi) : 1;
                 mass = pHi - pLo;
-                if (j < _rank - 1) y[j] = InverseCdf(pLo + w[j] * mass);
+                if (j < rank - 1) y[j] = InverseCdf(pLo + w[j] * mass);
             }
 
             product *= mass;
@@ -224,23 +244,148 @@ internal sealed class SeparationOfVariables
         return Math.Clamp(FastNormal.InverseCdf(p), -MaxBound, MaxBound);
     }
 
-    private MultinormalResult RandomizedLattice(int dimension, MultinormalOptions options, string? note)
+    /// <summary>
+    /// <see cref="Evaluate(ReadOnlySpan{double}, Span{double})"/> at four points at once, one per vector lane.
+    /// </summary>
+    /// <param name="w">Coordinate j of the four points in w[j].</param>
+    /// <param name="y">Scratch of length rank.</param>
+    private Vector256<double> Evaluate(ReadOnlySpan<Vector256<double>> w, Span<Vector256<double>> y)
     {
-        var generator = RichtmyerGenerator(dimension);
-        var shifts = options.RandomShifts;
-        var random = new Random(options.Seed);
-        var shift = new double[shifts][];
-        for (var s = 0; s < shifts; s++)
+        var product = Vector256<double>.One;
+        for (var j = 0; j < _rank; j++)
         {
-            shift[s] = new double[dimension];
-            for (var j = 0; j < dimension; j++) shift[s][j] = random.NextDouble();
+            var (lo, hi) = Bounds(j, y);
+            var (flip, a, b) = Reflect(lo, hi, ref product);
+            var mass = UpperMass(b) - LowerMass(a, out var pLo);
+            if (j < _rank - 1) y[j] = Draw(flip, w[j], pLo, mass);
+            product *= mass;
+            if (Vector256.LessThanOrEqualAll(product, Vector256<double>.Zero)) return Vector256<double>.Zero;
         }
 
-        var sums = new double[shifts];
+        return Vector256.Max(product, Vector256<double>.Zero);
+    }
+
+    /// <summary>
+    /// The vector <see cref="Evaluate(ReadOnlySpan{Vector256{double}}, Span{Vector256{double}})"/> for two groups of
+    /// four points, step by step side by side: within a point the chain Φ → Φ⁻¹ → next bound is sequential, and a
+    /// second independent chain next to it keeps the floating-point units busy while the first waits (measured: two
+    /// chains of vector Φ run 1.8 times faster than one). The same operations per lane, so the same numbers.
+    /// </summary>
+    private void Evaluate(
+        ReadOnlySpan<Vector256<double>> wA, ReadOnlySpan<Vector256<double>> wB, Span<Vector256<double>> yA, Span<Vector256<double>> yB,
+        out Vector256<double> fA, out Vector256<double> fB)
+    {
+        var productA = Vector256<double>.One;
+        var productB = Vector256<double>.One;
+        for (var j = 0; j < _rank; j++)
+        {
+            var (loA, hiA) = Bounds(j, yA);
+            var (loB, hiB) = Bounds(j, yB);
+            var (flipA, aA, bA) = Reflect(loA, hiA, ref productA);
+            var (flipB, aB, bB) = Reflect(loB, hiB, ref productB);
+            var massA = UpperMass(bA);
+            var massB = UpperMass(bB);
+            massA -= LowerMass(aA, out var pLoA);
+            massB -= LowerMass(aB, out var pLoB);
+            if (j < _rank - 1)
+            {
+                yA[j] = Draw(flipA, wA[j], pLoA, massA);
+                yB[j] = Draw(flipB, wB[j], pLoB, massB);
+            }
+
+            productA *= massA;
+            productB *= massB;
+            if (Vector256.LessThanOrEqualAll(productA, Vector256<double>.Zero) && Vector256.LessThanOrEqualAll(productB, Vector256<double>.Zero)) break;
+        }
+
+        fA = Vector256.Max(productA, Vector256<double>.Zero);
+        fB = Vector256.Max(productB, Vector256<double>.Zero);
+    }
+
+    /// <summary>The integration interval of step j for four points, given their earlier y.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private (Vector256<double> Lo, Vector256<double> Hi) Bounds(int j, ReadOnlySpan<Vector256<double>> y)
+    {
+        var rank = _rank;
+        var lo = Vector256.Create(double.NegativeInfinity);
+        var hi = Vector256.Create(double.PositiveInfinity);
+        for (var k = _groupStart[j]; k < _groupStart[j + 1]; k++)
+        {
+            var row = _flatCoefficients.AsSpan(k * rank, j);
+            var s = Vector256<double>.Zero;
+            for (var l = 0; l < row.Length; l++) s += Vector256.Create(row[l]) * y[l];
+            var inverse = _inverseDiagonal[k];
+            var ak = (Vector256.Create(_lower[k]) - s) * Vector256.Create(inverse);
+            var bk = (Vector256.Create(_upper[k]) - s) * Vector256.Create(inverse);
+            if (inverse < 0) (ak, bk) = (bk, ak);
+            lo = Vector256.Max(lo, ak);
+            hi = Vector256.Min(hi, bk);
+        }
+
+        return (lo, hi);
+    }
+
+    /// <summary>
+    /// Zeroes the product of empty lanes (giving them harmless finite bounds, so no NaN reaches it) and reflects the
+    /// lanes with lo &gt; 0 (x → −x), so that both Φ values are taken in the lower tail where they do not cancel.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static (Vector256<double> Flip, Vector256<double> A, Vector256<double> B) Reflect(Vector256<double> lo, Vector256<double> hi, ref Vector256<double> product)
+    {
+        var empty = ~Vector256.GreaterThan(hi, lo);
+        product = Vector256.ConditionalSelect(empty, Vector256<double>.Zero, product);
+        lo = Vector256.ConditionalSelect(empty, Vector256<double>.Zero, lo);
+        hi = Vector256.ConditionalSelect(empty, Vector256<double>.One, hi);
+        var flip = Vector256.GreaterThan(lo, Vector256<double>.Zero);
+        return (flip, Vector256.ConditionalSelect(flip, -hi, lo), Vector256.ConditionalSelect(flip, -lo, hi));
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static Vector256<double> LowerMass(Vector256<double> a, out Vector256<double> pLo)
+    {
+        var bound = Vector256.Create(MaxBound);
+        pLo = Vector256.LessThanOrEqualAll(a, -bound) ? Vector256<double>.Zero : FastNormal.Cdf(Vector256.Max(a, -bound), MaxBound);
+        return pLo;
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static Vector256<double> UpperMass(Vector256<double> b)
+    {
+        var bound = Vector256.Create(MaxBound);
+        return Vector256.GreaterThanOrEqualAll(b, bound) ? Vector256<double>.One : FastNormal.Cdf(Vector256.Min(b, bound), MaxBound);
+    }
+
+    /// <summary>y = Φ⁻¹(pLo + w·mass), reflected back for the reflected lanes.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static Vector256<double> Draw(Vector256<double> flip, Vector256<double> w, Vector256<double> pLo, Vector256<double> mass)
+    {
+        var wj = Vector256.ConditionalSelect(flip, Vector256<double>.One - w, w);
+        var yj = FastNormal.InverseCdf(pLo + wj * mass, MaxBound);
+        return Vector256.ConditionalSelect(flip, -yj, yj);
+    }
+
+    /// <summary>
+    /// Randomly shifted embedded lattice rule (<see cref="LatticeSequence"/>): each of the independent replicates adds
+    /// its own uniform shift to the same points, so the replicate means are independent and unbiased, and their spread
+    /// is an honest error estimate. The number of points per replicate doubles until three standard errors meet the
+    /// tolerance; doubling keeps the rule a complete lattice and reuses the points already evaluated.
+    /// </summary>
+    private MultinormalResult RandomizedLattice(int dimension, MultinormalOptions options, string? note)
+    {
+        var stored = Math.Min(dimension, LatticeSequence.Dimension);
+        var generator = LatticeSequence.GeneratingVector[..stored].ToArray();
+        var kronecker = KroneckerGenerator(dimension);
+        var replicates = options.RandomShifts;
+        var random = new Random(options.Seed);
+        // shifts[b][s]: shift of replicate s for the b-th pass through the 2^16 lattice points. Passes after the first
+        // use fresh shifts, so the replicates stay independent when more points are needed than the lattice has.
+        var shifts = new List<double[][]>();
+        AddPass(shifts, random, replicates, dimension);
+
+        var sums = new double[replicates];
         long points = 0;
-        long target = 64;
-        var perPointCost = 2L * shifts;
-        var maxPoints = Math.Max(options.MaxEvaluations / perPointCost, 1);
+        long target = 1L << LatticeSequence.Log2MinPoints;
+        var maxPoints = Math.Max(options.MaxEvaluations / replicates, 1);
         double estimate, standardError;
         var converged = false;
 
@@ -248,28 +393,23 @@ internal sealed class SeparationOfVariables
         {
             var from = points;
             var to = Math.Min(target, maxPoints);
-            Parallel.For(0, shifts, () => (W: new double[dimension], V: new double[dimension], Y: new double[_rank]), (s, _, scratch) =>
+            while (((to - 1) >> LatticeSequence.Log2Points) >= shifts.Count) AddPass(shifts, random, replicates, dimension);
+
+            // Each replicate's sum runs over the points in the same order whichever thread computes it, so the result
+            // does not depend on the number of threads. Small rounds are not worth the cost of starting tasks.
+            if ((to - from) * replicates >= ParallelThreshold)
             {
-                var sum = 0.0;
-                var delta = shift[s];
-                for (var k = from + 1; k <= to; k++)
+                Parallel.For(0, replicates, () => new Scratch(dimension, _rank), (s, _, scratch) =>
                 {
-                    for (var j = 0; j < dimension; j++)
-                    {
-                        var x = k * generator[j] + delta[j];
-                        x -= Math.Floor(x);
-                        // Baker's (tent) periodization; the antithetic point is 1 − w.
-                        var t = Math.Abs(2 * x - 1);
-                        scratch.W[j] = t;
-                        scratch.V[j] = 1 - t;
-                    }
-
-                    sum += 0.5 * (Evaluate(scratch.W, scratch.Y) + Evaluate(scratch.V, scratch.Y));
-                }
-
-                sums[s] += sum;
-                return scratch;
-            }, _ => { });
+                    sums[s] += SumOverPoints(s, from, to, generator, kronecker, shifts, scratch);
+                    return scratch;
+                }, _ => { });
+            }
+            else
+            {
+                var scratch = new Scratch(dimension, _rank);
+                for (var s = 0; s < replicates; s++) sums[s] += SumOverPoints(s, from, to, generator, kronecker, shifts, scratch);
+            }
 
             points = to;
             (estimate, standardError) = MeanAndStandardError(sums, points);
@@ -284,17 +424,180 @@ internal sealed class SeparationOfVariables
             target = Math.Min(2 * points, maxPoints);
         }
 
-        var method = string.Create(CultureInfo.InvariantCulture, $"Genz separation of variables, randomized Richtmyer lattice ({shifts} shifts, dimension {dimension})");
+        var method = string.Create(CultureInfo.InvariantCulture, $"Genz separation of variables, randomly shifted embedded lattice rule ({replicates} shifts, dimension {dimension})");
         var diagnostic = converged
             ? note
             : string.Create(CultureInfo.InvariantCulture, $"Tolerance not met within {options.MaxEvaluations} evaluations (error estimate {3 * standardError:G3}).") + (note is null ? "" : " " + note);
-        return new MultinormalResult(Math.Clamp(estimate, 0, 1), 3 * standardError, method, points * perPointCost)
+        return new MultinormalResult(Math.Clamp(estimate, 0, 1), 3 * standardError, method, points * replicates)
         {
             Converged = converged,
             Diagnostic = diagnostic,
             Rank = _rank,
             StandardError = standardError,
         };
+    }
+
+    private const long ParallelThreshold = 4096;
+
+    /// <summary>
+    /// Coordinates transformed by the cubic w = x²(3 − 2x) (weight 6x(1 − x)) instead of the baker's transform.
+    /// </summary>
+    /// <remarks>
+    /// The separated integrand has unbounded derivatives where wⱼ → 0 or 1 (Φ⁻¹ grows faster than the later
+    /// conditional probabilities flatten), worst in the leading coordinates that every later factor depends on. The
+    /// cubic's vanishing derivative at both ends smooths those out; on all coordinates its weight would multiply the
+    /// variance instead (measured on the n = 10 equicorrelated cases: two coordinates halved the points needed for
+    /// 1e-5, all coordinates made it worse).
+    /// </remarks>
+    private const int SmoothedCoordinates = 2;
+
+    private double SumOverPoints(int replicate, long from, long to, uint[] generator, double[] kronecker, List<double[][]> shifts, Scratch scratch)
+    {
+        var w = scratch.W;
+        var y = scratch.Y;
+        var sum = 0.0;
+        var k = from;
+        for (; k + 8 <= to; k += 8)
+        {
+            var weightsA = Fill(replicate, k, generator, kronecker, shifts, scratch.W4);
+            var weightsB = Fill(replicate, k + 4, generator, kronecker, shifts, scratch.W4B);
+            Evaluate(scratch.W4, scratch.W4B, scratch.Y4, scratch.Y4B, out var fA, out var fB);
+            // Added lane by lane in point order, so the sum is the same as one point at a time would give.
+            for (var i = 0; i < Vector256<double>.Count; i++) sum += weightsA[i] * fA[i];
+            for (var i = 0; i < Vector256<double>.Count; i++) sum += weightsB[i] * fB[i];
+        }
+
+        for (; k + 4 <= to; k += 4)
+        {
+            var weights = Fill(replicate, k, generator, kronecker, shifts, scratch.W4);
+            var f = Evaluate(scratch.W4, scratch.Y4);
+            for (var i = 0; i < Vector256<double>.Count; i++) sum += weights[i] * f[i];
+        }
+
+        for (; k < to; k++)
+        {
+            var weight = Transform(replicate, k, generator, kronecker, shifts, w, 1, 0);
+            if (weight > 0) sum += weight * Evaluate(w, y);
+        }
+
+        return sum;
+    }
+
+    /// <summary>Points k … k + 3 into the lanes of <paramref name="w4"/>; returns their weights.</summary>
+    private static Vector256<double> Fill(int replicate, long k, uint[] generator, double[] kronecker, List<double[][]> shifts, Vector256<double>[] w4)
+    {
+        var dimension = w4.Length;
+        if (generator.Length == dimension && (k >> LatticeSequence.Log2Points) == ((k + 3) >> LatticeSequence.Log2Points))
+        {
+            return Transform4(replicate, k, generator, shifts, w4);
+        }
+
+        // Coordinate j of lane i goes to lanes[4j + i], i.e. into element i of w4[j].
+        var lanes = MemoryMarshal.Cast<Vector256<double>, double>(w4.AsSpan());
+        const int stride = 4;
+        return Vector256.Create(
+            Transform(replicate, k, generator, kronecker, shifts, lanes, stride, 0),
+            Transform(replicate, k + 1, generator, kronecker, shifts, lanes, stride, 1),
+            Transform(replicate, k + 2, generator, kronecker, shifts, lanes, stride, 2),
+            Transform(replicate, k + 3, generator, kronecker, shifts, lanes, stride, 3));
+    }
+
+    /// <summary>
+    /// <see cref="Transform"/> for points k … k + 3 of one pass through the lattice, all coordinates from the stored
+    /// vector, one point per lane; the same operations in the same order, so the same numbers.
+    /// </summary>
+    private static Vector256<double> Transform4(int replicate, long k, uint[] generator, List<double[][]> shifts, Span<Vector256<double>> w)
+    {
+        const double scale = 1.0 / LatticeSequence.Points;
+        var delta = shifts[(int)(k >> LatticeSequence.Log2Points)][replicate];
+        const uint mask = LatticeSequence.Points - 1;
+        var radicalInverse = Vector256.Create(
+            (ulong)LatticeSequence.RadicalInverse((uint)(k & mask)),
+            LatticeSequence.RadicalInverse((uint)((k + 1) & mask)),
+            LatticeSequence.RadicalInverse((uint)((k + 2) & mask)),
+            LatticeSequence.RadicalInverse((uint)((k + 3) & mask)));
+        var smoothed = Math.Min(SmoothedCoordinates, delta.Length);
+        var weight = Vector256<double>.One;
+        var one = Vector256<double>.One;
+        for (var j = 0; j < delta.Length; j++)
+        {
+            var numerator = (radicalInverse * Vector256.Create((ulong)generator[j])) & Vector256.Create((ulong)mask);
+            var x = Vector256.ConvertToDouble(numerator) * Vector256.Create(scale) + Vector256.Create(delta[j]);
+            x -= Vector256.Floor(x);
+            if (j < smoothed)
+            {
+                weight *= Vector256.Create(6.0) * x * (one - x);
+                w[j] = x * x * (Vector256.Create(3.0) - Vector256.Create(2.0) * x);
+            }
+            else
+            {
+                w[j] = Vector256.Abs(Vector256.Create(2.0) * x - one);
+            }
+        }
+
+        return weight;
+    }
+
+    /// <summary>
+    /// Point k of a replicate, shifted and transformed; coordinate j goes to w[stride·j + offset]. Returns the point's
+    /// weight (the Jacobian of the transform).
+    /// </summary>
+    private static double Transform(int replicate, long k, uint[] generator, double[] kronecker, List<double[][]> shifts, Span<double> w, int stride, int offset)
+    {
+        const double scale = 1.0 / LatticeSequence.Points;
+        var delta = shifts[(int)(k >> LatticeSequence.Log2Points)][replicate];
+        var radicalInverse = LatticeSequence.RadicalInverse((uint)(k & (LatticeSequence.Points - 1)));
+        var stored = generator.Length;
+        var dimension = delta.Length;
+        var smoothed = Math.Min(SmoothedCoordinates, dimension);
+        var weight = 1.0;
+        for (var j = 0; j < dimension; j++)
+        {
+            var x = j < stored
+                ? LatticeSequence.Numerator(radicalInverse, generator[j]) * scale + delta[j]
+                : k * kronecker[j] + delta[j];
+            x -= Math.Floor(x);
+            if (j < smoothed)
+            {
+                weight *= 6 * x * (1 - x);
+                w[stride * j + offset] = x * x * (3 - 2 * x);
+            }
+            else
+            {
+                // Baker's (tent) transform: lets the lattice rule's error behaviour for periodic integrands carry
+                // over to a non-periodic one (Hickernell 2002).
+                w[stride * j + offset] = Math.Abs(2 * x - 1);
+            }
+        }
+
+        return weight;
+    }
+
+    private static void AddPass(List<double[][]> shifts, Random random, int replicates, int dimension)
+    {
+        var pass = new double[replicates][];
+        for (var s = 0; s < replicates; s++)
+        {
+            pass[s] = new double[dimension];
+            for (var j = 0; j < dimension; j++) pass[s][j] = random.NextDouble();
+        }
+
+        shifts.Add(pass);
+    }
+
+    private sealed class Scratch(int dimension, int rank)
+    {
+        public double[] W { get; } = new double[dimension];
+
+        public double[] Y { get; } = new double[rank];
+
+        public Vector256<double>[] W4 { get; } = new Vector256<double>[dimension];
+
+        public Vector256<double>[] Y4 { get; } = new Vector256<double>[rank];
+
+        public Vector256<double>[] W4B { get; } = new Vector256<double>[dimension];
+
+        public Vector256<double>[] Y4B { get; } = new Vector256<double>[rank];
     }
 
     private static (double Mean, double StandardError) MeanAndStandardError(double[] sums, long points)
@@ -313,8 +616,11 @@ internal sealed class SeparationOfVariables
         return (mean, Math.Sqrt(ss / (m - 1) / m));
     }
 
-    /// <summary>Richtmyer's generator: fractional parts of the square roots of the first primes.</summary>
-    private static double[] RichtmyerGenerator(int dimension)
+    /// <summary>
+    /// Richtmyer's generator, fractional parts of the square roots of the first primes, for the coordinates beyond the
+    /// stored lattice vector (only those entries are used).
+    /// </summary>
+    private static double[] KroneckerGenerator(int dimension)
     {
         var z = new double[dimension];
         var found = 0;

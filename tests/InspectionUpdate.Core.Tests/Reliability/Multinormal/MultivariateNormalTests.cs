@@ -147,6 +147,8 @@ public class MultivariateNormalTests
         [Reference("Dunnett & Sobel (1955) / Steck one-dimensional representation of equicorrelated probabilities (from memory), computed in the test with MathNet")]
         [InlineData(5, 0.5, 0.0, 2e-5)]
         [InlineData(10, 0.5, 0.0, 5e-5)]
+        [InlineData(10, 0.5, 0.0, 1e-5)]
+        [InlineData(10, 0.5, -1.0, 1e-5)]
         [InlineData(20, 0.5, 0.0, 1e-4)]
         [InlineData(10, 0.9, -1.0, 2e-5)]
         [InlineData(20, 0.2, 1.0, 1e-4)]
@@ -195,6 +197,62 @@ public class MultivariateNormalTests
             Assert.InRange(result.Value, expected - 4 * result.StandardError, expected + 4 * result.StandardError);
             Assert.True(result.StandardError < 1e-3 * expected);
             Assert.Equal(10, result.Rank);
+        }
+
+        [Fact]
+        [Trait("Category", "Statistical")]
+        [Reference("Dunnett & Sobel (1955) one-dimensional representation, computed in the test with MathNet; t distribution with 9 degrees of freedom: P(|t| > 3) ≈ 1.5 %")]
+        public void The_error_estimate_covers_the_actual_error_over_seeds()
+        {
+            // n = 10, ρ = 0.5, b = −1 to 1e-5: if the reported standard error were too small, the actual errors would
+            // exceed three of them far more often than the t distribution allows (expected 0.3 of 20; 4 or more has
+            // probability below 1e-4 for an honest estimate).
+            var loadings = Filled(10, Math.Sqrt(0.5));
+            var expected = OneFactorProbability(loadings, Filled(10, double.NegativeInfinity), Filled(10, -1.0));
+            var r = OneFactorCorrelation(loadings);
+            var outside = 0;
+            for (var seed = 1; seed <= 20; seed++)
+            {
+                var result = MultivariateNormal.Cdf(Filled(10, -1.0), r, new MultinormalOptions { AbsoluteTolerance = 1e-5, RelativeTolerance = 0, Seed = seed });
+                Assert.True(result.Converged, result.Diagnostic);
+                if (Math.Abs(result.Value - expected) > 3 * result.StandardError) outside++;
+            }
+
+            Assert.True(outside <= 3, $"{outside} of 20 errors exceed three standard errors");
+        }
+
+        [Fact]
+        [Trait("Category", "Statistical")]
+        [Reference("Independent computation in the test: one-factor 1-D integral with MathNet double-exponential quadrature")]
+        public void Beyond_one_pass_through_the_lattice_the_estimate_stays_consistent()
+        {
+            // A tolerance no rule can meet, so the run uses its whole budget: 2^17 points per shift, i.e. a second
+            // pass through the 2^16-point lattice with fresh shifts.
+            double[] l = [0.7, -0.4, 0.6, 0.5, 0.8];
+            double[] b = [0.3, -0.2, 1.1, -0.6, 0.4];
+            var expected = OneFactorProbability(l, Filled(5, double.NegativeInfinity), b);
+            var options = new MultinormalOptions { AbsoluteTolerance = 1e-16, RelativeTolerance = 0, MaxEvaluations = 10L << 17 };
+            var result = MultivariateNormal.Cdf(b, OneFactorCorrelation(l), options);
+            Assert.False(result.Converged);
+            Assert.Equal(10L << 17, result.Evaluations);
+            Assert.InRange(result.Value, expected - 4 * result.StandardError - 1e-13, expected + 4 * result.StandardError + 1e-13);
+            Assert.True(result.StandardError < 1e-7, $"{result.StandardError:G3}");
+        }
+
+        [Fact]
+        [Reference("Determinism by construction: each shift's sum runs over the points in a fixed order whatever thread computes it")]
+        public void Concurrent_calls_give_the_same_value_as_a_lone_call()
+        {
+            var r = OneFactorCorrelation(Filled(10, 0.7));
+            var options = new MultinormalOptions { AbsoluteTolerance = 1e-5, RelativeTolerance = 0, Seed = 3 };
+            var alone = MultivariateNormal.Cdf(Filled(10, -0.5), r, options);
+            var together = new MultinormalResult[6];
+            Parallel.For(0, together.Length, i => together[i] = MultivariateNormal.Cdf(Filled(10, -0.5), r, options));
+            foreach (var result in together)
+            {
+                Assert.Equal(alone.Value, result.Value);
+                Assert.Equal(alone.Evaluations, result.Evaluations);
+            }
         }
 
         [Fact]
