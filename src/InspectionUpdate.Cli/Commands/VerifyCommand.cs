@@ -20,7 +20,8 @@ public sealed class VerifySettings : CommonSettings
 
 /// <summary>
 /// Runs published checks through the engine's side-by-side comparison (FORM, SORM, importance sampling, subset
-/// simulation) and compares each method with its expected value. The cases are data (a limit state, its inputs and
+/// simulation), then the updating and planning checks of <see cref="UpdatingVerificationCases"/>, and compares each
+/// method with its expected value. The cases are data (a limit state, its inputs and
 /// the published or closed-form value); every obtained number comes from the engine.
 /// </summary>
 public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(host)
@@ -58,9 +59,11 @@ public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(hos
                     }
                 }
 
-                progress((i + 1.0) / cases.Count);
+                progress((i + 1.0) / (cases.Count + 1));
             }
 
+            list.AddRange(UpdatingVerificationCases.Run());
+            progress(1.0);
             return list;
         });
 
