@@ -20,7 +20,7 @@ internal static class ComponentContexts
         var parsed = ComponentModelDefinition.Parse(json);
         if (!parsed.IsValid)
         {
-            var lines = parsed.Problems.Select(p => p.Value is null ? $"{p.Path}: {p.Message}." : $"{p.Path} '{p.Value}': {p.Message}.").ToArray();
+            var lines = parsed.Problems.Select(p => p.Value is null ? $"{p.Path}: {p.Message.TrimEnd('.')}." : $"{p.Path} '{p.Value}': {p.Message.TrimEnd('.')}.").ToArray();
             throw lines.Length == 1
                 ? new CliException(ExitCodes.BadInput, $"The model of {source} is not valid: {lines[0]}")
                 : new CliException(ExitCodes.BadInput, $"The model of {source} has {lines.Length.ToString(CultureInfo.InvariantCulture)} problems.", lines);
