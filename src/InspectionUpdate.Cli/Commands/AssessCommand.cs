@@ -27,7 +27,7 @@ internal static class Study
         }
 
         using var store = RegisterAccess.Open(host, s.RegisterPath(host));
-        return ComponentContexts.FromRegister(store, RegisterAccess.Component(store, s.Component!, RegisterAccess.AsKnownOn(asOf)), asOf);
+        return ComponentContexts.FromRegister(store, RegisterAccess.Component(store, s.Component!, asOf), asOf);
     }
 
     /// <summary>&lt;model&gt;.findings.csv beside a model file (x.model.json → x.findings.csv), when it exists.</summary>

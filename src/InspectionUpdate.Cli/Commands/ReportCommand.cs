@@ -23,7 +23,7 @@ public sealed class ReportSettings : RegisterSettings
 
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
-    [Description("Use the register as known on this date (ISO 8601); default today.")]
+    [Description(AssessSettings.AsOfHelp)]
     public string? AsOf { get; init; }
 
     /// <summary>Target.</summary>
@@ -71,7 +71,7 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
     {
         using var store = RegisterAccess.Open(host, registerPath);
         var known = RegisterAccess.AsKnownOn(options.AsOf);
-        var components = only is null ? store.Components(known) : [RegisterAccess.Component(store, only, known)];
+        var components = only is null ? store.Components(known) : [RegisterAccess.Component(store, only, options.AsOf)];
         var fingerprint = store.Fingerprint(known);
         var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(store, c, options.AsOf))).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
