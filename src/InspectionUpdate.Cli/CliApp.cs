@@ -45,14 +45,14 @@ public static class CliApp
             {
                 b.SetDescription("Sites: places that hold components.");
                 b.AddCommand<SiteAddCommand>("add").WithDescription("Add a site.")
-                    .WithExample("site", "add", "NORTH-BAY", "--name", "North Bay injection station", "-r", "plant.register");
+                    .WithExample("site", "add", "NORTH-BAY", "--name", "\"North Bay injection station\"", "-r", "plant.register");
                 b.AddCommand<SiteListCommand>("list").WithDescription("List the sites.").WithExample("site", "list", "-r", "plant.register");
             });
             config.AddBranch("component", b =>
             {
                 b.SetDescription("Components and their degradation models.");
                 b.AddCommand<ComponentAddCommand>("add").WithDescription("Add a component with its model file.")
-                    .WithExample("component", "add", "WI-03", "--site", "NORTH-BAY", "--name", "Injection line spool 3", "--model", "wi-03.model.json", "--in-service", "2011-04-01", "-r", "plant.register");
+                    .WithExample("component", "add", "WI-03", "--site", "NORTH-BAY", "--name", "\"Injection line spool 3\"", "--model", "wi-03.model.json", "--in-service", "2011-04-01", "-r", "plant.register");
                 b.AddCommand<ComponentListCommand>("list").WithDescription("List the components.").WithExample("component", "list", "-r", "plant.register");
             });
             config.AddBranch("method", b =>
@@ -72,14 +72,14 @@ public static class CliApp
                 b.AddCommand<FindingImportCommand>("import").WithDescription("Import findings from a CSV file (all rows or none).")
                     .WithExample("finding", "import", "campaign-2024.csv", "--by", "a.engineer", "-r", "plant.register");
                 b.AddCommand<FindingCorrectCommand>("correct").WithDescription("Correct a finding: records a new revision with who and why.")
-                    .WithExample("finding", "correct", "7", "--size-mm", "2.1", "--by", "a.engineer", "--reason", "transcription error", "-r", "plant.register");
+                    .WithExample("finding", "correct", "7", "--size-mm", "2.1", "--by", "a.engineer", "--reason", "\"transcription error\"", "-r", "plant.register");
                 b.AddCommand<FindingListCommand>("list").WithDescription("List findings.").WithExample("finding", "list", "WI-03", "--all-revisions", "-r", "plant.register");
             });
             config.AddBranch("repair", b =>
             {
                 b.SetDescription("Repairs (the component's degradation restarts).");
                 b.AddCommand<RepairLogCommand>("log").WithDescription("Log a repair.")
-                    .WithExample("repair", "log", "WI-03", "--date", "2023-09-02", "--description", "clamp and sleeve fitted", "--by", "a.engineer", "-r", "plant.register");
+                    .WithExample("repair", "log", "WI-03", "--date", "2023-09-02", "--description", "\"clamp and sleeve fitted\"", "--by", "a.engineer", "-r", "plant.register");
             });
             config.AddCommand<AssessCommand>("assess").WithDescription("Assess: prior and updated profile Pf(t), ΔPf(t), β(t) of a component.")
                 .WithExample("assess", "WI-03", "-r", "plant.register")

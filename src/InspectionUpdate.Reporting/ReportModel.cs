@@ -71,7 +71,7 @@ public sealed record ReportImportance(double TimeYears, IReadOnlyList<string> Na
 /// <summary>One inspection proposed by the plan.</summary>
 /// <param name="TimeYears">Years since entry into service.</param>
 /// <param name="Date">Calendar date.</param>
-/// <param name="Method">Method assumed.</param>
+/// <param name="Method">Method assumed; empty when none is (the next inspection of a plan without a schedule).</param>
 /// <param name="Basis">Why it is due then, e.g. "annual Pf reaches 1e-4".</param>
 public sealed record ReportPlannedInspection(double TimeYears, DateOnly Date, string Method, string Basis);
 
@@ -141,6 +141,9 @@ public sealed record ComponentReportData
     /// <summary>Parts the tool could not compute in this build, each as a sentence.</summary>
     public IReadOnlyList<string> NotAvailable { get; init; } = [];
 
+    /// <summary>Parts this run was not asked to compute, each as a sentence saying how to request it.</summary>
+    public IReadOnlyList<string> NotRequested { get; init; } = [];
+
     /// <summary>Provenance.</summary>
     public required ReportProvenance Provenance { get; init; }
 }
@@ -156,7 +159,12 @@ public sealed record ComponentReportData
 /// <param name="Status">One-line status.</param>
 /// <param name="ReportFile">File name of the component report, relative to the portfolio report, or null.</param>
 public sealed record PortfolioRow(string ComponentId, string ComponentName, string Site, double? CurrentAnnualPf, string Route,
-    double? YearsToTarget, DateOnly? NextDue, string Status, string? ReportFile);
+    double? YearsToTarget, DateOnly? NextDue, string Status, string? ReportFile)
+{
+    /// <summary>End of the grid year whose ΔPf is <see cref="CurrentAnnualPf"/> (the first grid time at or after the assessment date); not exported.</summary>
+    [System.Text.Json.Serialization.JsonIgnore]
+    public DateOnly? CurrentYearEnding { get; init; }
+}
 
 /// <summary>Everything the register report shows.</summary>
 public sealed record PortfolioReportData

@@ -27,7 +27,7 @@ internal static class Study
         }
 
         using var store = RegisterAccess.Open(host, s.RegisterPath(host));
-        return ComponentContexts.FromRegister(store, RegisterAccess.Component(store, s.Component!, RegisterAccess.AsKnownOn(asOf)), asOf);
+        return ComponentContexts.FromRegister(store, RegisterAccess.Component(store, s.Component!, asOf), asOf);
     }
 
     /// <summary>&lt;model&gt;.findings.csv beside a model file (x.model.json → x.findings.csv), when it exists.</summary>
@@ -83,7 +83,7 @@ public sealed class AssessCommand(CliHost host) : CliCommand<AssessSettings>(hos
                 ]));
             if (doc.Current is { } c)
             {
-                Line($"Now ({c.TimeYears.ToString("0.##", CultureInfo.InvariantCulture)} years): annual Pf {Study.P(c.AnnualPf)}, cumulative Pf {Study.P(c.CumulativePf)}, β {c.Beta.ToString("0.00", CultureInfo.InvariantCulture)} ({c.Route}{(c.Converged ? ", converged" : ", NOT converged")}{(c.Cov is { } v ? ", CoV " + v.ToString("0.000", CultureInfo.InvariantCulture) : string.Empty)}).");
+                Line($"Grid year ending {ServiceTime.DateAt(context.InServiceDate, c.TimeYears):yyyy-MM-dd} ({c.TimeYears.ToString("0.##", CultureInfo.InvariantCulture)} years, the first grid time at or after the as-of date): annual Pf {Study.P(c.AnnualPf)}, cumulative Pf {Study.P(c.CumulativePf)}, β {c.Beta.ToString("0.00", CultureInfo.InvariantCulture)} ({c.Route}{(c.Converged ? ", converged" : ", NOT converged")}{(c.Cov is { } v ? ", CoV " + v.ToString("0.000", CultureInfo.InvariantCulture) : string.Empty)}).");
             }
 
             if (!outcome.AllConverged) Line("Some steps did not converge: their numbers are best estimates only (exit code 3).");

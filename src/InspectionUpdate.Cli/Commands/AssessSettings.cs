@@ -14,6 +14,10 @@ public class AssessSettings : RegisterSettings
     [Description("Component identifier in the register (leave out with --model).")]
     public string? Component { get; init; }
 
+    /// <summary>Help of --as-of (assess, plan, report).</summary>
+    public const string AsOfHelp =
+        "The evidence date (ISO 8601, default today). The register is read as known on that date: components, methods, findings, corrections and repairs recorded after it are left out, and so are inspections dated after it. A component recorded after the date is refused. With --model, findings dated after it are left out.";
+
     /// <summary>Model file route.</summary>
     [CommandOption("--model <FILE>")]
     [Description("Run on a component model file instead of the register (what-if studies).")]
@@ -37,7 +41,7 @@ public class AssessSettings : RegisterSettings
 
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
-    [Description("Use findings up to this date (ISO 8601); default today.")]
+    [Description(AsOfHelp)]
     public string? AsOf { get; init; }
 
     /// <summary>Profile horizon.</summary>

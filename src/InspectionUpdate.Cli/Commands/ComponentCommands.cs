@@ -32,7 +32,7 @@ public sealed class ComponentAddSettings : RegisterSettings
 
     /// <summary>Model version.</summary>
     [CommandOption("--model-version <TEXT>")]
-    [Description("Version of the model definition (default: the file's \"version\" field, else 1).")]
+    [Description("Your version label of the model definition, e.g. corrosion-1.2 (default 1). The model file has no version field of its own (docs/schema/component-model.schema.json); its schemaVersion is the file format's.")]
     public string? ModelVersion { get; init; }
 
     /// <summary>Date of entry into service.</summary>
@@ -64,7 +64,7 @@ public sealed class ComponentAddCommand(CliHost host) : CliCommand<ComponentAddS
     {
         var modelPath = Host.Resolve(RegisterAccess.Text("--model", settings.Model));
         var json = ModelFiles.Read(modelPath);
-        var version = settings.ModelVersion ?? ModelFiles.Version(json) ?? "1";
+        var version = settings.ModelVersion ?? ModelFiles.DefaultVersion;
         var installed = RegisterAccess.Date("--in-service", settings.InService);
         using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
         var component = RegisterAccess.Require(store.AddComponent(
@@ -96,21 +96,11 @@ internal static class ModelFiles
         return text;
     }
 
-    /// <summary>The "version" (or "model_version") field of a model definition, if any.</summary>
-    public static string? Version(string json)
-    {
-        using var doc = JsonDocument.Parse(json);
-        if (doc.RootElement.ValueKind != JsonValueKind.Object) return null;
-        foreach (var name in new[] { "version", "model_version" })
-        {
-            if (doc.RootElement.TryGetProperty(name, out var v))
-            {
-                return v.ValueKind == JsonValueKind.String ? v.GetString() : v.GetRawText();
-            }
-        }
-
-        return null;
-    }
+    /// <summary>
+    /// The model version recorded when none is given. The model file schema (docs/schema/component-model.schema.json)
+    /// has no version field: the version is the user's label of the definition, kept by the register.
+    /// </summary>
+    public const string DefaultVersion = "1";
 }
 
 /// <summary>A component in --json output.</summary>

@@ -95,7 +95,7 @@ public sealed class DemoCommand(CliHost host) : CliCommand<DemoSettings>(host)
         foreach (var c in scenario.Components)
         {
             var json = ModelFiles.Read(Path.Combine(sampleData, c.Model));
-            RegisterAccess.Require(store.AddComponent(new NewComponent(c.Site, c.Id, c.Name, c.InService, c.WallMm, json, ModelFiles.Version(json) ?? "1"), by), "demo component " + c.Id);
+            RegisterAccess.Require(store.AddComponent(new NewComponent(c.Site, c.Id, c.Name, c.InService, c.WallMm, json, ModelFiles.DefaultVersion), by), "demo component " + c.Id);
         }
 
         steps.Add(new DemoStep("register", "done", $"{scenario.Sites.Count} sites, {scenario.Methods.Count} methods, {scenario.Components.Count} components"));

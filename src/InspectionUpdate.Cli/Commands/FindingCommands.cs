@@ -26,7 +26,7 @@ public sealed class FindingLogSettings : RegisterSettings
 
     /// <summary>Outcome.</summary>
     [CommandOption("--outcome <OUTCOME>")]
-    [Description("none (no indication), indication (found, not sized), sized (give --size-mm), wall (remaining-wall reading: give --remaining-wall-mm) or in-service.")]
+    [Description(FindingText.OutcomeHelp)]
     public string? Outcome { get; init; }
 
     /// <summary>Measured size.</summary>
@@ -74,6 +74,14 @@ public sealed class FindingLogCommand(CliHost host) : CliCommand<FindingLogSetti
 /// <summary>Words for finding outcomes.</summary>
 internal static class FindingText
 {
+    /// <summary>Help of --outcome (finding log and finding correct): every outcome <see cref="Kind"/> accepts.</summary>
+    public const string OutcomeHelp =
+        "none (no indication), indication (found, not sized), sized (give --size-mm), wall (remaining-wall reading: give --remaining-wall-mm) or in-service (in service, not failed); "
+        + "the register's kind names no-indication, indication-not-sized, sized-indication, wall-thickness and in-service are accepted too.";
+
+    /// <summary>The outcome words of the command line, in the order of the help.</summary>
+    public static IReadOnlyList<string> Outcomes { get; } = ["none", "indication", "sized", "wall", "in-service"];
+
     /// <summary>The register's kind for a CLI outcome word (or the register's own kind text).</summary>
     public static FindingKind Kind(string outcome) => outcome switch
     {
@@ -156,7 +164,7 @@ public sealed class FindingCorrectSettings : RegisterSettings
 
     /// <summary>New outcome.</summary>
     [CommandOption("--outcome <OUTCOME>")]
-    [Description("Corrected outcome: none, indication or sized.")]
+    [Description("Corrected outcome: " + FindingText.OutcomeHelp)]
     public string? Outcome { get; init; }
 
     /// <summary>New size.</summary>

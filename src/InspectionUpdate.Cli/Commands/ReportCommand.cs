@@ -3,6 +3,7 @@ using System.Globalization;
 using InspectionUpdate.Cli.Engine;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
+using InspectionUpdate.Time;
 using Spectre.Console.Cli;
 
 namespace InspectionUpdate.Cli.Commands;
@@ -23,7 +24,7 @@ public sealed class ReportSettings : RegisterSettings
 
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
-    [Description("Use the register as known on this date (ISO 8601); default today.")]
+    [Description(AssessSettings.AsOfHelp)]
     public string? AsOf { get; init; }
 
     /// <summary>Target.</summary>
@@ -71,29 +72,43 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
     {
         using var store = RegisterAccess.Open(host, registerPath);
         var known = RegisterAccess.AsKnownOn(options.AsOf);
-        var components = only is null ? store.Components(known) : [RegisterAccess.Component(store, only, known)];
+        var components = only is null ? store.Components(known) : [RegisterAccess.Component(store, only, options.AsOf)];
         var fingerprint = store.Fingerprint(known);
         var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(store, c, options.AsOf))).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
         var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, []);
-        var rows = runs.Select(r => new ReportRow(r.ComponentId,
-            r.Outcome is null || r.Request is null ? null : ComponentStudy.Current(r.Outcome.Current, r.Request.AsOfYears)?.AnnualPf,
-            r.Plan?.Next.Date, r.Plan?.RemainingLife.UntilAnnualTarget.RemainingYears, r.AllConverged, r.Error,
-            r.Context is null ? null : Path.Combine(folder, ReportRun.Safe(r.ComponentId) + ".html"))).ToArray();
+        var rows = runs.Select(r => Row(r, folder)).ToArray();
         var code = runs.Any(r => r.Error is not null) ? ExitCodes.BadInput : runs.All(r => r.AllConverged) ? ExitCodes.Ok : ExitCodes.NotConverged;
         return (new ReportDocument(folder, index, fingerprint, options.AsOf, options.Target.AnnualPf, rows, Reporting.Cautions.Line), code);
     }
 
+    /// <summary>One component's row: the annual Pf is the ΔPf of the grid year ending at the first grid time at or after the as-of date.</summary>
+    private static ReportRow Row(ComponentRun r, string folder)
+    {
+        var now = r.Outcome is null || r.Request is null ? null : ComponentStudy.Current(r.Outcome.Current, r.Request.AsOfYears);
+        var ending = now is null || r.Context is null ? (DateOnly?)null : ServiceTime.DateAt(r.Context.InServiceDate, now.TimeYears);
+        return new ReportRow(r.ComponentId, now?.AnnualPf, ending, r.Plan?.Next.Date, r.Plan?.RemainingLife.UntilAnnualTarget.RemainingYears, r.AllConverged, r.Error,
+            r.Context is null ? null : Path.Combine(folder, ReportRun.Safe(r.ComponentId) + ".html"));
+    }
+
     internal void Summary(ReportDocument doc) =>
-        Table(["component", "annual Pf now", "next inspection", "years to target", "converged", "note"], doc.Components.Select(r => (IReadOnlyList<string>)
+        Table(["component", "annual Pf (grid year ending)", "next inspection", "years to target", "converged", "note"], doc.Components.Select(r => (IReadOnlyList<string>)
         [
-            r.ComponentId, r.AnnualPfNow is { } p ? Study.P(p) : "-", r.NextInspection?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? "-",
+            r.ComponentId, r.AnnualPfNow is { } p ? Study.P(p) + (r.AnnualPfYearEnding is { } end ? end.ToString(" (yyyy-MM-dd)", CultureInfo.InvariantCulture) : string.Empty) : "-", r.NextInspection?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? "-",
             r.YearsToTarget is { } y ? y.ToString("0.0", CultureInfo.InvariantCulture) : "-", r.AllConverged ? "yes" : "NO", r.Error ?? string.Empty,
         ]));
 }
 
 /// <summary>One component in the --json of <c>report</c> and <c>demo</c>.</summary>
-public sealed record ReportRow(string ComponentId, double? AnnualPfNow, DateOnly? NextInspection, double? YearsToTarget, bool AllConverged, string? Error, string? Report);
+/// <param name="ComponentId">Component identifier.</param>
+/// <param name="AnnualPfNow">Updated ΔPf of the grid year ending at the first grid time at or after the as-of date.</param>
+/// <param name="AnnualPfYearEnding">End date of that grid year.</param>
+/// <param name="NextInspection">Latest date of the next inspection.</param>
+/// <param name="YearsToTarget">Years until the annual Pf reaches the target.</param>
+/// <param name="AllConverged">True when every number converged.</param>
+/// <param name="Error">Why the component was not assessed, or null.</param>
+/// <param name="Report">The component report file, or null.</param>
+public sealed record ReportRow(string ComponentId, double? AnnualPfNow, DateOnly? AnnualPfYearEnding, DateOnly? NextInspection, double? YearsToTarget, bool AllConverged, string? Error, string? Report);
 
 /// <summary>--json of <c>report</c>.</summary>
 public sealed record ReportDocument(string OutputFolder, string PortfolioReport, string Fingerprint, DateOnly AsOf, double TargetAnnualPf, IReadOnlyList<ReportRow> Components, string Caution);

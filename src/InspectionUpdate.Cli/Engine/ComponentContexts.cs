@@ -81,7 +81,7 @@ internal static class ComponentContexts
             const string actor = "what-if";
             RegisterAccess.Require(store.AddSite(new NewSite("FILE", "model file"), actor), "what-if site");
             var code = Path.GetFileNameWithoutExtension(modelPath).Replace(".model", string.Empty, StringComparison.Ordinal);
-            RegisterAccess.Require(store.AddComponent(new NewComponent("FILE", code, definition.Name, inService, model.MaximumSizeMm is { } w && double.IsFinite(w) ? w : null, json, ModelFiles.Version(json) ?? "file"), actor), "what-if component");
+            RegisterAccess.Require(store.AddComponent(new NewComponent("FILE", code, definition.Name, inService, model.MaximumSizeMm is { } w && double.IsFinite(w) ? w : null, json, "file"), actor), "what-if component");
             foreach (var file in methodFiles)
             {
                 var name = Path.GetFileName(file)[..^".method.json".Length].ToUpperInvariant();

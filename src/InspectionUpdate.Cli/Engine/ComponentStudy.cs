@@ -117,7 +117,8 @@ internal static class ComponentStudy
             p.Next.Assumptions.Concat(p.Schedule?.Assumptions ?? []).Distinct().ToArray(), c.Fingerprint, CliApp.Version, Cautions.Line);
     }
 
-    public static ComponentReportData Report(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, IReadOnlyList<string> notAvailable)
+    public static ComponentReportData Report(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, IReadOnlyList<string> notAvailable,
+        IReadOnlyList<string>? notRequested = null)
     {
         var importance = ReportMapping.Importance(o.Current, plan?.Next.TimeYears ?? r.HorizonYears, o.Updated is null ? "prior" : "updated")
             ?? (o.Updated is null ? null : ReportMapping.Importance(o.Prior, plan?.Next.TimeYears ?? r.HorizonYears, "prior"));
@@ -145,14 +146,24 @@ internal static class ComponentStudy
             Prior = o.Prior,
             Updated = o.Updated,
             Importance = importance,
-            PodCurves = c.Methods.Select(mt => ReportMapping.Pod(mt, maxSize)).ToArray(),
+            PodCurves = PodMethods(c, plan).Select(mt => ReportMapping.Pod(mt, maxSize)).ToArray(),
             PosteriorSummaries = ReportMapping.Posterior(o.Posterior),
             PosteriorRoute = ReportMapping.PosteriorRoute(o.Posterior),
-            Plan = plan is null ? null : ReportMapping.Plan(plan),
+            Plan = plan is null ? null : ReportMapping.Plan(plan, notRequested),
             Assumptions = assumptions,
             NotAvailable = notAvailable,
+            NotRequested = notRequested ?? [],
             Provenance = new ReportProvenance(CliApp.Version, c.Fingerprint, c.Source, DateTimeOffset.UtcNow, r.AsOf),
         };
+    }
+
+    /// <summary>The methods whose PoD the report draws: those of the component's current findings, then the schedule's method.</summary>
+    public static IReadOnlyList<InspectionMethod> PodMethods(ComponentContext c, PlanOutcome? plan)
+    {
+        var names = c.Findings.Where(f => !f.Superseded).Select(f => f.Method)
+            .Concat(plan?.Schedule is { } s ? [s.MethodName] : [])
+            .ToHashSet(StringComparer.Ordinal);
+        return c.Methods.Where(m => names.Contains(m.Name)).ToArray();
     }
 
     public static PortfolioRow Row(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, string? reportFile)
@@ -161,7 +172,10 @@ internal static class ComponentStudy
         var route = current is null ? "-" : HtmlReportWriter.RouteText(HtmlReportWriter.PointAt(o.Current, r.AsOfYears)!);
         double? years = plan is null ? null
             : plan.RemainingLife.UntilAnnualTarget.Reached ? plan.RemainingLife.UntilAnnualTarget.RemainingYears : double.PositiveInfinity;
-        return new PortfolioRow(c.Id, c.Name, c.Site, current?.AnnualPf, route, years, plan?.Next.Date, plan?.Next.Message ?? "not planned", reportFile);
+        return new PortfolioRow(c.Id, c.Name, c.Site, current?.AnnualPf, route, years, plan?.Next.Date, plan?.Next.Message ?? "not planned", reportFile)
+        {
+            CurrentYearEnding = current is null ? null : ServiceTime.DateAt(c.InServiceDate, current.TimeYears),
+        };
     }
 
     private static string Key(string pascal) => System.Text.Json.JsonNamingPolicy.SnakeCaseLower.ConvertName(pascal);

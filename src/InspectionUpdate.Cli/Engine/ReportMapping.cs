@@ -66,15 +66,17 @@ internal static class ReportMapping
           + (posterior.Converged ? ", converged" : ", NOT converged") + (posterior.Note is null ? string.Empty : "; " + posterior.Note);
 
     /// <summary>The plan as the report states it.</summary>
-    public static ReportPlan Plan(PlanOutcome plan)
+    /// <remarks>Without a schedule, the next inspection assumes no method (its date is when the annual Pf reaches the target with no further inspection): its method is empty.</remarks>
+    public static ReportPlan Plan(PlanOutcome plan, IReadOnlyList<string>? notRequested = null)
     {
         var schedule = plan.Schedule?.Inspections.Select(p => new ReportPlannedInspection(p.TimeYears, p.Date, plan.Schedule.MethodName,
             $"annual {AnnualTarget.MeasureName(plan.Next.Target.Measure)} reaches the target ({ReportCharts.Probability(p.Before.Value)})")).ToArray()
-            ?? [new ReportPlannedInspection(plan.Next.TimeYears, plan.Next.Date, "-", plan.Next.Message)];
+            ?? [new ReportPlannedInspection(plan.Next.TimeYears, plan.Next.Date, string.Empty, plan.Next.Message)];
         if (plan.Next.Status == NextInspectionStatus.NotReachedBeforeEndOfService && plan.Schedule is null) schedule = [];
         var notes = plan.Next.Assumptions.Concat(plan.Schedule?.Assumptions ?? []).Distinct().ToList();
         notes.Add(plan.RemainingLife.Message);
         if (plan.Schedule is not null) notes.Add(plan.Schedule.Message);
+        notes.AddRange(notRequested ?? []);
         if (!plan.AllConverged) notes.Add("Some estimates behind this plan did not converge: treat its dates as provisional.");
         return new ReportPlan(plan.Next.Target.AnnualPf, plan.Next.Target.Describe(), schedule, plan.Next.Message, notes);
     }

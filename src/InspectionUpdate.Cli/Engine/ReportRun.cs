@@ -67,9 +67,8 @@ internal static class ReportRun
                 continue;
             }
 
-            var gaps = new List<string>(notAvailable);
-            if (!options.Schedule) gaps.Add("Life-cycle schedule not computed in this run (plan COMPONENT computes it); the plan shows the next inspection only.");
-            var data = ComponentStudy.Report(run.Context, run.Request, run.Outcome, run.Plan, gaps);
+            IReadOnlyList<string> notRequested = options.Schedule || run.Plan is null ? [] : [ScheduleNotRequested];
+            var data = ComponentStudy.Report(run.Context, run.Request, run.Outcome, run.Plan, notAvailable, notRequested);
             File.WriteAllText(Path.Combine(folder, safe + ".html"), HtmlReportWriter.Component(data));
             File.WriteAllText(Path.Combine(folder, safe + ".json"), ProfileExport.ComponentJson(data));
             using (var w = new StreamWriter(Path.Combine(folder, safe + ".profile.csv")))
@@ -113,6 +112,10 @@ internal static class ReportRun
             CliApp.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
         return index;
     }
+
+    /// <summary>What a report without --schedule says of the life-cycle schedule: not requested, and how to request it.</summary>
+    public const string ScheduleNotRequested =
+        "Life-cycle schedule: not requested in this run; the plan shows the next inspection only. Request it with report --schedule (every component) or plan COMPONENT (this one).";
 
     /// <summary>A component code as a file name.</summary>
     public static string Safe(string id) => string.Concat(id.Select(c => char.IsLetterOrDigit(c) || c is '-' or '_' or '.' ? c : '_'));

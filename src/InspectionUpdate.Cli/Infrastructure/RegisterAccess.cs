@@ -50,8 +50,24 @@ internal static class RegisterAccess
     public static DateTimeOffset AsKnownOn(DateOnly date) => RegisterStore.EndOfDay(date);
 
     /// <summary>A component by code, or bad input naming the code.</summary>
-    public static Component Component(RegisterStore store, string code, DateTimeOffset? asOf = null) =>
-        store.FindComponent(code, asOf) ?? throw CliException.BadInput("component", code, "is not in the register.");
+    public static Component Component(RegisterStore store, string code) =>
+        store.FindComponent(code) ?? throw CliException.BadInput("component", code, "is not in the register.");
+
+    /// <summary>
+    /// A component by code as known on <paramref name="asOf"/> (the --as-of date). A component recorded after that
+    /// date is bad input naming the component, the as-of date and the recording date; an unknown code names the code.
+    /// </summary>
+    public static Component Component(RegisterStore store, string code, DateOnly asOf)
+    {
+        ArgumentNullException.ThrowIfNull(store);
+        if (store.FindComponent(code, AsKnownOn(asOf)) is { } known) return known;
+        if (store.FindComponent(code) is not { } later) throw CliException.BadInput("component", code, "is not in the register.");
+        var recorded = DateOnly.FromDateTime(later.Recorded.RecordedUtc.UtcDateTime);
+        var asOfText = asOf.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
+        var recordedText = recorded.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
+        throw CliException.BadInput("--as-of", asOfText,
+            $"is before component '{code}' was recorded in the register on {recordedText}: the register as known on {asOfText} does not hold it. Give --as-of {recordedText} or later.");
+    }
 
     /// <summary>Parses an ISO 8601 date option, or bad input naming the option.</summary>
     public static DateOnly Date(string option, string? value)

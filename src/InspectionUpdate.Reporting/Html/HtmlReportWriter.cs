@@ -3,6 +3,7 @@ using System.Net;
 using System.Text;
 using InspectionUpdate.Reliability;
 using InspectionUpdate.Reporting.Plots;
+using InspectionUpdate.Time;
 
 namespace InspectionUpdate.Reporting.Html;
 
@@ -42,11 +43,13 @@ public static class HtmlReportWriter
         var point = current is null ? null : PointAt(current, now);
         h.Append("<div class=\"cards\">");
         Card(h, "In service since", Date(data.InServiceDate));
-        Card(h, "Annual Pf now (" + (data.Updated is null ? "prior" : "updated") + ")", point is null ? "not available" : ReportCharts.Probability(point.IntervalPf));
+        Card(h, point is null ? "Annual Pf" : AnnualPfLabel(data.InServiceDate, point, data.Updated is null ? "prior" : "updated"),
+            point is null ? "not available" : ReportCharts.Probability(point.IntervalPf));
         Card(h, "Route", point is null ? "-" : RouteText(point));
         Card(h, "Next inspection", data.Plan?.Schedule.Count > 0 ? Date(data.Plan.Schedule[0].Date) : "not planned");
         h.Append("</div>\n");
         NotAvailable(h, data.NotAvailable);
+        NotRequested(h, data.NotRequested);
         EndSection(h);
 
         Section(h, "inputs", "Inputs");
@@ -64,7 +67,7 @@ public static class HtmlReportWriter
                     {
                         f.Reference, Date(f.Date), Num(f.TimeYears, "0.00"), f.Outcome, f.Method,
                         f.MeasuredSizeMm is { } m ? Num(m, "0.00") : "-", f.Revision.ToString(CultureInfo.InvariantCulture),
-                        f.RecordedBy, f.Reason ?? "-",
+                        f.RecordedBy, f.Reason ?? (f.Revision == 1 ? OriginalRecord : "-"),
                     }),
                 data.Findings.OrderBy(f => f.Date).ThenBy(f => f.Reference, StringComparer.Ordinal).ThenBy(f => f.Revision).Select(f => f.Superseded ? "superseded" : null).ToArray());
         }
@@ -115,7 +118,12 @@ public static class HtmlReportWriter
         }
 
         if (data.Importance is not null) Figure(h, ReportCharts.Importance(data.Importance), "Importance factors α² at the design point: which inputs drive failure.");
-        if (data.PodCurves.Count > 0) Figure(h, ReportCharts.PodCurves(data.PodCurves), "Probability-of-detection curves of the inspection methods.");
+        if (data.PodCurves.Count > 0)
+        {
+            Figure(h, ReportCharts.PodCurves(data.PodCurves),
+                "Probability-of-detection curves of the methods used in this component's findings or assumed for its planned inspections: "
+                + string.Join(", ", data.PodCurves.Select(c => c.Method)) + ".");
+        }
         foreach (var p in data.Posteriors.Where(p => p.Prior.Count + p.Posterior.Count >= 2))
         {
             Figure(h, ReportCharts.Posterior(p), "Prior and posterior samples of " + p.Variable + ".");
@@ -129,10 +137,14 @@ public static class HtmlReportWriter
         {
             h.Append("<p><strong>").Append(E(data.Plan.Status)).Append("</strong></p>\n<p>Target annual failure probability ")
                 .Append(E(ReportCharts.Probability(data.Plan.TargetAnnualPf))).Append(" per year (").Append(E(data.Plan.TargetSource)).Append(").</p>\n");
+            h.Append("<p class=\"small\">").Append(E(PlanAnnualNote(data.InServiceDate, data.Provenance.AssessedAsOf, point))).Append("</p>\n");
             if (data.Plan.Schedule.Count > 0)
             {
                 Table(h, ["#", "date", "time (years)", "method", "basis"],
-                    data.Plan.Schedule.Select((s, i) => new[] { (i + 1).ToString(CultureInfo.InvariantCulture), Date(s.Date), Num(s.TimeYears, "0.00"), s.Method, s.Basis }));
+                    data.Plan.Schedule.Select((s, i) => new[]
+                    {
+                        (i + 1).ToString(CultureInfo.InvariantCulture), Date(s.Date), Num(s.TimeYears, "0.00"), s.Method.Length > 0 ? s.Method : NoMethod, s.Basis,
+                    }));
             }
 
             List(h, data.Plan.Notes);
@@ -168,7 +180,7 @@ public static class HtmlReportWriter
         Card(h, "Assessed", assessed.Length.ToString(CultureInfo.InvariantCulture));
         Card(h, "Target", data.TargetAnnualPf is { } t ? ReportCharts.Probability(t) + " per year" : "none");
         var above = data.TargetAnnualPf is { } tt ? assessed.Count(r => r.CurrentAnnualPf >= tt) : 0;
-        Card(h, "At or above target now", above.ToString(CultureInfo.InvariantCulture));
+        Card(h, "At or above target (grid year at or after the evidence date)", above.ToString(CultureInfo.InvariantCulture));
         h.Append("</div>\n");
         NotAvailable(h, data.NotAvailable);
         EndSection(h);
@@ -180,11 +192,11 @@ public static class HtmlReportWriter
                 "Current annual failure probability against the years left until it reaches the target; top left is most urgent.");
         }
         else h.Append("<p class=\"na\">No component has both a current annual Pf and a time to target.</p>\n");
-        Table(h, ["rank", "component", "site", "annual Pf now", "route", "years to target"],
+        Table(h, ["rank", "component", "site", "annual Pf (grid year at or after the evidence date)", "route", "years to target"],
             data.Rows.OrderByDescending(r => r.CurrentAnnualPf ?? -1).Select((r, i) => new[]
             {
                 (i + 1).ToString(CultureInfo.InvariantCulture), r.ComponentId, r.Site,
-                r.CurrentAnnualPf is { } p ? ReportCharts.Probability(p) : "not available", r.Route,
+                r.CurrentAnnualPf is { } p ? ReportCharts.Probability(p) + (r.CurrentYearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty) : "not available", r.Route,
                 r.YearsToTarget is { } y ? (double.IsPositiveInfinity(y) ? "beyond horizon" : Num(y, "0.0")) : "-",
             }));
         EndSection(h);
@@ -233,9 +245,33 @@ public static class HtmlReportWriter
                 p.CoefficientOfVariation is { } c ? Num(c, "0.000") : "-", p.Note ?? string.Empty,
             }),
             shown.Select(p => p.Converged ? null : "not-converged").ToArray());
-        if (step > 1) h.Append("<p class=\"small\">Every ").Append(step.ToString(CultureInfo.InvariantCulture)).Append("th step shown; the CSV export has all ").Append(points.Count.ToString(CultureInfo.InvariantCulture)).Append(".</p>\n");
+        if (step > 1) h.Append("<p class=\"small\">").Append(E(ThinnedNote(step, points.Count))).Append("</p>\n");
         if (!profile.AllConverged) h.Append("<p class=\"na\">Some steps did not converge: their numbers are best estimates only and must not be relied on.</p>\n");
     }
+
+    /// <summary>Reason shown for the first revision of a finding, which has no correction reason.</summary>
+    public const string OriginalRecord = "original record";
+
+    /// <summary>Method cell of a planned inspection that assumes no method (the next inspection without a schedule).</summary>
+    public const string NoMethod = "none assumed (no schedule)";
+
+    /// <summary>The note under a thinned profile table: one step in <paramref name="step"/> is shown.</summary>
+    public static string ThinnedNote(int step, int count) =>
+        $"One step in {step.ToString(CultureInfo.InvariantCulture)} shown; the CSV export has all {count.ToString(CultureInfo.InvariantCulture)}.";
+
+    /// <summary>
+    /// Label of the summary's annual Pf: the ΔPf of the grid year ending at the first grid time at or after the
+    /// evidence date, with that date, e.g. "Annual Pf (updated), grid year ending 2026-05-01".
+    /// </summary>
+    public static string AnnualPfLabel(DateOnly inService, ProfilePoint point, string which)
+    {
+        ArgumentNullException.ThrowIfNull(point);
+        return $"Annual Pf ({which}), grid year ending {Date(ServiceTime.DateAt(inService, point.TimeYears))}";
+    }
+
+    private static string PlanAnnualNote(DateOnly inService, DateOnly asOf, ProfilePoint? point) =>
+        $"The plan's annual ΔPf is evaluated over the year ending on the date it names (the evidence date {Date(asOf)} for the state now)"
+        + (point is null ? "." : $"; the summary's annual Pf is that of the grid year ending {Date(ServiceTime.DateAt(inService, point.TimeYears))}, so the two can differ.");
 
     /// <summary>Human-readable name of a route.</summary>
     public static string RouteName(ComputationRoute route) => route switch
@@ -319,6 +355,14 @@ public static class HtmlReportWriter
     {
         if (items.Count == 0) return;
         h.Append("<div class=\"na-list\"><p class=\"na\">Not available in this build:</p>");
+        List(h, items);
+        h.Append("</div>\n");
+    }
+
+    private static void NotRequested(StringBuilder h, IReadOnlyList<string> items)
+    {
+        if (items.Count == 0) return;
+        h.Append("<div class=\"nr-list\"><p><strong>Not requested in this run:</strong></p>");
         List(h, items);
         h.Append("</div>\n");
     }

@@ -217,15 +217,6 @@ public static class ReportCharts
         var ys = usable.Select(r => PlotStyle.Log10(r.CurrentAnnualPf!.Value)).ToArray();
         var m = plot.Add.Markers(xs, ys, MarkerShape.FilledCircle, 11, PlotStyle.Prior);
         m.LegendText = "component";
-        for (var i = 0; i < usable.Length; i++)
-        {
-            var t = plot.Add.Text(usable[i].ComponentId, xs[i], ys[i]);
-            t.LabelFontSize = 12;
-            t.LabelFontColor = PlotStyle.Ink;
-            t.OffsetX = 8;
-            t.OffsetY = -8;
-        }
-
         var yMin = ys.Min();
         var yMax = ys.Max();
         if (targetAnnualPf is { } target && target > 0)
@@ -237,9 +228,65 @@ public static class ReportCharts
             yMax = Math.Max(yMax, y);
         }
 
-        plot.Axes.SetLimits(-1, Math.Max(xs.Max(), 1) * 1.15 + 1, Math.Floor(yMin - 0.5), Math.Ceiling(yMax + 0.5));
+        var limits = (XMin: -1.0, XMax: Math.Max(xs.Max(), 1) * 1.15 + 1, YMin: Math.Floor(yMin - 0.5), YMax: Math.Ceiling(yMax + 0.5));
+        plot.Axes.SetLimits(limits.XMin, limits.XMax, limits.YMin, limits.YMax);
+        // Labels of points at or near the same spot are stacked so that none hides another.
+        foreach (var label in RankingLabels(usable.Select((r, i) => (r.ComponentId, xs[i], ys[i])).ToArray(), limits.XMin, limits.XMax, limits.YMin, limits.YMax))
+        {
+            var t = plot.Add.Text(label.Text, label.X, label.Y);
+            t.LabelFontSize = RankingLabelFontSize;
+            t.LabelFontColor = PlotStyle.Ink;
+            t.OffsetX = label.OffsetX;
+            t.OffsetY = label.OffsetY;
+        }
+
         plot.ShowLegend(Alignment.UpperRight);
         return PlotStyle.Png(plot);
+    }
+
+    private const float RankingLabelFontSize = 12;
+
+    /// <summary>
+    /// Places the labels of the ranking plot: each beside its point, moved down or up in steps of one text line when
+    /// its box would overlap a label already placed (points at the same spot get one label per line).
+    /// </summary>
+    /// <param name="points">Label text and point in data units (x in years, y in log10 of the probability).</param>
+    /// <param name="xMin">Left axis limit.</param>
+    /// <param name="xMax">Right axis limit.</param>
+    /// <param name="yMin">Bottom axis limit.</param>
+    /// <param name="yMax">Top axis limit.</param>
+    /// <returns>One label per point with its pixel offset and its approximate box in pixels of the data area.</returns>
+    internal static IReadOnlyList<RankingLabel> RankingLabels(IReadOnlyList<(string Text, double X, double Y)> points, double xMin, double xMax, double yMin, double yMax)
+    {
+        // Approximate data area of a 900 × 460 plot after axes, labels and title; enough to keep labels apart.
+        const double areaWidth = PlotStyle.Width - 110;
+        const double areaHeight = PlotStyle.Height - 110;
+        const float lineHeight = RankingLabelFontSize + 5;
+        const float offsetX = 8;
+        const float firstOffsetY = -8;
+        var placed = new List<RankingLabel>();
+        var order = Enumerable.Range(0, points.Count)
+            .OrderByDescending(i => points[i].Y).ThenBy(i => points[i].X).ThenBy(i => points[i].Text, StringComparer.Ordinal);
+        foreach (var i in order)
+        {
+            var (text, x, y) = points[i];
+            var px = (x - xMin) / (xMax - xMin) * areaWidth;
+            var py = (yMax - y) / (yMax - yMin) * areaHeight;
+            var width = 7.5 * text.Length + 4;
+            RankingLabel? chosen = null;
+            // Try the usual place, then one line lower, one higher, two lower, ...
+            for (var k = 0; k < 4 * points.Count + 1 && chosen is null; k++)
+            {
+                var shift = k == 0 ? 0 : (k % 2 == 1 ? 1 : -1) * ((k + 1) / 2);
+                var offsetY = firstOffsetY + shift * lineHeight;
+                var candidate = new RankingLabel(text, x, y, offsetX, offsetY, px + offsetX, py + offsetY, width, lineHeight);
+                if (!placed.Any(p => p.Overlaps(candidate))) chosen = candidate;
+            }
+
+            placed.Add(chosen ?? new RankingLabel(text, x, y, offsetX, firstOffsetY + placed.Count * lineHeight, px + offsetX, py + firstOffsetY + placed.Count * lineHeight, width, lineHeight));
+        }
+
+        return placed;
     }
 
     /// <summary>A probability as text: 3 significant digits, exponent form below 1e-3.</summary>
@@ -266,4 +313,21 @@ public static class ReportCharts
             else v.ExcludeFromLegend = true;
         }
     }
+}
+
+/// <summary>A label of the ranking plot: its point in data units, its offset in pixels and its approximate box in pixels.</summary>
+/// <param name="Text">Component identifier.</param>
+/// <param name="X">Point x (years).</param>
+/// <param name="Y">Point y (log10 of the probability).</param>
+/// <param name="OffsetX">Horizontal offset of the text from the point, pixels.</param>
+/// <param name="OffsetY">Vertical offset of the text from the point, pixels (down is positive).</param>
+/// <param name="Left">Left of the text box in the data area, pixels.</param>
+/// <param name="Top">Top of the text box in the data area, pixels.</param>
+/// <param name="Width">Box width, pixels.</param>
+/// <param name="Height">Box height, pixels.</param>
+internal sealed record RankingLabel(string Text, double X, double Y, float OffsetX, float OffsetY, double Left, double Top, double Width, double Height)
+{
+    /// <summary>True when the two boxes share some area.</summary>
+    public bool Overlaps(RankingLabel other) =>
+        Left < other.Left + other.Width && other.Left < Left + Width && Top < other.Top + other.Height && other.Top < Top + Height;
 }

@@ -34,6 +34,102 @@ public sealed class CommandLineTests
         Assert.Contains("inspection-update " + noun, run.Output, StringComparison.Ordinal);
     }
 
+    [Theory]
+    [InlineData("site", "add")]
+    [InlineData("component", "add")]
+    [InlineData("finding", "log")]
+    [InlineData("finding", "correct")]
+    [InlineData("finding", "list")]
+    [InlineData("repair", "log")]
+    [InlineData("method", "fit")]
+    [InlineData("assess", null)]
+    [InlineData("plan", null)]
+    [InlineData("report", null)]
+    public void Help_examples_split_by_a_shell_give_each_option_at_most_one_value(string noun, string? verb)
+    {
+        using var cli = new CliRunner();
+        var help = (verb is null ? cli.Run(noun, "--help") : cli.Run(noun, verb, "--help")).Output;
+        var examples = help.Split('\n').SkipWhile(l => !l.StartsWith("EXAMPLES:", StringComparison.Ordinal)).Skip(1)
+            .TakeWhile(l => l.Trim().Length > 0).Select(l => l.Trim()).Where(l => l.StartsWith("inspection-update", StringComparison.Ordinal)).ToArray();
+        Assert.NotEmpty(examples);
+        foreach (var example in examples)
+        {
+            var words = ShellWords(example);
+            // After the first option, an option takes at most one value: a multi-word value must be quoted.
+            var values = 0;
+            foreach (var w in words.SkipWhile(w => !w.StartsWith('-')))
+            {
+                values = w.StartsWith('-') ? 0 : values + 1;
+                Assert.True(values <= 1, $"'{w}' is a stray word in the example: {example}");
+            }
+        }
+    }
+
+    [Theory]
+    [InlineData("log")]
+    [InlineData("correct")]
+    public void Finding_outcome_help_lists_every_outcome_the_command_accepts(string verb)
+    {
+        using var cli = new CliRunner();
+        var help = System.Text.RegularExpressions.Regex.Replace(cli.Run("finding", verb, "--help").Output, @"\s+", " ");
+        var accepted = InspectionUpdate.Cli.Commands.FindingText.Outcomes
+            .Concat(Enum.GetValues<InspectionUpdate.Register.FindingKind>().Select(InspectionUpdate.Register.RegisterStore.KindText));
+        foreach (var outcome in accepted)
+        {
+            Assert.Contains(outcome, help, StringComparison.Ordinal);
+            // Every listed word is one the command takes.
+            _ = InspectionUpdate.Cli.Commands.FindingText.Kind(outcome);
+        }
+    }
+
+    [Fact]
+    public void Model_version_help_claims_no_field_the_model_file_schema_lacks()
+    {
+        using var cli = new CliRunner();
+        var help = cli.Run("component", "add", "--help").Output;
+        Assert.DoesNotContain("\"version\" field", help, StringComparison.Ordinal);
+        var folder = new DirectoryInfo(AppContext.BaseDirectory);
+        while (folder is not null && !File.Exists(Path.Combine(folder.FullName, "docs", "schema", "component-model.schema.json"))) folder = folder.Parent;
+        Assert.NotNull(folder);
+        var schema = File.ReadAllText(Path.Combine(folder.FullName, "docs", "schema", "component-model.schema.json"));
+        Assert.DoesNotContain("\"version\"", schema, StringComparison.Ordinal);
+    }
+
+    private static List<string> ShellWords(string line)
+    {
+        var words = new List<string>();
+        var current = new System.Text.StringBuilder();
+        char? quote = null;
+        var inWord = false;
+        foreach (var c in line)
+        {
+            if (quote is { } q)
+            {
+                if (c == q) quote = null;
+                else current.Append(c);
+            }
+            else if (c is '"' or '\'')
+            {
+                quote = c;
+                inWord = true;
+            }
+            else if (char.IsWhiteSpace(c))
+            {
+                if (inWord) words.Add(current.ToString());
+                current.Clear();
+                inWord = false;
+            }
+            else
+            {
+                current.Append(c);
+                inWord = true;
+            }
+        }
+
+        if (inWord) words.Add(current.ToString());
+        return words;
+    }
+
     [Fact]
     public void Unknown_command_is_bad_input_with_one_sentence_and_no_stack_trace()
     {

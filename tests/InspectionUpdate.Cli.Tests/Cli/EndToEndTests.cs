@@ -87,6 +87,42 @@ public sealed class EndToEndTests
     }
 
     [Fact]
+    public void An_as_of_date_before_the_component_was_recorded_names_the_component_and_both_dates()
+    {
+        using var cli = Prepared(out var register);
+        var recorded = cli.Run("component", "list", "-r", register, "--json").Json().GetProperty("components")[0].GetProperty("recorded_utc").GetDateTimeOffset();
+        var recordedText = recorded.UtcDateTime.ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture);
+        var asOf = DateOnly.FromDateTime(recorded.UtcDateTime).AddYears(-3).ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture);
+        foreach (var command in new[] { "assess", "plan", "report" })
+        {
+            var run = cli.Run(command, "IL3-KP42", "-r", register, "--as-of", asOf, "--out", "rep");
+            Assert.Equal(ExitCodes.BadInput, run.ExitCode);
+            Assert.DoesNotContain("is not in the register", run.Error, StringComparison.Ordinal);
+            Assert.Contains("IL3-KP42", run.Error, StringComparison.Ordinal);
+            Assert.Contains("--as-of '" + asOf + "'", run.Error, StringComparison.Ordinal);
+            Assert.Contains("recorded in the register on " + recordedText, run.Error, StringComparison.Ordinal);
+        }
+
+        Assert.Contains("is not in the register", cli.Run("assess", "NOPE-1", "-r", register, "--as-of", asOf).Error, StringComparison.Ordinal);
+    }
+
+    [Theory]
+    [InlineData("assess")]
+    [InlineData("plan")]
+    [InlineData("report")]
+    public void As_of_help_says_the_register_is_read_as_known_on_that_date(string command)
+    {
+        using var cli = new CliRunner();
+        var help = cli.Run(command, "--help").Output;
+        // The option's description: its own row and the wrapped rows under it, up to the next option.
+        var rows = help.Split('\n').SkipWhile(l => !l.Contains("--as-of", StringComparison.Ordinal)).ToArray();
+        var own = rows.Take(1).Concat(rows.Skip(1).TakeWhile(l => !l.TrimStart().StartsWith('-') && l.Trim().Length > 0));
+        var line = System.Text.RegularExpressions.Regex.Replace(string.Join(' ', own), @"\s+", " ");
+        Assert.Contains("as known on that date", line, StringComparison.Ordinal);
+        foreach (var what in new[] { "components", "methods", "findings" }) Assert.Contains(what, line, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Assess_runs_straight_on_a_model_file_without_a_register()
     {
         using var cli = new CliRunner();

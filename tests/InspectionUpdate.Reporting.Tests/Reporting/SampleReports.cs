@@ -11,11 +11,11 @@ internal static class SampleReports
 {
     public static readonly DateOnly InService = new(2012, 6, 1);
 
-    public static ReliabilityProfile Profile(string label, double scale, bool oneNotConverged = false)
+    public static ReliabilityProfile Profile(string label, double scale, bool oneNotConverged = false, int years = 30)
     {
         var points = new List<ProfilePoint>();
         var previous = 0.0;
-        for (var t = 1; t <= 30; t++)
+        for (var t = 1; t <= years; t++)
         {
             // Pf(t) = scale·t⁴ capped below 1: an increasing test curve.
             var pf = Math.Min(0.5, scale * Math.Pow(t, 4));
