@@ -33,6 +33,9 @@ public sealed record ChartMarkers(IReadOnlyList<double> InspectionYears, IReadOn
 /// </summary>
 public static class ReportCharts
 {
+    /// <summary>Largest |β| drawn; beyond it (Pf below about 1e-17) points sit at the edge.</summary>
+    private const double BetaEdge = 8.5;
+
     /// <summary>A profile chart: prior against updated, with the target line (annual Pf only) and event markers.</summary>
     /// <param name="quantity">What to draw.</param>
     /// <param name="prior">Prior profile, or null.</param>
@@ -47,7 +50,7 @@ public static class ReportCharts
         ArgumentNullException.ThrowIfNull(markers);
         var (title, yLabel) = quantity switch
         {
-            ProfileQuantity.Beta => ("Reliability index β(t)", "β (cumulative, generalized)"),
+            ProfileQuantity.Beta => ("Reliability index β(t)", "β (cumulative, generalized; drawn at most 8.5)"),
             ProfileQuantity.AnnualPf => ("Annual failure probability ΔPf(t)", "ΔPf per year (log scale)"),
             _ => ("Cumulative failure probability Pf(t)", "Pf(t) (log scale)"),
         };
@@ -298,7 +301,9 @@ public static class ReportCharts
 
     private static double Value(ProfileQuantity quantity, ProfilePoint p) => quantity switch
     {
-        ProfileQuantity.Beta => double.IsFinite(p.Beta) ? p.Beta : Math.Sign(p.Beta) * 8.5,
+        // Pf = 0 has β = ∞; every β beyond ±8.5 (Pf below about 1e-17) is drawn at the edge, so a finite 12 never
+        // plots above an infinite one.
+        ProfileQuantity.Beta => double.IsFinite(p.Beta) ? Math.Clamp(p.Beta, -BetaEdge, BetaEdge) : Math.Sign(p.Beta) * BetaEdge,
         ProfileQuantity.AnnualPf => PlotStyle.Log10(p.IntervalPf),
         _ => PlotStyle.Log10(p.CumulativePf),
     };
