@@ -7,6 +7,9 @@ namespace InspectionUpdate.Reliability;
 /// </summary>
 internal static class ProfileIncrement
 {
+    /// <summary>Falls of the cumulative Pf smaller than this are noise whatever the estimates' own uncertainty.</summary>
+    public const double AbsoluteFloor = 1e-12;
+
     /// <summary>The increment, whether it is consistent, and a note when it was changed or is inconsistent.</summary>
     /// <param name="pf">Cumulative Pf at t.</param>
     /// <param name="cov">CoV of <paramref name="pf"/> when simulated, else null.</param>
@@ -18,8 +21,9 @@ internal static class ProfileIncrement
         if (!(interval < 0)) return (interval, true, null);
 
         // Three standard deviations of each simulated estimate; a deterministic (first-order, quadrature) estimate
-        // is trusted to 1e-3 relative, the accuracy of the multinormal integrals behind it.
-        var noise = 3 * ((cov ?? 0) * pf + (previousCov ?? 0) * previousPf) + 1e-3 * previousPf + 1e-15;
+        // is trusted to 1e-3 relative, the accuracy of the multinormal integrals behind it; and an absolute floor of
+        // 1e-12, a millionth of the smallest annual target in use (about 1e-6), below which no decision changes.
+        var noise = 3 * ((cov ?? 0) * pf + (previousCov ?? 0) * previousPf) + 1e-3 * previousPf + AbsoluteFloor;
         if (-interval <= noise)
         {
             return (0, true, FormattableString.Invariant($"ΔPf {interval:G3} is below 0 by less than the estimates' uncertainty: shown as 0"));

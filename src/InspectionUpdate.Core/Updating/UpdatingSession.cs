@@ -18,6 +18,7 @@ public sealed class UpdatingSession
     private readonly NatafTransformation _transformation;
     private readonly LikelihoodImportanceSampler _sampler;
     private readonly Dictionary<string, double[]> _warm = new(StringComparer.Ordinal);
+    private readonly Dictionary<string, double> _simulateFrom = new(StringComparer.Ordinal);
     private readonly Dictionary<(string, double), (UpdatedEstimate, IReadOnlyList<double>?, IReadOnlyList<double>?, int)> _memo = [];
 
     internal UpdatingSession(UpdatingCase updatingCase, UpdatingOptions options)
@@ -176,9 +177,15 @@ public sealed class UpdatingSession
     {
         var pEvidenceKnown = !Model.Events.Any(e => e.Kind == EvidenceEventKind.Equality);
         string? flagNote = null;
-        if (_options.Route != UpdatingRoute.Simulation)
+        var key = componentId + "#" + Model.RenewalStartYears(componentId, timeYears).ToString("R", System.Globalization.CultureInfo.InvariantCulture);
+        if (_options.Route == UpdatingRoute.Auto && _simulateFrom.TryGetValue(key, out var flaggedAt) && timeYears >= flaggedAt)
         {
-            var key = componentId + "#" + Model.RenewalStartYears(componentId, timeYears).ToString("R", System.Globalization.CultureInfo.InvariantCulture);
+            // Once first order was flagged at some time of a renewal period, later times of that period are simulated
+            // too: a profile that switches back and forth between routes would mix two approximations in one ΔPf.
+            flagNote = FormattableString.Invariant($"simulated because first order was flagged at {flaggedAt:0.###} y, earlier in this renewal period");
+        }
+        else if (_options.Route != UpdatingRoute.Simulation)
+        {
             _warm.TryGetValue(key, out var warm);
             var fo = _firstOrder.Estimate(componentId, timeYears, warm);
             if (fo.Failure.Converged) _warm[key] = fo.Failure.PointU;
@@ -205,6 +212,7 @@ public sealed class UpdatingSession
             }
 
             flagNote = "first order flagged unreliable, simulated instead: " + (fo.Problem ?? flags ?? "not converged");
+            if (!_simulateFrom.TryGetValue(key, out var known) || timeYears < known) _simulateFrom[key] = timeYears;
         }
 
         var sim = _sampler.Conditional(componentId, timeYears);

@@ -42,4 +42,13 @@ public class ProfileIncrementTests
         Assert.Equal(0, interval);
         Assert.True(consistent);
     }
+
+    [Fact]
+    public void A_fall_between_values_far_below_any_target_is_noise()
+    {
+        // 6.5e-15 then 9.3e-19 from a simulation: a fall of 6.5e-15 lies under the 1e-12 absolute floor.
+        var (interval, consistent, _) = ProfileIncrement.Of(9.3e-19, 0.05, 6.5e-15, 0.05);
+        Assert.Equal(0, interval);
+        Assert.True(consistent);
+    }
 }

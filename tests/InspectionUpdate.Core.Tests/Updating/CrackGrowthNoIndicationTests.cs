@@ -133,4 +133,17 @@ public class CrackGrowthNoIndicationTests
         Assert.True(Math.Abs(delta - exactDelta) <= 3 * sdDelta + 4 * seDelta,
             $"ΔPf(20) {delta:G5} (sd ≤ {sdDelta:G3}) against Monte Carlo {exactDelta:G5} ± {seDelta:G3}");
     }
+
+    [Fact]
+    public void The_automatic_route_does_not_switch_back_to_first_order_later_in_a_renewal_period()
+    {
+        // Behaviour, no published value: once first order is flagged at some time, later times are simulated, so
+        // no ΔPf of the profile mixes the two approximations.
+        var profile = new ReliabilityUpdater().Profile(TestModels.ParisCrack(), [new NoIndication(InspectionYears, "N-10", TestModels.Method(Pod))],
+            Enumerable.Range(11, 15).Select(i => (double)i).ToArray(), "updated");
+        var routes = profile.Points.Select(p => p.Route).ToArray();
+        var firstSimulated = Array.IndexOf(routes, ComputationRoute.ImportanceSampling);
+        Assert.True(firstSimulated >= 0, "first order is flagged on this case (see the test above), so some time is simulated");
+        Assert.All(routes[firstSimulated..], r => Assert.Equal(ComputationRoute.ImportanceSampling, r));
+    }
 }

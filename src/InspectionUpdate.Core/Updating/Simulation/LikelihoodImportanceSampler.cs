@@ -172,7 +172,8 @@ internal sealed class LikelihoodImportanceSampler
             }
 
             var estimate = double.IsFinite(cov) ? RatioOf(logW, evidence.LogScale, evidenceMean) : double.NaN;
-            if (double.IsFinite(estimate) && estimate * (1 + 3 * Math.Sqrt(cov * cov + evidence.Evidence.CoefficientOfVariation * evidence.Evidence.CoefficientOfVariation)) < _options.NegligibleProbability)
+            // Only with a design point to sample around: without one the density may simply miss the failure region.
+            if (centre is not null && double.IsFinite(estimate) && estimate * (1 + 3 * Math.Sqrt(cov * cov + evidence.Evidence.CoefficientOfVariation * evidence.Evidence.CoefficientOfVariation)) < _options.NegligibleProbability)
             {
                 stop = FormattableString.Invariant($"below the negligible level {_options.NegligibleProbability:G3} with three standard errors");
                 break;
