@@ -2,8 +2,9 @@ using System.Globalization;
 using InspectionUpdate.Register;
 
 // Commands (all paths absolute):
-//   add-findings <register> <component> <method> <count> <tag>   prints "ready", waits for the file <register>.go, then
-//                                                               writes one transaction per finding; prints "done <count>"
+//   add-findings <register> <component> <method> <count> <tag> [<partner>]   prints "ready", waits for the file
+//       <register>.go, then writes one transaction per finding (in rounds of ten kept in step with the partner's);
+//       prints "done <count>"
 //   import-and-hang <register> <csv> <hangAtRow>                  prints "hanging" inside the import transaction, then blocks
 if (args.Length < 1)
 {
@@ -33,6 +34,10 @@ switch (args[0])
                 Thread.Sleep(5);
             }
 
+            // With a partner tag, the two writers go in rounds of ten findings: each waits at the end of a round until
+            // the partner has finished that round too, so both write within every round whatever the scheduler does
+            // on a loaded machine (inside a round the SQLite lock decides who goes first).
+            var partner = args.Length > 6 ? args[6] : null;
             for (var i = 0; i < count; i++)
             {
                 var finding = new NewFinding(args[2], start.AddDays(i), FindingKind.NoIndication, args[3], Location: $"{args[5]}-{i}");
@@ -41,6 +46,21 @@ switch (args[0])
                 // A short pause between transactions, as between two users' writes: SQLite's lock is not fair, and a
                 // writer looping without pause can hold it for long runs.
                 Thread.Sleep(2);
+                if (partner is not null && i % 10 == 9)
+                {
+                    var round = (i / 10).ToString(CultureInfo.InvariantCulture);
+                    File.WriteAllText($"{args[1]}.{args[5]}.{round}", "");
+                    while (!File.Exists($"{args[1]}.{partner}.{round}"))
+                    {
+                        if (DateTime.UtcNow > deadline.AddMinutes(2))
+                        {
+                            Console.Error.WriteLine("partner did not finish round " + round);
+                            return 4;
+                        }
+
+                        Thread.Sleep(2);
+                    }
+                }
             }
 
             Console.WriteLine($"done {count}");
