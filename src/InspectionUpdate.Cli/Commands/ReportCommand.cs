@@ -88,14 +88,34 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         var now = r.Outcome is null || r.Request is null ? null : ComponentStudy.Current(r.Outcome.Current, r.Request.AsOfYears);
         var ending = now is null || r.Context is null ? (DateOnly?)null : ServiceTime.DateAt(r.Context.InServiceDate, now.TimeYears);
         return new ReportRow(r.ComponentId, now?.AnnualPf, ending, r.Plan?.Next.Date, r.Plan?.RemainingLife.UntilAnnualTarget.RemainingYears, r.AllConverged, r.Error,
-            r.Context is null ? null : Path.Combine(folder, ReportRun.Safe(r.ComponentId) + ".html"));
+            r.Context is null ? null : Path.Combine(folder, ReportRun.Safe(r.ComponentId) + ".html"))
+        {
+            ConvergenceNote = ConvergenceNote(r),
+        };
+    }
+
+    /// <summary>Where a component's numbers did not converge, so that a reader can judge how much it matters.</summary>
+    private static string? ConvergenceNote(ComponentRun r)
+    {
+        if (r.AllConverged || r.Outcome is null) return null;
+        var failed = new[] { r.Outcome.Prior, r.Outcome.Updated }.Where(p => p is not null).SelectMany(p => p!.Points).Where(p => !p.Converged).ToArray();
+        var parts = new List<string>();
+        if (failed.Length > 0)
+        {
+            var largest = failed.Max(p => p.CumulativePf);
+            parts.Add(string.Create(CultureInfo.InvariantCulture,
+                $"{failed.Length} profile step(s) not converged (at {string.Join(", ", failed.Select(p => p.TimeYears.ToString("0.##", CultureInfo.InvariantCulture)).Distinct())} y; largest cumulative Pf there {Study.P(largest)})"));
+        }
+
+        if (r.Plan is { AllConverged: false }) parts.Add("some planning estimates not converged");
+        return parts.Count == 0 ? null : string.Join("; ", parts);
     }
 
     internal void Summary(ReportDocument doc) =>
         Table(["component", "annual Pf (grid year ending)", "next inspection", "years to target", "converged", "note"], doc.Components.Select(r => (IReadOnlyList<string>)
         [
             r.ComponentId, r.AnnualPfNow is { } p ? Study.P(p) + (r.AnnualPfYearEnding is { } end ? end.ToString(" (yyyy-MM-dd)", CultureInfo.InvariantCulture) : string.Empty) : "-", r.NextInspection?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? "-",
-            r.YearsToTarget is { } y ? y.ToString("0.0", CultureInfo.InvariantCulture) : "-", r.AllConverged ? "yes" : "NO", r.Error ?? string.Empty,
+            r.YearsToTarget is { } y ? y.ToString("0.0", CultureInfo.InvariantCulture) : "-", r.AllConverged ? "yes" : "NO", r.Error ?? r.ConvergenceNote ?? string.Empty,
         ]));
 }
 
@@ -108,7 +128,11 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
 /// <param name="AllConverged">True when every number converged.</param>
 /// <param name="Error">Why the component was not assessed, or null.</param>
 /// <param name="Report">The component report file, or null.</param>
-public sealed record ReportRow(string ComponentId, double? AnnualPfNow, DateOnly? AnnualPfYearEnding, DateOnly? NextInspection, double? YearsToTarget, bool AllConverged, string? Error, string? Report);
+public sealed record ReportRow(string ComponentId, double? AnnualPfNow, DateOnly? AnnualPfYearEnding, DateOnly? NextInspection, double? YearsToTarget, bool AllConverged, string? Error, string? Report)
+{
+    /// <summary>Where the numbers did not converge (steps, their times and the largest cumulative Pf there), or null.</summary>
+    public string? ConvergenceNote { get; init; }
+}
 
 /// <summary>--json of <c>report</c>.</summary>
 public sealed record ReportDocument(string OutputFolder, string PortfolioReport, string Fingerprint, DateOnly AsOf, double TargetAnnualPf, IReadOnlyList<ReportRow> Components, string Caution);

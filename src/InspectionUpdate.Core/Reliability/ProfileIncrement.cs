@@ -23,7 +23,7 @@ internal static class ProfileIncrement
         // Three standard deviations of each simulated estimate; a deterministic (first-order, quadrature) estimate
         // is trusted to 1e-3 relative, the accuracy of the multinormal integrals behind it; and an absolute floor of
         // 1e-12, a millionth of the smallest annual target in use (about 1e-6), below which no decision changes.
-        var noise = 3 * ((cov ?? 0) * pf + (previousCov ?? 0) * previousPf) + 1e-3 * previousPf + AbsoluteFloor;
+        var noise = 3 * (Spread(pf, cov) + Spread(previousPf, previousCov)) + 1e-3 * previousPf + AbsoluteFloor;
         if (-interval <= noise)
         {
             return (0, true, FormattableString.Invariant($"ΔPf {interval:G3} is below 0 by less than the estimates' uncertainty: shown as 0"));
@@ -32,4 +32,9 @@ internal static class ProfileIncrement
         return (interval, false, FormattableString.Invariant(
             $"the cumulative Pf fell from {previousPf:G4} to {pf:G4}, impossible for monotone degradation: this step's estimate is not reliable"));
     }
+
+    // One standard deviation of an estimate; a simulated 0 has CoV ∞ and no spread, and a non-finite CoV on a
+    // positive value is taken as the value itself (never NaN, which would make every comparison false).
+    private static double Spread(double p, double? cov) =>
+        p <= 0 || cov is null ? 0 : double.IsFinite(cov.Value) ? cov.Value * p : p;
 }

@@ -51,4 +51,13 @@ public class ProfileIncrementTests
         Assert.Equal(0, interval);
         Assert.True(consistent);
     }
+
+    [Fact]
+    public void A_simulated_zero_after_a_tiny_value_is_noise_not_a_NaN_comparison()
+    {
+        // A zero estimate carries CoV ∞; ∞·0 must not turn the check into NaN (which flagged a fall of 1.4e-74).
+        var (interval, consistent, _) = ProfileIncrement.Of(0, double.PositiveInfinity, 1.36e-74, 0.5);
+        Assert.Equal(0, interval);
+        Assert.True(consistent);
+    }
 }
