@@ -20,6 +20,9 @@ public sealed class DemoTests
         var summary = json.GetProperty("summary").EnumerateArray().ToArray();
         Assert.Equal(4, summary.Length);
         Assert.All(summary, r => Assert.Equal(JsonValueKind.Null, r.GetProperty("error").ValueKind));
+        // A component whose numbers did not all converge says where, so that a reader can judge how much it matters.
+        Assert.All(summary.Where(r => !r.GetProperty("all_converged").GetBoolean()),
+            r => Assert.Contains("not converged", r.GetProperty("convergence_note").GetString(), StringComparison.Ordinal));
         var index = json.GetProperty("portfolio_report").GetString()!;
         Assert.True(File.Exists(index));
         var html = File.ReadAllText(index);
