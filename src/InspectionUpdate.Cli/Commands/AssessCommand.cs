@@ -83,7 +83,7 @@ public sealed class AssessCommand(CliHost host) : CliCommand<AssessSettings>(hos
                 ]));
             if (doc.Current is { } c)
             {
-                Line($"Grid year ending {ServiceTime.DateAt(context.InServiceDate, c.TimeYears):yyyy-MM-dd} ({c.TimeYears.ToString("0.##", CultureInfo.InvariantCulture)} years, the first grid time at or after the as-of date): annual Pf {Study.P(c.AnnualPf)}, cumulative Pf {Study.P(c.CumulativePf)}, β {c.Beta.ToString("0.00", CultureInfo.InvariantCulture)} ({c.Route}{(c.Converged ? ", converged" : ", NOT converged")}{(c.Cov is { } v ? ", CoV " + v.ToString("0.000", CultureInfo.InvariantCulture) : string.Empty)}).");
+                Line($"Grid year ending {ServiceTime.DateAt(context.InServiceDate, c.TimeYears):yyyy-MM-dd} ({c.TimeYears.ToString("0.##", CultureInfo.InvariantCulture)} years, the first grid time at or after the as-of date): annual Pf {Study.P(c.AnnualPf)}, cumulative Pf {Study.P(c.CumulativePf)}, β {(Math.Abs(c.Beta) >= 99 ? (c.Beta > 0 ? "∞ (Pf 0)" : "−∞ (Pf 1)") : c.Beta.ToString("0.00", CultureInfo.InvariantCulture))} ({c.Route}{(c.Converged ? ", converged" : ", NOT converged")}{(c.Cov is { } v ? ", CoV " + v.ToString("0.000", CultureInfo.InvariantCulture) : string.Empty)}).");
             }
 
             if (!outcome.AllConverged) Line("Some steps did not converge: their numbers are best estimates only (exit code 3).");
