@@ -109,7 +109,9 @@ public static class ReportCharts
                 log ? Math.Floor(yMin - pad) : yMin - pad, log ? Math.Ceiling(yMax + pad) : yMax + pad);
         }
 
-        plot.ShowLegend(Alignment.LowerRight);
+        // β falls with time (curves end low on the right), failure probabilities rise (curves end high on the right):
+        // the legend goes to the corner the curves leave empty.
+        plot.ShowLegend(quantity == ProfileQuantity.Beta ? Alignment.UpperRight : Alignment.LowerRight);
         return PlotStyle.Png(plot);
     }
 
