@@ -31,6 +31,9 @@ internal sealed record AssessmentRequest(string ComponentId, IDegradationModel M
 /// <param name="PosteriorNote">Why the posterior is missing, or null.</param>
 internal sealed record AssessmentOutcome(ReliabilityProfile Prior, ReliabilityProfile? Updated, PosteriorSummary? Posterior, string? PosteriorNote)
 {
+    /// <summary>Prior and posterior draws of the inputs for histograms; empty without evidence.</summary>
+    public IReadOnlyList<InputSamples> Samples { get; init; } = [];
+
     /// <summary>The profile that describes the component now: updated when there is evidence, else the prior.</summary>
     public ReliabilityProfile Current => Updated ?? Prior;
 
@@ -78,10 +81,12 @@ internal static class ComponentAssessment
         var updated = session.Profile(UpdatingCase.SingleComponentId, grid.TimesYears, label);
         progress(0.8);
         PosteriorSummary? posterior = null;
+        IReadOnlyList<InputSamples> samples = [];
         string? note = null;
         try
         {
             posterior = session.Posterior();
+            samples = session.PosteriorSamples();
         }
         catch (InvalidOperationException e)
         {
@@ -89,7 +94,7 @@ internal static class ComponentAssessment
         }
 
         progress(1.0);
-        return new AssessmentOutcome(prior, updated, posterior, note);
+        return new AssessmentOutcome(prior, updated, posterior, note) { Samples = samples };
     }
 
     /// <summary>Next inspection, schedule and remaining life against <paramref name="target"/>.</summary>

@@ -148,6 +148,8 @@ internal static class ComponentStudy
             Importance = importance,
             PodCurves = PodMethods(c, plan).Select(mt => ReportMapping.Pod(mt, maxSize)).ToArray(),
             PosteriorSummaries = ReportMapping.Posterior(o.Posterior),
+            Posteriors = o.Samples.Select(s => new ReportPosterior(s.Name, s.Prior, s.Posterior,
+                o.Posterior is null ? "importance sampling" : string.Create(CultureInfo.InvariantCulture, $"importance sampling, ESS {o.Posterior.EffectiveSampleSize:F0}"))).ToArray(),
             PosteriorRoute = ReportMapping.PosteriorRoute(o.Posterior),
             Plan = plan is null ? null : ReportMapping.Plan(plan, notRequested),
             Assumptions = assumptions,

@@ -147,6 +147,58 @@ public sealed class UpdatingSession
         }
     }
 
+    /// <summary>
+    /// Draws of every random model input from the prior and from the posterior given every finding, for
+    /// histograms: the prior by the transformation of independent standard normals, the posterior by systematic
+    /// resampling of the weighted samples behind <see cref="Posterior"/> (so it shows what that summary rests on,
+    /// with its effective sample size as the limit of its detail). Reproducible from the options' seed.
+    /// </summary>
+    /// <param name="count">Draws per distribution (≥ 10).</param>
+    /// <exception cref="ArgumentOutOfRangeException">count below 10.</exception>
+    public IReadOnlyList<InputSamples> PosteriorSamples(int count = 2000)
+    {
+        if (count < 10) throw new ArgumentOutOfRangeException(nameof(count), count, "At least 10 draws.");
+        lock (_gate)
+        {
+            var samples = _sampler.Evidence();
+            var model = Model.InputModel;
+            var transformation = new NatafTransformation(model);
+            var rng = new Random(unchecked(_options.Seed * 31 + 7));
+            var u = new double[transformation.StandardDimension];
+            var x = new double[transformation.PhysicalDimension];
+            var prior = new double[count][];
+            for (var k = 0; k < count; k++)
+            {
+                for (var i = 0; i < u.Length; i++) u[i] = StandardNormal.InverseCdf(1 - rng.NextDouble());
+                transformation.ToPhysical(u, x);
+                prior[k] = (double[])x.Clone();
+            }
+
+            var w = samples.Weights;
+            var total = w.Sum();
+            var picks = new int[count];
+            var step = total / count;
+            var next = rng.NextDouble() * step;
+            var cumulative = 0.0;
+            var j = 0;
+            for (var k = 0; k < count; k++)
+            {
+                while (j < w.Length - 1 && cumulative + w[j] < next)
+                {
+                    cumulative += w[j];
+                    j++;
+                }
+
+                picks[k] = j;
+                next += step;
+            }
+
+            return model.RandomIndices
+                .Select(i => new InputSamples(model.Variables[i].Name, prior.Select(p => p[i]).ToArray(), picks.Select(k => samples.X[k][i]).ToArray()))
+                .ToArray();
+        }
+    }
+
     private static double Quantile(int[] order, double[] values, double[] w, double total, double p)
     {
         var target = p * total;
@@ -229,3 +281,9 @@ public sealed class UpdatingSession
         }, null, null, (int)Math.Min(int.MaxValue, sim.Evaluations));
     }
 }
+
+/// <summary>Prior and posterior draws of one model input (physical units).</summary>
+/// <param name="Name">Input name.</param>
+/// <param name="Prior">Draws from the prior.</param>
+/// <param name="Posterior">Draws from the posterior given the findings (resampled importance samples).</param>
+public sealed record InputSamples(string Name, IReadOnlyList<double> Prior, IReadOnlyList<double> Posterior);

@@ -91,6 +91,14 @@ public sealed class ReportContentTests(ReportRunFixture run) : IClassFixture<Rep
     }
 
     [Fact]
+    public void A_component_with_findings_shows_prior_and_posterior_histograms_of_its_uncertain_inputs()
+    {
+        var plots = ReportRunFixture.Section(run.ComponentHtml, "plots");
+        // The corrosion model's rate is uncertain and the findings inform it.
+        Assert.Contains("Prior and posterior samples of rate_mmPerYear", plots, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void The_first_revision_of_a_finding_reads_original_record()
     {
         var findings = ReportRunFixture.Section(run.ComponentHtml, "findings");

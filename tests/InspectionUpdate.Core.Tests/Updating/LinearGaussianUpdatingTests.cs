@@ -126,6 +126,33 @@ public class LinearGaussianUpdatingTests
     }
 
     [Fact]
+    [Trait("Category", "Statistical")]
+    [Reference("Closed form: conjugate Gaussian posterior of (D0, R), computed in the test; the prior N(RMean, RSd) of the model")]
+    public void Posterior_draws_for_histograms_follow_the_prior_and_the_conjugate_posterior()
+    {
+        var (mean, cov) = ExactPosterior(Readings);
+        var session = new ReliabilityUpdater(new UpdatingOptions { Seed = 5 }).Prepare(Model(), Evidence());
+        var summary = session.Posterior();
+        var rate = session.PosteriorSamples(4000).Single(s => s.Name == "R_mmPerYear");
+        static (double Mean, double Sd) Moments(IReadOnlyList<double> v)
+        {
+            var m = v.Average();
+            return (m, Math.Sqrt(v.Sum(x => (x - m) * (x - m)) / (v.Count - 1)));
+        }
+
+        // Prior: 4000 independent draws, so the mean lies within 4σ/√4000 of the prior mean.
+        var (priorMean, priorSd) = Moments(rate.Prior);
+        Assert.True(Math.Abs(priorMean - RMean) <= 4 * RSd / Math.Sqrt(4000), $"prior mean {priorMean}");
+        Assert.True(Math.Abs(priorSd - RSd) <= 4 * RSd / Math.Sqrt(2 * 4000), $"prior sd {priorSd}");
+        // Posterior: resampled importance samples carry no more information than the effective sample size.
+        var sd = Math.Sqrt(cov[1, 1]);
+        var n = Math.Min(summary.EffectiveSampleSize, 4000);
+        var (postMean, postSd) = Moments(rate.Posterior);
+        Assert.True(Math.Abs(postMean - mean[1]) <= 5 * sd / Math.Sqrt(n), $"posterior mean {postMean} against {mean[1]}");
+        Assert.True(Math.Abs(postSd - sd) <= 5 * sd / Math.Sqrt(2 * n), $"posterior sd {postSd} against {sd}");
+    }
+
+    [Fact]
     [Reference("Madsen (1987), one equality: P(F | H = 0) = Φ(−(β_F − ρβ_H)/√(1 − ρ²)) (from memory), exact for linear Gaussian events")]
     public void One_sized_reading_reproduces_Madsens_single_equality_formula()
     {
