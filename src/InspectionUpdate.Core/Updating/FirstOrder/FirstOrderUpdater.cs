@@ -174,7 +174,8 @@ internal sealed class FirstOrderUpdater
 
         if (keep.Count < _events.Length)
         {
-            _evidenceEvaluations += _linear.Sum(l => l.Evaluations);
+            // The dropped events' FORM work still counts; the kept ones are counted below.
+            _evidenceEvaluations += Enumerable.Range(0, _events.Length).Where(i => !keep.Contains(i)).Sum(i => _linear[i].Evaluations + _events[i].Evaluations);
             _events = keep.Select(i => _events[i]).ToArray();
             _linear = keep.Select(i => _linear[i]).ToArray();
         }
