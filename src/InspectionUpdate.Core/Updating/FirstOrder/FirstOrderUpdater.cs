@@ -162,23 +162,19 @@ internal sealed class FirstOrderUpdater
         var keep = new List<int>();
         for (var i = 0; i < _events.Length; i++)
         {
-            if (IsCertain(_events[i], _linear[i]))
-            {
-                _certainNotes.Add($"'{_linear[i].Name}' holds with probability above 1 − 1e-15 (e.g. a finding of nothing before degradation can start): it carries no information and is left out of the first-order events");
-            }
-            else
+            if (!IsCertain(_events[i], _linear[i]))
             {
                 keep.Add(i);
+                continue;
             }
+
+            // Left out, but its FORM work still counts (the kept events are counted below).
+            _evidenceEvaluations += _linear[i].Evaluations + _events[i].Evaluations;
+            _certainNotes.Add($"'{_linear[i].Name}' holds with probability above 1 − 1e-15 (e.g. a finding of nothing before degradation can start): it carries no information and is left out of the first-order events");
         }
 
-        if (keep.Count < _events.Length)
-        {
-            // The dropped events' FORM work still counts; the kept ones are counted below.
-            _evidenceEvaluations += Enumerable.Range(0, _events.Length).Where(i => !keep.Contains(i)).Sum(i => _linear[i].Evaluations + _events[i].Evaluations);
-            _events = keep.Select(i => _events[i]).ToArray();
-            _linear = keep.Select(i => _linear[i]).ToArray();
-        }
+        _events = keep.Select(i => _events[i]).ToArray();
+        _linear = keep.Select(i => _linear[i]).ToArray();
 
         foreach (var l in _linear.Where(l => !l.Converged)) _evidenceFlags.Add($"FORM on '{l.Name}' did not converge: {l.Diagnostic}");
         for (var i = 0; i < _events.Length; i++)

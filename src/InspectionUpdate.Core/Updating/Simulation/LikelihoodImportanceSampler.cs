@@ -157,10 +157,11 @@ internal sealed class LikelihoodImportanceSampler
                 }
             }
 
-            cov = CoefficientOfVariation(logW, null, out _);
+            var scale = logW.Max();
+            cov = CoefficientOfVariation(logW, scale, out var scaledMean);
             var covEvidence = evidence.Evidence.CoefficientOfVariation;
-            if (Math.Sqrt(cov * cov + covEvidence * covEvidence) <= _options.TargetCoefficientOfVariation
-                || logW.Count + _options.SamplesPerBatch > _options.MaxSamples) break;
+            var covTotal = Math.Sqrt(cov * cov + covEvidence * covEvidence);
+            if (covTotal <= _options.TargetCoefficientOfVariation || logW.Count + _options.SamplesPerBatch > _options.MaxSamples) break;
 
             // Two honest early stops, so that probabilities far below any decision level do not spend the sample cap:
             // (1) many failures were drawn and every one contradicts the findings (zero likelihood), so F ∩ data is
@@ -171,9 +172,10 @@ internal sealed class LikelihoodImportanceSampler
                 break;
             }
 
-            var estimate = double.IsFinite(cov) ? RatioOf(logW, evidence.LogScale, evidenceMean) : double.NaN;
+            // The batch's estimate from the mean the CoV pass already formed (no second pass over the weights).
+            var estimate = double.IsFinite(cov) ? scaledMean * Math.Exp(scale - evidence.LogScale) / evidenceMean : double.NaN;
             // Only with a design point to sample around: without one the density may simply miss the failure region.
-            if (centre is not null && double.IsFinite(estimate) && estimate * (1 + 3 * Math.Sqrt(cov * cov + evidence.Evidence.CoefficientOfVariation * evidence.Evidence.CoefficientOfVariation)) < _options.NegligibleProbability)
+            if (centre is not null && double.IsFinite(estimate) && estimate * (1 + 3 * covTotal) < _options.NegligibleProbability)
             {
                 stop = FormattableString.Invariant($"below the negligible level {_options.NegligibleProbability:G3} with three standard errors");
                 break;
