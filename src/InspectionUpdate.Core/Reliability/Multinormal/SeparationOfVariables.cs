@@ -24,6 +24,12 @@ internal sealed class SeparationOfVariables
     private readonly double[] _flatCoefficients;
     private readonly double[] _inverseDiagonal;
 
+    // The first variable's interval depends on no earlier variable: its reflection, lower Φ and mass are the same for
+    // every point, so the vector integrands take them from here instead of evaluating Φ twice per point.
+    private readonly Vector256<double> _firstFlip;
+    private readonly Vector256<double> _firstLowerMass;
+    private readonly Vector256<double> _firstMass;
+
     private SeparationOfVariables(int rank, int[] groupStart, double[][] coefficients, double[] lower, double[] upper)
     {
         _rank = rank;
@@ -38,6 +44,11 @@ internal sealed class SeparationOfVariables
             coef.CopyTo(_flatCoefficients, k * rank);
             _inverseDiagonal[k] = 1 / coef[^1];
         }
+
+        var (lo, hi) = Bounds(0, ReadOnlySpan<Vector256<double>>.Empty);
+        var one = Vector256<double>.One;
+        (_firstFlip, var a, var b) = Reflect(lo, hi, ref one);
+        _firstMass = one * (UpperMass(b) - LowerMass(a, out _firstLowerMass));
     }
 
     public static MultinormalResult Integrate(double[] a, double[] b, double[,] r, MultinormalOptions options)
@@ -251,8 +262,8 @@ internal sealed class SeparationOfVariables
     /// <param name="y">Scratch of length rank.</param>
     private Vector256<double> Evaluate(ReadOnlySpan<Vector256<double>> w, Span<Vector256<double>> y)
     {
-        var product = Vector256<double>.One;
-        for (var j = 0; j < _rank; j++)
+        var product = First(w, y);
+        for (var j = 1; j < _rank; j++)
         {
             var (lo, hi) = Bounds(j, y);
             var (flip, a, b) = Reflect(lo, hi, ref product);
@@ -275,9 +286,9 @@ internal sealed class SeparationOfVariables
         ReadOnlySpan<Vector256<double>> wA, ReadOnlySpan<Vector256<double>> wB, Span<Vector256<double>> yA, Span<Vector256<double>> yB,
         out Vector256<double> fA, out Vector256<double> fB)
     {
-        var productA = Vector256<double>.One;
-        var productB = Vector256<double>.One;
-        for (var j = 0; j < _rank; j++)
+        var productA = First(wA, yA);
+        var productB = First(wB, yB);
+        for (var j = 1; j < _rank; j++)
         {
             var (loA, hiA) = Bounds(j, yA);
             var (loB, hiB) = Bounds(j, yB);
@@ -300,6 +311,14 @@ internal sealed class SeparationOfVariables
 
         fA = Vector256.Max(productA, Vector256<double>.Zero);
         fB = Vector256.Max(productB, Vector256<double>.Zero);
+    }
+
+    /// <summary>Step 0 of the vector integrands from the stored constants: y₀ of the four points and the product so far.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private Vector256<double> First(ReadOnlySpan<Vector256<double>> w, Span<Vector256<double>> y)
+    {
+        if (_rank > 1) y[0] = Draw(_firstFlip, w[0], _firstLowerMass, _firstMass);
+        return _firstMass;
     }
 
     /// <summary>The integration interval of step j for four points, given their earlier y.</summary>

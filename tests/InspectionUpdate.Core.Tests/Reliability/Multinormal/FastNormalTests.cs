@@ -85,4 +85,43 @@ public class FastNormalTests
         Assert.Equal(-38.5, edges[2]);
         Assert.Equal(0, edges[3], 1e-16);
     }
+
+    [Fact]
+    [Reference("Independent computation: Math.Exp (the runtime's scalar exponential) from −708 to 0 and on the clamp")]
+    public void Vector_exponential_agrees_with_the_runtime_exponential()
+    {
+        var worst = 0.0;
+        for (var x = -708.0; x <= 1; x += 0.01731)
+        {
+            double[] lanes = [x, x * 0.5, x * 1e-3, -0.5 * x * x / 700];
+            var result = FastNormal.Exp(Vector256.Create(lanes));
+            for (var i = 0; i < 4; i++) worst = Math.Max(worst, Math.Abs(result[i] - Math.Exp(lanes[i])) / Math.Exp(lanes[i]));
+        }
+
+        Assert.True(worst < 5e-16, $"worst relative error {worst:G3}");
+        // Below −708 the argument is clamped: a positive normal number, never a subnormal, NaN or ∞.
+        var clamped = FastNormal.Exp(Vector256.Create(-800.0));
+        Assert.Equal(Math.Exp(-708), clamped[0], Math.Exp(-708) * 1e-15);
+    }
+
+    [Fact]
+    [Reference("Independent computation: Math.Log (the runtime's scalar logarithm) from 1e-300 to 1e300 and around √2")]
+    public void Vector_logarithm_agrees_with_the_runtime_logarithm()
+    {
+        var worst = 0.0;
+        for (var e = -300.0; e <= 300; e += 0.0137)
+        {
+            var x = Math.Pow(10, e);
+            double[] lanes = [x, 1.4142135623730951 * (1 + 1e-3 * Math.Sin(e)), 1 + 1e-6 * e, 0.5 + 0.49 * Math.Cos(e)];
+            var result = FastNormal.Log(Vector256.Create(lanes));
+            for (var i = 0; i < 4; i++)
+            {
+                var expected = Math.Log(lanes[i]);
+                worst = Math.Max(worst, Math.Abs(result[i] - expected) / Math.Max(Math.Abs(expected), 1e-300));
+            }
+        }
+
+        Assert.True(worst < 1e-15, $"worst relative error {worst:G3}");
+        Assert.Equal(0, FastNormal.Log(Vector256.Create(1.0))[0]);
+    }
 }
