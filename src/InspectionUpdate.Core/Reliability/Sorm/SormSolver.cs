@@ -11,7 +11,8 @@ namespace InspectionUpdate.Reliability.Sorm;
 /// Breitung (1984, J. Eng. Mech. 110(3):357–366), Hohenbichler, Gollwitzer, Kruse &amp; Rackwitz (1987, Structural
 /// Safety 4:267–284) and Tvedt (1990, J. Eng. Mech. 116(6):1183–1197; the three-term formula as printed in the
 /// OpenTURNS theory documentation, "SORM approximation", which writes (1 + βκ) for our (1 − βκ) because its
-/// curvatures have the opposite sign; checked against exact paraboloid probabilities in the tests).
+/// curvatures have the opposite sign; checked against exact paraboloid probabilities and against the Tvedt value printed
+/// by OpenTURNS' own SORM test, t_SORM_std, in the tests).
 /// </summary>
 /// <remarks>
 /// The Hessian H of G(u) is taken by central differences at u*, rotated by an orthogonal R whose last row is α
