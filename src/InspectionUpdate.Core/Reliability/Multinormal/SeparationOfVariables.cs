@@ -24,12 +24,6 @@ internal sealed class SeparationOfVariables
     private readonly double[] _flatCoefficients;
     private readonly double[] _inverseDiagonal;
 
-    // The first variable's interval depends on no earlier variable: its reflection, lower Φ and mass are the same for
-    // every point, so the vector integrands take them from here instead of evaluating Φ twice per point.
-    private readonly Vector256<double> _firstFlip;
-    private readonly Vector256<double> _firstLowerMass;
-    private readonly Vector256<double> _firstMass;
-
     private SeparationOfVariables(int rank, int[] groupStart, double[][] coefficients, double[] lower, double[] upper)
     {
         _rank = rank;
@@ -44,11 +38,6 @@ internal sealed class SeparationOfVariables
             coef.CopyTo(_flatCoefficients, k * rank);
             _inverseDiagonal[k] = 1 / coef[^1];
         }
-
-        var (lo, hi) = Bounds(0, ReadOnlySpan<Vector256<double>>.Empty);
-        var one = Vector256<double>.One;
-        (_firstFlip, var a, var b) = Reflect(lo, hi, ref one);
-        _firstMass = one * (UpperMass(b) - LowerMass(a, out _firstLowerMass));
     }
 
     public static MultinormalResult Integrate(double[] a, double[] b, double[,] r, MultinormalOptions options)
@@ -64,7 +53,19 @@ internal sealed class SeparationOfVariables
             return new MultinormalResult(exact, 1e-15, "exact (rank 1 after pivoted Cholesky)", 1) { Rank = 1, StandardError = 1e-15, Diagnostic = note };
         }
 
-        return sov.RandomizedLattice(dimension, options, note);
+        return Vector512.IsHardwareAccelerated
+            ? sov.RandomizedLattice<Vector512<double>, Lanes512>(dimension, options, note)
+            : sov.RandomizedLattice<Vector256<double>, Lanes256>(dimension, options, note);
+    }
+
+    /// <summary><see cref="Integrate"/> with the vector width chosen by the caller (tests compare the widths).</summary>
+    internal static MultinormalResult Integrate<TV, TL>(double[] a, double[] b, double[,] r, MultinormalOptions options)
+        where TV : struct
+        where TL : struct, IVectorLanes<TV>
+    {
+        var sov = Factorize(a, b, r, options.SingularityTolerance);
+        if (sov._rank < 2) throw new ArgumentException("Only for rank 2 or more.", nameof(r));
+        return sov.RandomizedLattice<TV, TL>(sov._rank - 1, options, null);
     }
 
     /// <summary>
@@ -256,141 +257,16 @@ internal sealed class SeparationOfVariables
     }
 
     /// <summary>
-    /// <see cref="Evaluate(ReadOnlySpan{double}, Span{double})"/> at four points at once, one per vector lane.
-    /// </summary>
-    /// <param name="w">Coordinate j of the four points in w[j].</param>
-    /// <param name="y">Scratch of length rank.</param>
-    private Vector256<double> Evaluate(ReadOnlySpan<Vector256<double>> w, Span<Vector256<double>> y)
-    {
-        var product = First(w, y);
-        for (var j = 1; j < _rank; j++)
-        {
-            var (lo, hi) = Bounds(j, y);
-            var (flip, a, b) = Reflect(lo, hi, ref product);
-            var mass = UpperMass(b) - LowerMass(a, out var pLo);
-            if (j < _rank - 1) y[j] = Draw(flip, w[j], pLo, mass);
-            product *= mass;
-            if (Vector256.LessThanOrEqualAll(product, Vector256<double>.Zero)) return Vector256<double>.Zero;
-        }
-
-        return Vector256.Max(product, Vector256<double>.Zero);
-    }
-
-    /// <summary>
-    /// The vector <see cref="Evaluate(ReadOnlySpan{Vector256{double}}, Span{Vector256{double}})"/> for two groups of
-    /// four points, step by step side by side: within a point the chain Φ → Φ⁻¹ → next bound is sequential, and a
-    /// second independent chain next to it keeps the floating-point units busy while the first waits (measured: two
-    /// chains of vector Φ run 1.8 times faster than one). The same operations per lane, so the same numbers.
-    /// </summary>
-    private void Evaluate(
-        ReadOnlySpan<Vector256<double>> wA, ReadOnlySpan<Vector256<double>> wB, Span<Vector256<double>> yA, Span<Vector256<double>> yB,
-        out Vector256<double> fA, out Vector256<double> fB)
-    {
-        var productA = First(wA, yA);
-        var productB = First(wB, yB);
-        for (var j = 1; j < _rank; j++)
-        {
-            var (loA, hiA) = Bounds(j, yA);
-            var (loB, hiB) = Bounds(j, yB);
-            var (flipA, aA, bA) = Reflect(loA, hiA, ref productA);
-            var (flipB, aB, bB) = Reflect(loB, hiB, ref productB);
-            var massA = UpperMass(bA);
-            var massB = UpperMass(bB);
-            massA -= LowerMass(aA, out var pLoA);
-            massB -= LowerMass(aB, out var pLoB);
-            if (j < _rank - 1)
-            {
-                yA[j] = Draw(flipA, wA[j], pLoA, massA);
-                yB[j] = Draw(flipB, wB[j], pLoB, massB);
-            }
-
-            productA *= massA;
-            productB *= massB;
-            if (Vector256.LessThanOrEqualAll(productA, Vector256<double>.Zero) && Vector256.LessThanOrEqualAll(productB, Vector256<double>.Zero)) break;
-        }
-
-        fA = Vector256.Max(productA, Vector256<double>.Zero);
-        fB = Vector256.Max(productB, Vector256<double>.Zero);
-    }
-
-    /// <summary>Step 0 of the vector integrands from the stored constants: y₀ of the four points and the product so far.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private Vector256<double> First(ReadOnlySpan<Vector256<double>> w, Span<Vector256<double>> y)
-    {
-        if (_rank > 1) y[0] = Draw(_firstFlip, w[0], _firstLowerMass, _firstMass);
-        return _firstMass;
-    }
-
-    /// <summary>The integration interval of step j for four points, given their earlier y.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private (Vector256<double> Lo, Vector256<double> Hi) Bounds(int j, ReadOnlySpan<Vector256<double>> y)
-    {
-        var rank = _rank;
-        var lo = Vector256.Create(double.NegativeInfinity);
-        var hi = Vector256.Create(double.PositiveInfinity);
-        for (var k = _groupStart[j]; k < _groupStart[j + 1]; k++)
-        {
-            var row = _flatCoefficients.AsSpan(k * rank, j);
-            var s = Vector256<double>.Zero;
-            for (var l = 0; l < row.Length; l++) s += Vector256.Create(row[l]) * y[l];
-            var inverse = _inverseDiagonal[k];
-            var ak = (Vector256.Create(_lower[k]) - s) * Vector256.Create(inverse);
-            var bk = (Vector256.Create(_upper[k]) - s) * Vector256.Create(inverse);
-            if (inverse < 0) (ak, bk) = (bk, ak);
-            lo = Vector256.Max(lo, ak);
-            hi = Vector256.Min(hi, bk);
-        }
-
-        return (lo, hi);
-    }
-
-    /// <summary>
-    /// Zeroes the product of empty lanes (giving them harmless finite bounds, so no NaN reaches it) and reflects the
-    /// lanes with lo &gt; 0 (x → −x), so that both Φ values are taken in the lower tail where they do not cancel.
-    /// </summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static (Vector256<double> Flip, Vector256<double> A, Vector256<double> B) Reflect(Vector256<double> lo, Vector256<double> hi, ref Vector256<double> product)
-    {
-        var empty = ~Vector256.GreaterThan(hi, lo);
-        product = Vector256.ConditionalSelect(empty, Vector256<double>.Zero, product);
-        lo = Vector256.ConditionalSelect(empty, Vector256<double>.Zero, lo);
-        hi = Vector256.ConditionalSelect(empty, Vector256<double>.One, hi);
-        var flip = Vector256.GreaterThan(lo, Vector256<double>.Zero);
-        return (flip, Vector256.ConditionalSelect(flip, -hi, lo), Vector256.ConditionalSelect(flip, -lo, hi));
-    }
-
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static Vector256<double> LowerMass(Vector256<double> a, out Vector256<double> pLo)
-    {
-        var bound = Vector256.Create(MaxBound);
-        pLo = Vector256.LessThanOrEqualAll(a, -bound) ? Vector256<double>.Zero : FastNormal.Cdf(Vector256.Max(a, -bound), MaxBound);
-        return pLo;
-    }
-
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static Vector256<double> UpperMass(Vector256<double> b)
-    {
-        var bound = Vector256.Create(MaxBound);
-        return Vector256.GreaterThanOrEqualAll(b, bound) ? Vector256<double>.One : FastNormal.Cdf(Vector256.Min(b, bound), MaxBound);
-    }
-
-    /// <summary>y = Φ⁻¹(pLo + w·mass), reflected back for the reflected lanes.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static Vector256<double> Draw(Vector256<double> flip, Vector256<double> w, Vector256<double> pLo, Vector256<double> mass)
-    {
-        var wj = Vector256.ConditionalSelect(flip, Vector256<double>.One - w, w);
-        var yj = FastNormal.InverseCdf(pLo + wj * mass, MaxBound);
-        return Vector256.ConditionalSelect(flip, -yj, yj);
-    }
-
-    /// <summary>
     /// Randomly shifted embedded lattice rule (<see cref="LatticeSequence"/>): each of the independent replicates adds
     /// its own uniform shift to the same points, so the replicate means are independent and unbiased, and their spread
     /// is an honest error estimate. The number of points per replicate doubles until three standard errors meet the
     /// tolerance; doubling keeps the rule a complete lattice and reuses the points already evaluated.
     /// </summary>
-    private MultinormalResult RandomizedLattice(int dimension, MultinormalOptions options, string? note)
+    private MultinormalResult RandomizedLattice<TV, TL>(int dimension, MultinormalOptions options, string? note)
+        where TV : struct
+        where TL : struct, IVectorLanes<TV>
     {
+        var integrand = new LaneIntegrand<TV, TL>(_rank, _groupStart, _flatCoefficients, _inverseDiagonal, _lower, _upper, MaxBound);
         var stored = Math.Min(dimension, LatticeSequence.Dimension);
         var generator = LatticeSequence.GeneratingVector[..stored].ToArray();
         var kronecker = KroneckerGenerator(dimension);
@@ -418,16 +294,16 @@ internal sealed class SeparationOfVariables
             // does not depend on the number of threads. Small rounds are not worth the cost of starting tasks.
             if ((to - from) * replicates >= ParallelThreshold)
             {
-                Parallel.For(0, replicates, () => new Scratch(dimension, _rank), (s, _, scratch) =>
+                Parallel.For(0, replicates, () => new Scratch<TV, TL>(dimension, _rank), (s, _, scratch) =>
                 {
-                    sums[s] += SumOverPoints(s, from, to, generator, kronecker, shifts, scratch);
+                    sums[s] += SumOverPoints(integrand, s, from, to, generator, kronecker, shifts, scratch);
                     return scratch;
                 }, _ => { });
             }
             else
             {
-                var scratch = new Scratch(dimension, _rank);
-                for (var s = 0; s < replicates; s++) sums[s] += SumOverPoints(s, from, to, generator, kronecker, shifts, scratch);
+                var scratch = new Scratch<TV, TL>(dimension, _rank);
+                for (var s = 0; s < replicates; s++) sums[s] += SumOverPoints(integrand, s, from, to, generator, kronecker, shifts, scratch);
             }
 
             points = to;
@@ -470,33 +346,36 @@ internal sealed class SeparationOfVariables
     /// </remarks>
     private const int SmoothedCoordinates = 2;
 
-    private double SumOverPoints(int replicate, long from, long to, uint[] generator, double[] kronecker, List<double[][]> shifts, Scratch scratch)
+    private double SumOverPoints<TV, TL>(LaneIntegrand<TV, TL> integrand, int replicate, long from, long to, uint[] generator, double[] kronecker, List<double[][]> shifts, Scratch<TV, TL> scratch)
+        where TV : struct
+        where TL : struct, IVectorLanes<TV>
     {
-        var w = scratch.W;
-        var y = scratch.Y;
+        const int quadLanes = 4;
+        var lanes = TL.Count;
+        var quadsPerGroup = lanes / quadLanes;
+        var quads = scratch.Quads;
+        var weights = scratch.Weights;
         var sum = 0.0;
         var k = from;
-        for (; k + 8 <= to; k += 8)
+        for (; k + 2 * lanes <= to; k += 2 * lanes)
         {
-            var weightsA = Fill(replicate, k, generator, kronecker, shifts, scratch.W4);
-            var weightsB = Fill(replicate, k + 4, generator, kronecker, shifts, scratch.W4B);
-            Evaluate(scratch.W4, scratch.W4B, scratch.Y4, scratch.Y4B, out var fA, out var fB);
-            // Added lane by lane in point order, so the sum is the same as one point at a time would give.
-            for (var i = 0; i < Vector256<double>.Count; i++) sum += weightsA[i] * fA[i];
-            for (var i = 0; i < Vector256<double>.Count; i++) sum += weightsB[i] * fB[i];
-        }
+            for (var q = 0; q < quads.Length; q++) weights[q] = Fill(replicate, k + q * quadLanes, generator, kronecker, shifts, quads[q]);
+            for (var j = 0; j < scratch.WA.Length; j++)
+            {
+                scratch.WA[j] = TL.FromQuads(quads, 0, j);
+                scratch.WB[j] = TL.FromQuads(quads, quadsPerGroup, j);
+            }
 
-        for (; k + 4 <= to; k += 4)
-        {
-            var weights = Fill(replicate, k, generator, kronecker, shifts, scratch.W4);
-            var f = Evaluate(scratch.W4, scratch.Y4);
-            for (var i = 0; i < Vector256<double>.Count; i++) sum += weights[i] * f[i];
+            integrand.Evaluate(scratch.WA, scratch.WB, scratch.YA, scratch.YB, out var fA, out var fB);
+            // Added lane by lane in point order, so the sum is the same as one point at a time would give.
+            for (var i = 0; i < lanes; i++) sum += weights[i / quadLanes][i % quadLanes] * TL.Get(fA, i);
+            for (var i = 0; i < lanes; i++) sum += weights[quadsPerGroup + i / quadLanes][i % quadLanes] * TL.Get(fB, i);
         }
 
         for (; k < to; k++)
         {
-            var weight = Transform(replicate, k, generator, kronecker, shifts, w, 1, 0);
-            if (weight > 0) sum += weight * Evaluate(w, y);
+            var weight = Transform(replicate, k, generator, kronecker, shifts, scratch.W, 1, 0);
+            if (weight > 0) sum += weight * Evaluate(scratch.W, scratch.Y);
         }
 
         return sum;
@@ -604,19 +483,26 @@ internal sealed class SeparationOfVariables
         shifts.Add(pass);
     }
 
-    private sealed class Scratch(int dimension, int rank)
+    private sealed class Scratch<TV, TL>(int dimension, int rank)
+        where TV : struct
+        where TL : struct, IVectorLanes<TV>
     {
         public double[] W { get; } = new double[dimension];
 
         public double[] Y { get; } = new double[rank];
 
-        public Vector256<double>[] W4 { get; } = new Vector256<double>[dimension];
+        /// <summary>Points in groups of four, as the lattice is generated: two vector groups' worth.</summary>
+        public Vector256<double>[][] Quads { get; } = Enumerable.Range(0, 2 * TL.Count / 4).Select(_ => new Vector256<double>[dimension]).ToArray();
 
-        public Vector256<double>[] Y4 { get; } = new Vector256<double>[rank];
+        public Vector256<double>[] Weights { get; } = new Vector256<double>[2 * TL.Count / 4];
 
-        public Vector256<double>[] W4B { get; } = new Vector256<double>[dimension];
+        public TV[] WA { get; } = new TV[dimension];
 
-        public Vector256<double>[] Y4B { get; } = new Vector256<double>[rank];
+        public TV[] WB { get; } = new TV[dimension];
+
+        public TV[] YA { get; } = new TV[rank];
+
+        public TV[] YB { get; } = new TV[rank];
     }
 
     private static (double Mean, double StandardError) MeanAndStandardError(double[] sums, long points)

@@ -124,4 +124,27 @@ public class FastNormalTests
         Assert.True(worst < 1e-15, $"worst relative error {worst:G3}");
         Assert.Equal(0, FastNormal.Log(Vector256.Create(1.0))[0]);
     }
+
+    [Fact]
+    [Reference("Independent computation: StandardNormal (MathNet erfc and its inverse) in every lane of the eight-lane form")]
+    public void Eight_lane_forms_agree_with_the_erfc_based_functions()
+    {
+        for (var e = -300.0; e < -0.31; e += 0.37)
+        {
+            var p = Math.Pow(10, e);
+            double[] probabilities = [p, 1 - p, 0.5 + 0.4 * p, Math.Min(0.999, 1000 * p), 0.3, 1e-12, 0.93, 0.0];
+            double[] arguments = [e / 8, -e / 8, 2.9, -3.1, e / 300, -38.6, 0, 5];
+            var inverse = FastNormalLanes<Vector512<double>, Lanes512>.InverseCdf(Vector512.Create(probabilities), 38.5);
+            var cdf = FastNormalLanes<Vector512<double>, Lanes512>.Cdf(Vector512.Create(arguments), 38.5);
+            for (var i = 0; i < 8; i++)
+            {
+                var q = probabilities[i];
+                var expected = q <= 0 ? -38.5 : q >= 1 ? 38.5 : Math.Clamp(StandardNormal.InverseCdf(q), -38.5, 38.5);
+                Assert.Equal(expected, inverse[i], 1e-13 * Math.Max(1, Math.Abs(expected)));
+                var x = arguments[i];
+                var phi = x <= -38.5 ? 0 : StandardNormal.Cdf(x);
+                Assert.Equal(phi, cdf[i], 2e-16 + 1e-14 * phi);
+            }
+        }
+    }
 }
