@@ -18,6 +18,25 @@ public class SystemBenchmarks
     private static readonly MultinormalOptions To1e5 = new() { AbsoluteTolerance = 1e-5, RelativeTolerance = 0 };
     private static readonly MultinormalOptions To1e5Seed1 = To1e5 with { Seed = 1 };
 
+    private static readonly double[,] ThreeFactor10 = ThreeFactor();
+
+    private static double[,] ThreeFactor()
+    {
+        // R = D^−½(AAᵀ + I)D^−½ with fixed loadings of mixed sign: a general correlation matrix, not one factor.
+        double[,] a =
+        {
+            { 0.9, 0.1, -0.3 }, { 0.7, -0.5, 0.2 }, { 0.2, 0.8, 0.4 }, { -0.4, 0.6, 0.5 }, { 0.5, 0.5, -0.5 },
+            { 0.8, -0.2, 0.1 }, { 0.1, 0.3, 0.9 }, { 0.6, 0.6, 0.0 }, { -0.2, -0.7, 0.6 }, { 0.3, 0.0, -0.8 },
+        };
+        var r = new double[10, 10];
+        var d = new double[10];
+        for (var i = 0; i < 10; i++) d[i] = 1 + a[i, 0] * a[i, 0] + a[i, 1] * a[i, 1] + a[i, 2] * a[i, 2];
+        for (var i = 0; i < 10; i++)
+            for (var j = 0; j < 10; j++)
+                r[i, j] = i == j ? 1 : (a[i, 0] * a[j, 0] + a[i, 1] * a[j, 1] + a[i, 2] * a[j, 2]) / Math.Sqrt(d[i] * d[j]);
+        return r;
+    }
+
     private static double[,] Equicorrelated(int n, double rho)
     {
         var r = new double[n, n];
@@ -36,6 +55,10 @@ public class SystemBenchmarks
     /// </summary>
     [Benchmark]
     public double Multinormal10_Orthant_Seed1() => MultivariateNormal.Orthant(Equicorrelated10, To1e5Seed1).Value;
+
+    /// <summary>Orthant of a general three-factor correlation matrix with mixed signs (not one-factor).</summary>
+    [Benchmark]
+    public double Multinormal10_Orthant_ThreeFactor() => MultivariateNormal.Orthant(ThreeFactor10, To1e5).Value;
 
     /// <summary>P(X ≤ −1), ρ = 0.5 (4.7913e-3 by the one-factor integral).</summary>
     [Benchmark]
