@@ -45,6 +45,77 @@ public class BivariateNormalTests
         Assert.Equal(expected, BivariateNormal.Cdf(0, 0, rho), 1e-15);
     }
 
+    /// <summary>
+    /// (h, k, ρ, Φ₂(h, k; ρ)) from Burkardt's test_values collection, BIVARIATE_NORMAL_CDF_VALUES (computed with
+    /// Mathematica; reference: NBS Applied Mathematics Series 50, Tables of the Bivariate Normal Distribution, 1959),
+    /// as printed in its C# port (github.com/philstopford/DesignLibs_GPL, TestValues/Bivariate.cs).
+    /// </summary>
+    public static TheoryData<double, double, double, double> PublishedBivariateValues { get; } = new()
+    {
+        { -2.0, 1.0, 0.500, 0.02260327218569867 },
+        { -1.0, 1.0, 0.500, 0.1548729518584100 },
+        { 0.0, 1.0, 0.500, 0.4687428083352184 },
+        { 1.0, 1.0, 0.500, 0.7452035868929476 },
+        { 2.0, 1.0, 0.500, 0.8318608306874188 },
+        { 3.0, 1.0, 0.500, 0.8410314261134202 },
+        { -0.2, 0.5, -0.900, 0.1377019384919464 },
+        { -0.2, 0.5, -0.800, 0.1621749501739030 },
+        { -0.2, 0.5, -0.700, 0.1827411243233119 },
+        { -0.2, 0.5, -0.600, 0.2010067421506235 },
+        { -0.2, 0.5, -0.500, 0.2177751155265290 },
+        { -0.2, 0.5, -0.400, 0.2335088436446962 },
+        { -0.2, 0.5, -0.300, 0.2485057781834286 },
+        { -0.2, 0.5, -0.200, 0.2629747825154868 },
+        { -0.2, 0.5, -0.100, 0.2770729823404738 },
+        { -0.2, 0.5, 0.000, 0.2909261168683812 },
+        { -0.2, 0.5, 0.100, 0.3046406378726738 },
+        { -0.2, 0.5, 0.200, 0.3183113449213638 },
+        { -0.2, 0.5, 0.300, 0.3320262544108028 },
+        { -0.2, 0.5, 0.400, 0.3458686754647614 },
+        { -0.2, 0.5, 0.500, 0.3599150462310668 },
+        { -0.2, 0.5, 0.600, 0.3742210899871168 },
+        { -0.2, 0.5, 0.700, 0.3887706405282320 },
+        { -0.2, 0.5, 0.800, 0.4032765198361344 },
+        { -0.2, 0.5, 0.900, 0.4162100291953678 },
+        { 1.0, 0.5, 0.673, 0.6508271498838664 },
+        { 2.0, 1.0, 0.500, 0.8318608306874188 },
+        { 0.0, 0.0, -1.000, 0.0 },
+        { 0.0, 0.0, -0.500, 0.1666666666539970 },
+        { 0.0, 0.0, 0.000, 0.25 },
+        { 0.0, 0.0, 0.500, 0.3333333333328906 },
+        { 0.0, 0.0, 1.000, 0.5 },
+        { 1.0, 1.0, 0.500, 0.7452035868929476 },
+        { 1.0, -1.0, 0.500, 0.1548729518584100 },
+        { -1.0, 1.0, 0.500, 0.1548729518584100 },
+        { -1.0, -1.0, 0.500, 0.06251409470431653 },
+        { 1.0, 1.0, 0.500, 0.7452035868929476 },
+        { 1.0, -1.0, 0.500, 0.1548729518584100 },
+        { -1.0, 1.0, 0.500, 0.1548729518584100 },
+        { -1.0, -1.0, 0.500, 0.06251409470431653 },
+        { 0.7071067811865475, 0.7071067811865475, 0.500, 0.6337020457912916 },
+    };
+
+    [Theory]
+    [Reference("Burkardt, test_values BIVARIATE_NORMAL_CDF_VALUES (41 values; NBS AMS 50, 1959), to the table's own accuracy (about 1e-7)")]
+    [MemberData(nameof(PublishedBivariateValues))]
+    public void Matches_a_published_table_of_bivariate_values(double h, double k, double rho, double published)
+    {
+        // The table is accurate to about 1e-7, not to its 16 printed digits: at (0, 1, 0.5) it gives 0.4687428083352184
+        // where a 30-digit evaluation of Plackett's integral (mpmath, computed once while writing this test) gives
+        // 0.46874295264516808, as ours does to 1e-16; at (0, 0, −0.5) it gives 0.1666666666539970 where Sheppard's
+        // closed form gives 1/6. The 1e-14 accuracy is checked against the independent quadrature below; this test
+        // guards against gross errors (sign of ρ, swapped limits) on a table we did not compute. Hence 2e-7 absolute.
+        Assert.Equal(published, BivariateNormal.Cdf(h, k, rho), 2e-7);
+    }
+
+    [Fact]
+    [Reference("GAUSS Language Reference (Aptech), cdfBvn2e, Example 1: rectangle 0 ≤ X1, X2 ≤ 1, ρ = 0.5, printed 1.4105101488974692e-001 with error estimate 2e-14")]
+    public void Rectangle_matches_a_published_example()
+    {
+        var result = MultivariateNormal.Probability([0.0, 0.0], [1.0, 1.0], new double[,] { { 1, 0.5 }, { 0.5, 1 } });
+        Assert.Equal(0.14105101488974692, result.Value, 2e-14);
+    }
+
     [Theory]
     [Reference("REFERENCES.md derived values (Drezner & Wesolowsky 1990 integral), recomputed here by the Plackett integral with MathNet double-exponential quadrature")]
     [InlineData(-1.0, -1.0, 0.5, 0.06251409470966383)]
