@@ -236,6 +236,19 @@ public static class TimeVariantReliability
         if (options.BackwardSweep && times.Count > 1)
         {
             IReadOnlyList<double>? next = null;
+            if (!outcomes[^1].Converged && times[^1] > 0)
+            {
+                // No converged step at the end to sweep back from (e.g. a short grid that ends before corrosion
+                // typically starts): look for a design point at later times, 2, 4, 8 and 16 times the last one,
+                // where the median point has left the flat region; it only serves as a start.
+                for (var k = 1; k <= 4 && next is null; k++)
+                {
+                    var anchor = stepper.Step(times[^1] * (1 << k), allowFallback: false);
+                    outcomes[^1] = outcomes[^1] with { Evaluations = outcomes[^1].Evaluations + anchor.Evaluations };
+                    if (anchor.Converged) next = anchor.Form.DesignPointU;
+                }
+            }
+
             for (var i = times.Count - 1; i >= 0; i--)
             {
                 var forward = outcomes[i];
@@ -267,7 +280,7 @@ public static class TimeVariantReliability
                 }
                 else
                 {
-                    chosen = (backward.Converged ? backward : forward) with { Evaluations = evaluations };
+                    chosen = (backward.Converged ? backward : forward.Converged ? forward : NearerTheLimitState(backward, forward)) with { Evaluations = evaluations };
                 }
 
                 outcomes[i] = chosen;
@@ -329,6 +342,20 @@ public static class TimeVariantReliability
             DesignPointX = route == ComputationRoute.FirstOrder ? form.DesignPointX : null,
             Note = note,
         };
+    }
+
+    /// <summary>
+    /// Of two searches that both failed, the one that ended on (or nearer) the limit state: the simulation fallback
+    /// samples around its end point, and a point far from G = 0 (e.g. a search that ran off along an input with no
+    /// effect before initiation) leaves the sampling density far from the failure region, where even a small
+    /// estimated CoV means nothing.
+    /// </summary>
+    private static StepOutcome NearerTheLimitState(StepOutcome a, StepOutcome b)
+    {
+        var ga = Math.Abs(a.Form.LimitStateValue);
+        var gb = Math.Abs(b.Form.LimitStateValue);
+        if (double.IsNaN(ga)) return b;
+        return double.IsNaN(gb) || ga <= gb ? a : b;
     }
 
     private static double Distance(IReadOnlyList<double> a, IReadOnlyList<double> b)

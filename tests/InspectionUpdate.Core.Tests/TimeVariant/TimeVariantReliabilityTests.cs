@@ -249,4 +249,55 @@ public class TimeVariantReliabilityTests
         Assert.True(TimeGrid.Yearly(5).IsWholeYears);
         Assert.False(TimeGrid.Yearly(5, 4).IsWholeYears);
     }
+
+    [Fact]
+    [Reference("Exact Pf(t) = E[Φ((r·max(0, t − T₀)/0.8 − μ_w)/σ_w)] over lognormal T₀ and r, by Gauss–Legendre on a window around its peak in the test; IS within 4 standard errors")]
+    public void A_step_before_initiation_where_FORM_runs_off_is_simulated_around_the_point_on_the_limit_state()
+    {
+        // Linear corrosion after an initiation time: g = 0.8·t_w − r·max(0, t − T₀). At 1 year the median point lies
+        // in the flat region (T₀ > t), where FORM from the origin runs off along t_w (‖u‖ ≈ 38, far from G = 0) and
+        // from the next year's design point oscillates near the true one (β ≈ 11) without meeting its tolerance.
+        // The simulation fallback must sample around the latter: around the former every sample fails with a
+        // weight of about e^−740, which underflowed to a "converged" 5e-324 with CoV 0 before.
+        const string json = """
+            {
+              "schemaVersion": 1,
+              "name": "initiation then linear wall loss",
+              "serviceLife_years": 35,
+              "mechanism": { "type": "corrosion", "growthLaw": "linear", "failureMode": "leak", "leakFraction": 0.8 },
+              "inputs": {
+                "wallThickness_mm": { "family": "Normal", "mean": 9.5, "sd": 0.2 },
+                "initiationTime_years": { "family": "Lognormal", "mean": 5, "cov": 0.4 },
+                "rate_mmPerYear": { "family": "Lognormal", "mean": 0.2, "cov": 0.5 }
+              }
+            }
+            """;
+        var parsed = InspectionUpdate.Degradation.Definition.ComponentModelDefinition.Parse(json);
+        Assert.True(parsed.IsValid, parsed.Describe());
+        var model = parsed.Definition!.Build();
+        var result = TimeVariantReliability.Run(model, TimeGrid.Yearly(4));
+        var first = result.Profile.Points[0];
+        Assert.True(first.Converged, first.Note);
+
+        static (double Mu, double Sigma) LogParameters(double mean, double cov)
+        {
+            var s2 = Math.Log(1 + cov * cov);
+            return (Math.Log(mean) - s2 / 2, Math.Sqrt(s2));
+        }
+
+        var (muT, sT) = LogParameters(5, 0.4);
+        var (muR, sR) = LogParameters(0.2, 0.5);
+        const double t = 1;
+        var exact = Integrate.OnRectangle(
+            (a, b) =>
+            {
+                var t0 = Math.Exp(muT + sT * a);
+                var r = Math.Exp(muR + sR * b);
+                return StandardNormal.Pdf(a) * StandardNormal.Pdf(b) * StandardNormal.Cdf((r * Math.Max(0, t - t0) / 0.8 - 9.5) / 0.2);
+            },
+            -12, -2, 4, 16, 128);
+        Assert.InRange(exact, 1e-30, 1e-25);
+        var se = first.CoefficientOfVariation!.Value * first.CumulativePf;
+        Assert.InRange(first.CumulativePf, exact - 4 * se, exact + 4 * se);
+    }
 }

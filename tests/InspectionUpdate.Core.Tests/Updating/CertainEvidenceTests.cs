@@ -27,4 +27,27 @@ public class CertainEvidenceTests
         Assert.Equal(exact, result.CumulativePf, exact * 1e-6);
         Assert.Contains("carries no information", result.Note, StringComparison.Ordinal);
     }
+
+    [Theory]
+    [Reference("Set identity: wall loss never decreases, so failure by t lies inside failure by 7.2 years, which the in-service record at 7.2 years excludes; P(F(t) | data) = 0 exactly for t ≤ 7.2")]
+    [InlineData(1.0)]
+    [InlineData(2.0)]
+    [InlineData(7.0)]
+    public void Failure_before_an_in_service_record_is_simulated_as_impossible_and_converged(double t)
+    {
+        // At 1 and 2 years the median point lies before initiation (T₀ ≈ 4.6 y), where every FORM search from the
+        // origin runs off along the wall thickness: the sampler must still find the failure region (by continuation
+        // from later times) and see that every failure there contradicts the record, instead of drawing no failure
+        // in 400 000 samples around the posterior mode and reporting "not converged".
+        var model = new CorrosionModel(Model(N("wallThickness_mm", 9.5, 0.2), Ln("initiationTime_years", 5, 0.4), Ln("rate_mmPerYear", 0.2, 0.5)),
+            new CorrosionSettings { FailureMode = CorrosionFailureMode.Leak, LeakFraction = 0.8 });
+        var ut = TestModels.Method(new CumulativeLognormalPod(Math.Log(1.5), 0.5), sd: 0.5);
+        InspectionOutcome[] findings = [new SurvivedInService(7.2, "S-1"), new SizedIndication(12.5, "W-1", ut, 2.3)];
+
+        var result = new ReliabilityUpdater(new UpdatingOptions { Route = UpdatingRoute.Simulation }).Estimate(model, findings, t);
+
+        Assert.True(result.Converged, result.Note);
+        Assert.Equal(0, result.CumulativePf);
+        Assert.Contains("contradict the findings", result.Note, StringComparison.Ordinal);
+    }
 }

@@ -108,10 +108,25 @@ internal sealed class LikelihoodImportanceSampler
         var form = FormSolver.Solve(new ReliabilityProblem(shifted, _model.FailureLimitState(componentId, timeYears)), _options.Form);
         evaluations += form.LimitStateEvaluations;
         double[]? centre = null;
+        var centreSource = "";
         if (form.Converged && form.DesignPointU.All(double.IsFinite))
         {
             centre = new double[_d];
             shifted.ToU(form.DesignPointU.ToArray(), centre);
+        }
+        else
+        {
+            // Where the findings make failure at t nearly or wholly impossible (e.g. t before an in-service record),
+            // the posterior-coordinate search has no design point to find. The prior's design point still lies in
+            // F(t): sampling there either finds the failures the findings allow or shows that every failure
+            // contradicts them (the "impossible" stop below), where sampling around the posterior mode draws no
+            // failure at all and runs to the cap.
+            var prior = PriorDesignPoint(componentId, timeYears, g, ref evaluations);
+            if (prior is not null)
+            {
+                centre = prior;
+                centreSource = "; FORM in posterior coordinates failed, sampling around the prior design point";
+            }
         }
 
         // Common random numbers: every time of a component draws the same standard normal stream, moved to that
@@ -207,11 +222,56 @@ internal sealed class LikelihoodImportanceSampler
         if (ratio == 0 && stop is null) total = double.PositiveInfinity;
         var converged = (stop is not null || total <= _options.TargetCoefficientOfVariation) && evidence.Evidence.Converged;
         var note = FormattableString.Invariant($"likelihood-weighted importance sampling: {logW.Count} samples for P(F ∩ data), {evidence.Weights.Length} for P(data)")
-            + (centre is null ? "; FORM in posterior coordinates failed, sampling around the posterior mode" : "")
+            + (centre is null ? "; FORM in posterior and prior coordinates failed, sampling around the posterior mode" : centreSource)
             + (recentred > 0 ? FormattableString.Invariant($"; sampling centre moved {recentred} time(s) to the weighted mean of a pilot batch's failures") : "")
             + (stop is null ? "" : "; stopped early: " + stop)
             + (converged ? "" : FormattableString.Invariant($"; target CoV {_options.TargetCoefficientOfVariation:G3} not reached (CoV {total:G3})"));
         return new SimulatedValue(Math.Clamp(ratio, 0, 1), total, logW.Count + evidence.Weights.Length, evaluations + evidence.Evidence.Evaluations, converged, note);
+    }
+
+    /// <summary>
+    /// A point on the prior limit state G(t) = 0 to sample around, or null. FORM from the origin first; where that
+    /// runs off (the median point in a flat region, e.g. before corrosion typically initiates), FORM at 2, 4, 8 and
+    /// 16 times t, where the median point has left the flat region, and from the first design point found back to t
+    /// through the halved times, each search started from the last point.
+    /// A search that stopped on the limit state without meeting its alignment tolerance still marks the failure
+    /// region, which is all a sampling centre needs.
+    /// </summary>
+    private double[]? PriorDesignPoint(string componentId, double timeYears, LimitStateFunction g, ref long evaluations)
+    {
+        var median = new double[_m];
+        _t.ToPhysical(new double[_d], median);
+        var scale = Math.Abs(g(median));
+        evaluations++;
+        var problem = new ReliabilityProblem(_t, _model.FailureLimitState(componentId, timeYears));
+        var form = FormSolver.Solve(problem, _options.Form);
+        evaluations += form.LimitStateEvaluations;
+        if (Usable(form)) return form.DesignPointU.ToArray();
+        if (!(timeYears > 0)) return null;
+        for (var k = 1; k <= 4; k++)
+        {
+            var later = FormSolver.Solve(new ReliabilityProblem(_t, _model.FailureLimitState(componentId, timeYears * (1 << k))), _options.Form);
+            evaluations += later.LimitStateEvaluations;
+            if (!later.Converged || !later.DesignPointU.All(double.IsFinite)) continue;
+
+            // Continuation back to t through the halved times, each search started from the previous one's point.
+            var start = later.DesignPointU.ToArray();
+            for (var j = k - 1; j >= 0; j--)
+            {
+                var at = j == 0 ? problem : new ReliabilityProblem(_t, _model.FailureLimitState(componentId, timeYears * (1 << j)));
+                form = FormSolver.Solve(at, _options.Form with { StartPoint = start });
+                evaluations += form.LimitStateEvaluations;
+                if (!Usable(form)) return null;
+                start = form.DesignPointU.ToArray();
+            }
+
+            return start;
+        }
+
+        return null;
+
+        bool Usable(FormResult f) =>
+            f.DesignPointU.All(double.IsFinite) && (f.Converged || Math.Abs(f.LimitStateValue) <= 1e-3 * scale);
     }
 
     /// <summary>Largest number of cross-entropy moves of the sampling centre (each costs one discarded batch).</summary>
