@@ -246,8 +246,12 @@ public static class FormSolver
             if (!converged)
             {
                 // Hints for the usual cause: a limit state that never reaches zero.
-                if (Norm(u) > 10) diagnostic += " ‖u‖ is far out: the limit state may never reach zero.";
+                // A search that ended on the limit state far out has found a point with β > 10 that only failed to
+                // align; the hint would mislead there.
+                var onSurface = Math.Abs(g) / gScale <= 1e-3;
+                if (Norm(u) > 10 && !onSurface) diagnostic += " ‖u‖ is far out: the limit state may never reach zero.";
                 else if (Math.Abs(g) / gScale > 0.1) diagnostic += " |G| stays far from zero: the limit state may never reach zero.";
+                else if (onSurface) diagnostic += Invariant($" The search ended on the limit state (‖u‖ = {Norm(u):G4}) without meeting the alignment tolerance.");
             }
 
             return BuildResult(u, x, g, grad, iterations, converged, diagnostic);

@@ -140,6 +140,19 @@ public class FormSolverRobustnessTests
         }
 
         [Fact]
+        [Reference("Closed form: g = 11 − A of normals A, B (mean 1, sd 1) is zero at u₁ = 10 for any u₂, so a search stopped at (10, 3) stands on it, misaligned")]
+        public void A_search_stopped_on_the_limit_state_far_out_is_not_said_to_never_reach_zero()
+        {
+            var result = FormSolver.Solve(
+                TwoNormals(x => 11 - x[0]),
+                new FormOptions { StartPoint = [10.0, 3.0], MaxIterations = 0 });
+            Assert.False(result.Converged);
+            Assert.True(Math.Abs(result.LimitStateValue) < 1e-2, result.Diagnostic);
+            Assert.DoesNotContain("never reach zero", result.Diagnostic, StringComparison.Ordinal);
+            Assert.Contains("ended on the limit state", result.Diagnostic, StringComparison.Ordinal);
+        }
+
+        [Fact]
         [Reference("Closed form: g = exp(x) > 0 decays towards zero without crossing it")]
         public void Limit_state_that_only_decays_towards_zero_is_not_reported_converged()
         {
