@@ -55,6 +55,19 @@ public sealed record FormResult
     /// <summary>G at the reported design point (in the units of g); close to 0 when converged.</summary>
     public double LimitStateValue { get; init; } = double.NaN;
 
+    /// <summary>|G|/G_scale at the reported design point, G_scale being the scale of the solver's |G| criterion.</summary>
+    public double RelativeLimitStateValue { get; init; } = double.NaN;
+
+    /// <summary>|G|/G_scale below which a search that did not converge still counts as ended on the limit state.</summary>
+    public const double OnLimitStateTolerance = 1e-3;
+
+    /// <summary>
+    /// True when the run ended on the limit state (|G|/G_scale ≤ <see cref="OnLimitStateTolerance"/>), converged or
+    /// not: a search stopped there short of its alignment tolerance still marks the failure region, e.g. as a
+    /// sampling centre, where one that ran off elsewhere does not.
+    /// </summary>
+    public bool EndsOnLimitState => RelativeLimitStateValue <= OnLimitStateTolerance;
+
     /// <summary>‖∇ᵤG‖ at the reported design point (units of g per standard deviation).</summary>
     public double GradientNorm { get; init; } = double.NaN;
 

@@ -248,13 +248,13 @@ public static class FormSolver
                 // Hints for the usual cause: a limit state that never reaches zero.
                 // A search that ended on the limit state far out has found a point with β > 10 that only failed to
                 // align; the hint would mislead there.
-                var onSurface = Math.Abs(g) / gScale <= 1e-3;
+                var onSurface = Math.Abs(g) / gScale <= FormResult.OnLimitStateTolerance;
                 if (Norm(u) > 10 && !onSurface) diagnostic += " ‖u‖ is far out: the limit state may never reach zero.";
                 else if (Math.Abs(g) / gScale > 0.1) diagnostic += " |G| stays far from zero: the limit state may never reach zero.";
                 else if (onSurface) diagnostic += Invariant($" The search ended on the limit state (‖u‖ = {Norm(u):G4}) without meeting the alignment tolerance.");
             }
 
-            return BuildResult(u, x, g, grad, iterations, converged, diagnostic);
+            return BuildResult(u, x, g, gScale, grad, iterations, converged, diagnostic);
         }
 
         /// <summary>G_scale of the |G| criterion: the option, else |G(0)|, else ‖∇G(u₀)‖.</summary>
@@ -272,7 +272,7 @@ public static class FormSolver
             return double.IsFinite(gradNorm) && gradNorm > 0 ? gradNorm : 1.0;
         }
 
-        private FormResult BuildResult(double[] u, double[] x, double g, double[] grad, int iterations, bool converged, string? diagnostic)
+        private FormResult BuildResult(double[] u, double[] x, double g, double gScale, double[] grad, int iterations, bool converged, string? diagnostic)
         {
             var gradNorm = Norm(grad);
             var alpha = new double[_n];
@@ -298,6 +298,7 @@ public static class FormSolver
                 Converged = converged,
                 Diagnostic = diagnostic,
                 LimitStateValue = g,
+                RelativeLimitStateValue = Math.Abs(g) / gScale,
                 GradientNorm = gradNorm,
                 GradientMethod = _method,
             };

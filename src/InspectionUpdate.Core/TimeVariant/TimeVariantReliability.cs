@@ -236,17 +236,17 @@ public static class TimeVariantReliability
         if (options.BackwardSweep && times.Count > 1)
         {
             IReadOnlyList<double>? next = null;
-            if (!outcomes[^1].Converged && times[^1] > 0)
+            if (!outcomes[^1].Converged)
             {
                 // No converged step at the end to sweep back from (e.g. a short grid that ends before corrosion
-                // typically starts): look for a design point at later times, 2, 4, 8 and 16 times the last one,
-                // where the median point has left the flat region; it only serves as a start.
-                for (var k = 1; k <= 4 && next is null; k++)
+                // typically starts): the backward sweep starts from a later time's design point.
+                var anchor = LaterTimeStart.Find(times[^1], time =>
                 {
-                    var anchor = stepper.Step(times[^1] * (1 << k), allowFallback: false);
-                    outcomes[^1] = outcomes[^1] with { Evaluations = outcomes[^1].Evaluations + anchor.Evaluations };
-                    if (anchor.Converged) next = anchor.Form.DesignPointU;
-                }
+                    var step = stepper.Step(time, allowFallback: false);
+                    outcomes[^1] = outcomes[^1] with { Evaluations = outcomes[^1].Evaluations + step.Evaluations };
+                    return step.Form;
+                });
+                next = anchor?.Form.DesignPointU;
             }
 
             for (var i = times.Count - 1; i >= 0; i--)
@@ -352,8 +352,8 @@ public static class TimeVariantReliability
     /// </summary>
     private static StepOutcome NearerTheLimitState(StepOutcome a, StepOutcome b)
     {
-        var ga = Math.Abs(a.Form.LimitStateValue);
-        var gb = Math.Abs(b.Form.LimitStateValue);
+        var ga = a.Form.RelativeLimitStateValue;
+        var gb = b.Form.RelativeLimitStateValue;
         if (double.IsNaN(ga)) return b;
         return double.IsNaN(gb) || ga <= gb ? a : b;
     }

@@ -1,11 +1,9 @@
-using System.Runtime.CompilerServices;
-using System.Runtime.Intrinsics;
-
 namespace InspectionUpdate.Reliability.Multinormal;
 
 /// <summary>
 /// Rational approximations of Φ and Φ⁻¹ for the inner loops of the integrators, several times faster than the
-/// general special functions and accurate to about 2e-14 relative (checked against them in the tests).
+/// general special functions and accurate to about 2e-14 relative (checked against them in the tests). The same forms
+/// for the lanes of a vector are in <see cref="FastNormalLanes{TV, TL}"/>.
 /// </summary>
 /// <remarks>
 /// Φ: Hart et al. (1968), Computer Approximations, algorithm 5666 for |z| &lt; 3 (as used in Genz's MVNPHI),
@@ -85,16 +83,4 @@ internal static class FastNormal
 
         return q < 0 ? -x : x;
     }
-
-    /// <summary>Φ at four arguments at once (see <see cref="FastNormalLanes{TV, TL}.Cdf"/>).</summary>
-    public static Vector256<double> Cdf(Vector256<double> z, double bound) => FastNormalLanes<Vector256<double>, Lanes256>.Cdf(z, bound);
-
-    /// <summary>Φ⁻¹ at four probabilities at once (see <see cref="FastNormalLanes{TV, TL}.InverseCdf"/>).</summary>
-    public static Vector256<double> InverseCdf(Vector256<double> p, double bound) => FastNormalLanes<Vector256<double>, Lanes256>.InverseCdf(p, bound);
-
-    /// <summary>e^x in four lanes (see <see cref="FastNormalLanes{TV, TL}.Exp"/>).</summary>
-    internal static Vector256<double> Exp(Vector256<double> x) => FastNormalLanes<Vector256<double>, Lanes256>.Exp(x);
-
-    /// <summary>ln x in four lanes (see <see cref="FastNormalLanes{TV, TL}.Log"/>).</summary>
-    internal static Vector256<double> Log(Vector256<double> x) => FastNormalLanes<Vector256<double>, Lanes256>.Log(x);
 }

@@ -121,7 +121,7 @@ internal sealed class LikelihoodImportanceSampler
             // F(t): sampling there either finds the failures the findings allow or shows that every failure
             // contradicts them (the "impossible" stop below), where sampling around the posterior mode draws no
             // failure at all and runs to the cap.
-            var prior = PriorDesignPoint(componentId, timeYears, g, ref evaluations);
+            var prior = PriorDesignPoint(componentId, timeYears, ref evaluations);
             if (prior is not null)
             {
                 centre = prior;
@@ -230,48 +230,37 @@ internal sealed class LikelihoodImportanceSampler
     }
 
     /// <summary>
-    /// A point on the prior limit state G(t) = 0 to sample around, or null. FORM from the origin first; where that
-    /// runs off (the median point in a flat region, e.g. before corrosion typically initiates), FORM at 2, 4, 8 and
-    /// 16 times t, where the median point has left the flat region, and from the first design point found back to t
-    /// through the halved times, each search started from the last point.
-    /// A search that stopped on the limit state without meeting its alignment tolerance still marks the failure
-    /// region, which is all a sampling centre needs.
+    /// A point on the prior limit state G(t) = 0 to sample around, or null: FORM from the origin, else (the median
+    /// point in a flat region) from a later time's design point (<see cref="LaterTimeStart"/>) back to t through the
+    /// halved times, each search started from the last point. A search that ended on the limit state without meeting
+    /// its alignment tolerance (<see cref="FormResult.EndsOnLimitState"/>) is all a sampling centre needs.
     /// </summary>
-    private double[]? PriorDesignPoint(string componentId, double timeYears, LimitStateFunction g, ref long evaluations)
+    private double[]? PriorDesignPoint(string componentId, double timeYears, ref long evaluations)
     {
-        var median = new double[_m];
-        _t.ToPhysical(new double[_d], median);
-        var scale = Math.Abs(g(median));
-        evaluations++;
-        var problem = new ReliabilityProblem(_t, _model.FailureLimitState(componentId, timeYears));
-        var form = FormSolver.Solve(problem, _options.Form);
-        evaluations += form.LimitStateEvaluations;
-        if (Usable(form)) return form.DesignPointU.ToArray();
-        if (!(timeYears > 0)) return null;
-        for (var k = 1; k <= 4; k++)
+        long used = 0;
+        FormResult Solve(double time, IReadOnlyList<double>? start)
         {
-            var later = FormSolver.Solve(new ReliabilityProblem(_t, _model.FailureLimitState(componentId, timeYears * (1 << k))), _options.Form);
-            evaluations += later.LimitStateEvaluations;
-            if (!later.Converged || !later.DesignPointU.All(double.IsFinite)) continue;
-
-            // Continuation back to t through the halved times, each search started from the previous one's point.
-            var start = later.DesignPointU.ToArray();
-            for (var j = k - 1; j >= 0; j--)
-            {
-                var at = j == 0 ? problem : new ReliabilityProblem(_t, _model.FailureLimitState(componentId, timeYears * (1 << j)));
-                form = FormSolver.Solve(at, _options.Form with { StartPoint = start });
-                evaluations += form.LimitStateEvaluations;
-                if (!Usable(form)) return null;
-                start = form.DesignPointU.ToArray();
-            }
-
-            return start;
+            var f = FormSolver.Solve(new ReliabilityProblem(_t, _model.FailureLimitState(componentId, time)), _options.Form with { StartPoint = start });
+            used += f.LimitStateEvaluations;
+            return f;
         }
 
-        return null;
+        static bool Usable(FormResult f) => f.DesignPointU.All(double.IsFinite) && (f.Converged || f.EndsOnLimitState);
 
-        bool Usable(FormResult f) =>
-            f.DesignPointU.All(double.IsFinite) && (f.Converged || Math.Abs(f.LimitStateValue) <= 1e-3 * scale);
+        var form = Solve(timeYears, null);
+        var point = Usable(form) ? form.DesignPointU : null;
+        if (point is null && LaterTimeStart.Find(timeYears, time => Solve(time, null)) is { } later)
+        {
+            point = later.Form.DesignPointU;
+            for (var j = later.Doublings - 1; j >= 0 && point is not null; j--)
+            {
+                form = Solve(timeYears * (1 << j), point);
+                point = Usable(form) ? form.DesignPointU : null;
+            }
+        }
+
+        evaluations += used;
+        return point?.ToArray();
     }
 
     /// <summary>Largest number of cross-entropy moves of the sampling centre (each costs one discarded batch).</summary>
