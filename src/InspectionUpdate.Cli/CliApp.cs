@@ -8,8 +8,7 @@ namespace InspectionUpdate.Cli;
 public static class CliApp
 {
     /// <summary>The tool version shown in reports and --version.</summary>
-    public static string Version { get; } =
-        typeof(CliApp).Assembly.GetName().Version is { } v ? $"{v.Major}.{v.Minor}.{v.Build}" : "0.0.0";
+    public static string Version => Application.ToolInfo.Version;
 
     /// <summary>Runs the command line on <paramref name="host"/> and returns the exit code.</summary>
     public static int Run(string[] args, CliHost host)

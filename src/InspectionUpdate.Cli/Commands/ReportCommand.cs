@@ -1,6 +1,6 @@
 using System.ComponentModel;
 using System.Globalization;
-using InspectionUpdate.Cli.Engine;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Time;
