@@ -28,25 +28,39 @@ public static class ComponentContexts
     }
 
     /// <summary>One component of the register as known on <paramref name="asOf"/>.</summary>
-    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf)
+    /// <remarks>Hashes the whole register for the report's fingerprint: for many components use the overload that takes a <see cref="RegisterSnapshot"/>.</remarks>
+    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf) =>
+        FromRegister(new RegisterSnapshot(store, asOf), component);
+
+    /// <summary>
+    /// One component of the register as known on the snapshot's date. The register fingerprint, the sites and the
+    /// methods are read once per snapshot; this reads only the component's own rows, so it costs the same whatever the
+    /// register size.
+    /// </summary>
+    public static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component)
     {
-        var known = Registers.AsKnownOn(asOf);
+        ArgumentNullException.ThrowIfNull(snapshot);
+        ArgumentNullException.ThrowIfNull(component);
+        var store = snapshot.Store;
+        var known = snapshot.Known;
         var (model, definition) = BuildModel(component.Model.DefinitionJson, "component " + component.Code);
-        var site = store.Sites(known).FirstOrDefault(s => s.Id == component.SiteId);
+        var site = snapshot.Sites.FirstOrDefault(s => s.Id == component.SiteId);
         var findings = store.Findings(component.Id, known, includeWithdrawn: true)
             .SelectMany(f => store.FindingHistory(f.FindingId).Where(r => r.Recorded.RecordedUtc <= known))
             .ToList();
         var latest = findings.GroupBy(f => f.FindingId).ToDictionary(g => g.Key, g => g.Max(r => r.Revision));
-        var methods = store.Methods(known);
+        var methods = snapshot.Methods;
         var used = findings.Select(f => f.MethodName).Where(n => n is not null).Distinct().ToHashSet();
         return new ComponentContext
         {
             Id = component.Code,
             Name = component.Description,
             Site = site is null ? "?" : $"{site.Code} ({site.Name})",
+            SiteCode = site?.Code ?? "?",
             InServiceDate = component.InstallDate,
             Model = model,
             ModelDescription = $"{definition.Name}, version {component.Model.ModelVersion} (revision {component.Model.Revision.ToString(CultureInfo.InvariantCulture)})",
+            ModelRevision = component.Model.Revision,
             InputSource = $"model version {component.Model.ModelVersion} in the register",
             ServiceLifeYears = definition.ServiceLifeYears > 0 ? definition.ServiceLifeYears : null,
             Evidence = store.EvidenceFor(component.Id, known),
@@ -54,7 +68,8 @@ public static class ComponentContexts
                 .Select(f => Finding(f, component.InstallDate, f.Revision < latest[f.FindingId] || f.Withdrawn)).ToArray(),
             Repairs = store.Repairs(component.Id, known).Select(r => new ReportRepair(r.RepairDate, ServiceTime.YearsSince(component.InstallDate, r.RepairDate), r.Description)).ToArray(),
             Methods = methods.OrderBy(m => used.Contains(m.Name) ? 0 : 1).Select(m => m.ToInspectionMethod()).ToArray(),
-            Fingerprint = store.Fingerprint(known),
+            Fingerprint = snapshot.Fingerprint,
+            ComponentFingerprint = store.ComponentFingerprint(component.Id, known),
             Source = store.Path,
         };
     }
@@ -104,6 +119,7 @@ public static class ComponentContexts
                 ModelDescription = definition.Name + " (model file)",
                 InputSource = "model file " + Path.GetFileName(modelPath),
                 Fingerprint = "sha256:" + Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(hash.ToString()))),
+                ComponentFingerprint = Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(hash.ToString()))),
                 Source = modelPath + (findingsPath is null ? string.Empty : " + " + findingsPath),
             };
         }

@@ -48,6 +48,15 @@ public sealed record ComponentContext
     /// <summary>Fingerprint of the register state (or of the input files).</summary>
     public required string Fingerprint { get; init; }
 
+    /// <summary>Fingerprint of what this component's numbers rest on (<see cref="InspectionUpdate.Register.RegisterStore.ComponentFingerprint"/>; for files, of the files).</summary>
+    public string ComponentFingerprint { get; init; } = string.Empty;
+
+    /// <summary>Revision of the component's model definition in the register (1 for a model file).</summary>
+    public int ModelRevision { get; init; } = 1;
+
+    /// <summary>Code of the site that holds the component ("-" for a model file).</summary>
+    public string SiteCode { get; init; } = "-";
+
     /// <summary>The register file or model file.</summary>
     public required string Source { get; init; }
 
