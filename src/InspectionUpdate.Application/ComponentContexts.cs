@@ -37,7 +37,10 @@ public static class ComponentContexts
     /// methods are read once per snapshot; this reads only the component's own rows, so it costs the same whatever the
     /// register size.
     /// </summary>
-    public static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component)
+    /// <param name="snapshot">The register as known on the evidence date.</param>
+    /// <param name="component">The component, as known then.</param>
+    /// <param name="componentFingerprint">Its fingerprint when the caller has it already; computed when null.</param>
+    public static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component, string? componentFingerprint = null)
     {
         ArgumentNullException.ThrowIfNull(snapshot);
         ArgumentNullException.ThrowIfNull(component);
@@ -69,7 +72,7 @@ public static class ComponentContexts
             Repairs = store.Repairs(component.Id, known).Select(r => new ReportRepair(r.RepairDate, ServiceTime.YearsSince(component.InstallDate, r.RepairDate), r.Description)).ToArray(),
             Methods = methods.OrderBy(m => used.Contains(m.Name) ? 0 : 1).Select(m => m.ToInspectionMethod()).ToArray(),
             Fingerprint = snapshot.Fingerprint,
-            ComponentFingerprint = store.ComponentFingerprint(component.Id, known),
+            ComponentFingerprint = componentFingerprint ?? store.ComponentFingerprint(component.Id, known),
             Source = store.Path,
         };
     }
