@@ -60,7 +60,7 @@ public sealed class PortfolioRunTests
         Assert.Equal(Few, again.Reused);
         Assert.Equal(0, again.Assessed + again.NotConverged + again.Failed);
 
-        var changed = r.Store.Few()[2];
+        var changed = r.Store.Components()[1];
         r.Store.AddFinding(new NewFinding(changed.Code, new DateOnly(2024, 11, 2), FindingKind.NoIndication, "INV-UT", Location: "dig 1"), "tester", "new dig").Require();
         var check = StoredResults.Check(r.Store);
         Assert.Equal(Few, check.Stored);
