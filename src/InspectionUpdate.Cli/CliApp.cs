@@ -39,6 +39,13 @@ public static class CliApp
                     .WithExample("register", "create", "plant.register");
                 b.AddCommand<RegisterCheckCommand>("check").WithDescription("Check the register's integrity and print its fingerprint.")
                     .WithExample("register", "check", "-r", "plant.register");
+                b.AddCommand<RegisterAssessCommand>("assess").WithDescription("Assess and plan every component in service as of a date; store each result under its key (reruns recompute only what changed).")
+                    .WithExample("register", "assess", "--as-of", "2025-06-30", "-r", "plant.register")
+                    .WithExample("register", "assess", "--shard", "0/4", "-r", "plant.register");
+                b.AddCommand<RegisterMergeCommand>("merge").WithDescription("Fold shard results files into the register, refusing results whose keys no longer match.")
+                    .WithExample("register", "merge", "plant.register.shard-0-of-4.results", "plant.register.shard-1-of-4.results", "-r", "plant.register");
+                b.AddCommand<RegisterInventCommand>("invent").WithDescription("Create a register of invented components (benchmarks and trials).")
+                    .WithExample("register", "invent", "trial.register", "--components", "1000");
             });
             config.AddBranch("site", b =>
             {
