@@ -81,6 +81,7 @@ public static class PortfolioRun
 
         int assessed = 0, notConverged = 0, reused = 0, failed = 0, done = 0;
         var failures = new ConcurrentBag<PortfolioFailure>();
+        var downgraded = new List<ResultStatus>(); // computed results the store refused: counted as failed (writer thread only)
         using var queue = new BlockingCollection<StoredResult>(boundedCapacity: Math.Max(16, options.BatchSize * 4));
         using var stop = CancellationTokenSource.CreateLinkedTokenSource(cancellation);
         Exception? writeFailure = null;
@@ -101,12 +102,12 @@ public static class PortfolioRun
                     // Commit a full batch, or what has waited half a second: few transactions, little lost to a kill.
                     if (batch.Count >= options.BatchSize || (batch.Count > 0 && since.ElapsedMilliseconds >= 500))
                     {
-                        sink.Save(batch);
+                        Save(sink, batch, failures, downgraded);
                         batch.Clear();
                     }
                 }
 
-                sink.Save(batch);
+                Save(sink, batch, failures, downgraded);
             }
             catch (Exception e) when (e is Microsoft.Data.Sqlite.SqliteException or IOException or InvalidOperationException)
             {
@@ -162,8 +163,41 @@ public static class PortfolioRun
             throw ApplicationFailureException.Register("Writing results failed (every batch committed before stays; rerun to complete): " + writeFailure.Message, writeFailure);
         }
 
+        assessed -= downgraded.Count(d => d == ResultStatus.Assessed);
+        notConverged -= downgraded.Count(d => d == ResultStatus.NotConverged);
+        failed += downgraded.Count;
         return new PortfolioSummary(options.AsOf, optionsKey, tool, options.Shard?.ToString(), active.Length, assessed, notConverged, reused, failed,
             inShard.Length - active.Length, index.Count - inShard.Length, failures.OrderBy(f => f.ComponentId, StringComparer.Ordinal).ToArray(), clock.Elapsed);
+    }
+
+    /// <summary>
+    /// Saves a batch; when the store refuses it (a value its constraints reject), saves row by row and stores a
+    /// refused row as failed with the reason, so that one component never stops the run.
+    /// </summary>
+    private static void Save(IResultSink sink, List<StoredResult> batch, ConcurrentBag<PortfolioFailure> failures, List<ResultStatus> downgraded)
+    {
+        try
+        {
+            sink.Save(batch);
+        }
+        catch (Microsoft.Data.Sqlite.SqliteException) when (batch.Count > 1 || batch[0].Status != ResultStatus.Failed)
+        {
+            foreach (var row in batch)
+            {
+                try
+                {
+                    sink.Save([row]);
+                }
+                catch (Microsoft.Data.Sqlite.SqliteException e) when (row.Status != ResultStatus.Failed)
+                {
+                    var reason = "result could not be stored: " + e.Message;
+                    failures.Add(new PortfolioFailure(row.ComponentCode, reason));
+                    downgraded.Add(row.Status);
+                    sink.Save([new StoredResult(row.ComponentId, row.ComponentCode, row.SiteCode, row.AsOf, row.OptionsKey, row.ModelRevision, row.ComponentFingerprint,
+                        row.ToolVersion, row.ResultKey, ResultStatus.Failed, reason, row.ComputedUtc)]);
+                }
+            }
+        }
     }
 
     /// <summary>One component: null when its stored result's key still matches; else its new result (failed with the reason on error).</summary>
