@@ -8,8 +8,7 @@ namespace InspectionUpdate.Cli;
 public static class CliApp
 {
     /// <summary>The tool version shown in reports and --version.</summary>
-    public static string Version { get; } =
-        typeof(CliApp).Assembly.GetName().Version is { } v ? $"{v.Major}.{v.Minor}.{v.Build}" : "0.0.0";
+    public static string Version => Application.ToolInfo.Version;
 
     /// <summary>Runs the command line on <paramref name="host"/> and returns the exit code.</summary>
     public static int Run(string[] args, CliHost host)
@@ -40,6 +39,13 @@ public static class CliApp
                     .WithExample("register", "create", "plant.register");
                 b.AddCommand<RegisterCheckCommand>("check").WithDescription("Check the register's integrity and print its fingerprint.")
                     .WithExample("register", "check", "-r", "plant.register");
+                b.AddCommand<RegisterAssessCommand>("assess").WithDescription("Assess and plan every component in service as of a date; store each result under its key (reruns recompute only what changed).")
+                    .WithExample("register", "assess", "--as-of", "2025-06-30", "-r", "plant.register")
+                    .WithExample("register", "assess", "--shard", "0/4", "-r", "plant.register");
+                b.AddCommand<RegisterMergeCommand>("merge").WithDescription("Fold shard results files into the register, refusing results whose keys no longer match.")
+                    .WithExample("register", "merge", "plant.register.shard-0-of-4.results", "plant.register.shard-1-of-4.results", "-r", "plant.register");
+                b.AddCommand<RegisterInventCommand>("invent").WithDescription("Create a register of invented components (benchmarks and trials).")
+                    .WithExample("register", "invent", "trial.register", "--components", "1000");
             });
             config.AddBranch("site", b =>
             {

@@ -1,5 +1,5 @@
 using System.Globalization;
-using InspectionUpdate.Cli.Engine;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Reliability;
@@ -23,7 +23,7 @@ internal static class Study
             if (findings is not null && !File.Exists(findings)) throw CliException.BadInput("--findings", findings, "does not exist.");
             var inService = s.InService is null ? (findings is null ? asOf : throw new CliException("--in-service is missing: findings are dated, so the date of entry into service is needed."))
                 : RegisterAccess.Date("--in-service", s.InService);
-            return ComponentContexts.FromFiles(host, modelPath, findings, inService, asOf);
+            return ComponentContexts.FromFiles(modelPath, findings, inService, asOf);
         }
 
         using var store = RegisterAccess.Open(host, s.RegisterPath(host));

@@ -1,6 +1,7 @@
 using System.ComponentModel;
 using System.Globalization;
 using System.Text.Json;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Inspection;
 using InspectionUpdate.Register;
@@ -40,55 +41,6 @@ public sealed class MethodAddCommand(CliHost host) : CliCommand<MethodAddSetting
         if (settings.Json) WriteJson(MethodRow.From(stored));
         else Line($"Added method {stored.Name}: {MethodRow.From(stored).PodText}.");
         return ExitCodes.Ok;
-    }
-}
-
-/// <summary>The method file (format inspection-update/method/1, docs/formats.md).</summary>
-internal static class MethodFile
-{
-    public const string FormatName = "inspection-update/method/1";
-
-    private sealed record FileDoc(string? Format, string? Description, PodDoc? Pod, SizingDoc? Sizing);
-
-    private sealed record PodDoc(string? Form, double? MuLnMm, double? SigmaLn, double? LambdaMm, double? LowerLimitMm, double? MaxPod, double? FalseCallProbability);
-
-    private sealed record SizingDoc(string? Kind, double? Bias, double? Sd);
-
-    /// <summary>Reads a method file; every problem is listed with its field.</summary>
-    public static NewMethod Read(string path, string name)
-    {
-        if (!File.Exists(path)) throw CliException.BadInput("--file", path, "does not exist.");
-        FileDoc? doc;
-        try
-        {
-            doc = JsonSerializer.Deserialize<FileDoc>(File.ReadAllText(path), ProfileExport.JsonOptions);
-        }
-        catch (JsonException e)
-        {
-            throw CliException.BadInput("--file", path, "is not a valid method file: " + e.Message);
-        }
-
-        var problems = new List<ValidationProblem>();
-        if (doc?.Format != FormatName) problems.Add(new("format", doc?.Format, $"must be {FormatName}"));
-        if (doc?.Pod?.Form is null) problems.Add(new("pod.form", null, $"is required ({PodForms.LogLogistic}, {PodForms.CumulativeLognormal} or {PodForms.Exponential})"));
-        var kind = doc?.Sizing?.Kind switch
-        {
-            "additive-normal" => SizingErrorKind.AdditiveNormal,
-            "multiplicative-lognormal" => SizingErrorKind.MultiplicativeLognormal,
-            var k => Bad(problems, "sizing.kind", k, "must be additive-normal or multiplicative-lognormal"),
-        };
-        if (doc?.Sizing?.Sd is null) problems.Add(new("sizing.sd", null, "is required"));
-        if (problems.Count > 0) throw RegisterAccess.Problems("method file " + Path.GetFileName(path), problems);
-        var pod = doc!.Pod!;
-        return new NewMethod(name, doc.Description ?? string.Empty,
-            new PodSpec(pod.Form!, pod.MuLnMm, pod.SigmaLn, pod.LambdaMm, pod.LowerLimitMm ?? 0, pod.MaxPod ?? 1, pod.FalseCallProbability ?? 0),
-            new SizingError(kind, doc.Sizing!.Bias ?? 0, doc.Sizing.Sd!.Value));
-    }
-
-    private static SizingErrorKind Bad(List<ValidationProblem> problems, string field, string? value, string message)
-    {
-        problems.Add(new(field, value, message));
-        return SizingErrorKind.AdditiveNormal;
     }
 }
 

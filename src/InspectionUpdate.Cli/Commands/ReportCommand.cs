@@ -1,6 +1,6 @@
 using System.ComponentModel;
 using System.Globalization;
-using InspectionUpdate.Cli.Engine;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Time;
@@ -71,10 +71,10 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
     internal static (ReportDocument Document, int ExitCode) Produce(CliHost host, string registerPath, string? only, string folder, ReportRunOptions options, bool quiet, string title)
     {
         using var store = RegisterAccess.Open(host, registerPath);
-        var known = RegisterAccess.AsKnownOn(options.AsOf);
-        var components = only is null ? store.Components(known) : [RegisterAccess.Component(store, only, options.AsOf)];
-        var fingerprint = store.Fingerprint(known);
-        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(store, c, options.AsOf))).ToArray();
+        var snapshot = new RegisterSnapshot(store, options.AsOf);
+        var components = only is null ? store.Components(snapshot.Known) : [RegisterAccess.Component(store, only, options.AsOf)];
+        var fingerprint = snapshot.Fingerprint;
+        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(snapshot, c))).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
         var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, []);
         var rows = runs.Select(r => Row(r, folder)).ToArray();

@@ -6,7 +6,7 @@ using InspectionUpdate.Time;
 using InspectionUpdate.TimeVariant;
 using InspectionUpdate.Updating;
 
-namespace InspectionUpdate.Cli.Engine;
+namespace InspectionUpdate.Application;
 
 /// <summary>What to assess: one component's model and its evidence, with the dates that place it in time.</summary>
 /// <param name="ComponentId">Component identifier.</param>
@@ -17,7 +17,7 @@ namespace InspectionUpdate.Cli.Engine;
 /// <param name="HorizonYears">Profile horizon and end of service life, years since entry into service.</param>
 /// <param name="StepsPerYear">Grid steps per year (1 gives annual failure probabilities).</param>
 /// <param name="Route">Updating route: automatic (first order, simulation where first order is unreliable), first order only, or simulation only.</param>
-internal sealed record AssessmentRequest(string ComponentId, IDegradationModel Model, DateOnly InServiceDate, DateOnly AsOf,
+public sealed record AssessmentRequest(string ComponentId, IDegradationModel Model, DateOnly InServiceDate, DateOnly AsOf,
     IReadOnlyList<InspectionOutcome> Evidence, double HorizonYears, int StepsPerYear, UpdatingRoute Route = UpdatingRoute.Auto)
 {
     /// <summary>Years from entry into service to the evidence date.</summary>
@@ -29,7 +29,7 @@ internal sealed record AssessmentRequest(string ComponentId, IDegradationModel M
 /// <param name="Updated">Profile given the evidence; null when there is none.</param>
 /// <param name="Posterior">Posterior summary of the inputs; null without evidence or when the sampler failed (see <paramref name="PosteriorNote"/>).</param>
 /// <param name="PosteriorNote">Why the posterior is missing, or null.</param>
-internal sealed record AssessmentOutcome(ReliabilityProfile Prior, ReliabilityProfile? Updated, PosteriorSummary? Posterior, string? PosteriorNote)
+public sealed record AssessmentOutcome(ReliabilityProfile Prior, ReliabilityProfile? Updated, PosteriorSummary? Posterior, string? PosteriorNote)
 {
     /// <summary>Prior and posterior draws of the inputs for histograms; empty without evidence.</summary>
     public IReadOnlyList<InputSamples> Samples { get; init; } = [];
@@ -45,17 +45,17 @@ internal sealed record AssessmentOutcome(ReliabilityProfile Prior, ReliabilityPr
 /// <param name="Next">Latest date of the next inspection.</param>
 /// <param name="Schedule">Life-cycle schedule with the planned method (each planned inspection assumed to find nothing).</param>
 /// <param name="RemainingLife">Remaining life without further inspection.</param>
-internal sealed record PlanOutcome(NextInspection Next, InspectionSchedule? Schedule, RemainingLife RemainingLife)
+public sealed record PlanOutcome(NextInspection Next, InspectionSchedule? Schedule, RemainingLife RemainingLife)
 {
     /// <summary>True when every estimate behind the plan converged.</summary>
     public bool AllConverged => Next.Computation.AllConverged && (Schedule?.Computation.AllConverged ?? true) && RemainingLife.Computation.AllConverged;
 }
 
 /// <summary>
-/// Runs the engine for the CLI: the prior profile by time-stepped FORM, the updated profile and posterior by the
+/// Runs the engine for the front ends: the prior profile by time-stepped FORM, the updated profile and posterior by the
 /// updater, and the plan by the planner. It only orchestrates; every number comes from the core.
 /// </summary>
-internal static class ComponentAssessment
+public static class ComponentAssessment
 {
     private static readonly Dictionary<UpdatingRoute, ReliabilityUpdater> Updaters = Enum.GetValues<UpdatingRoute>()
         .ToDictionary(r => r, r => new ReliabilityUpdater(UpdatingOptions.Default with { Route = r }));

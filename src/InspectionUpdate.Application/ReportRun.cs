@@ -1,25 +1,24 @@
 using System.Globalization;
 using System.Text.Json;
-using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Reporting;
 using InspectionUpdate.Reporting.Export;
 using InspectionUpdate.Reporting.Html;
 using InspectionUpdate.Updating;
 
-namespace InspectionUpdate.Cli.Engine;
+namespace InspectionUpdate.Application;
 
 /// <summary>One component's run for a report: the engine's results, or why it could not be assessed.</summary>
-internal sealed record ComponentRun(string ComponentId, ComponentContext? Context, AssessmentRequest? Request, AssessmentOutcome? Outcome, PlanOutcome? Plan, string? Error)
+public sealed record ComponentRun(string ComponentId, ComponentContext? Context, AssessmentRequest? Request, AssessmentOutcome? Outcome, PlanOutcome? Plan, string? Error)
 {
     public bool AllConverged => (Outcome?.AllConverged ?? true) && (Plan?.AllConverged ?? true);
 }
 
 /// <summary>Settings of a report run.</summary>
-internal sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool Schedule, UpdatingRoute Route, double? HorizonYears);
+public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool Schedule, UpdatingRoute Route, double? HorizonYears);
 
 /// <summary>Runs assess and plan over several components (in parallel) and writes the reports and exports.</summary>
-internal static class ReportRun
+public static class ReportRun
 {
     /// <summary>Assesses and plans each component; a component that fails is recorded with its error, the others go on.</summary>
     public static IReadOnlyList<ComponentRun> Run(IReadOnlyList<Func<ComponentContext>> components, IReadOnlyList<string> ids, ReportRunOptions options, Action<double> progress)
@@ -37,9 +36,9 @@ internal static class ReportRun
                 PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, options.Target, method, _ => { }) : null;
                 runs[i] = new ComponentRun(context.Id, context, request, outcome, plan, null);
             }
-            catch (CliException e)
+            catch (ApplicationFailureException e)
             {
-                runs[i] = new ComponentRun(ids[i], null, null, null, null, e.Message + (e.Problems.Count > 0 ? " " + string.Join(" ", e.Problems) : string.Empty));
+                runs[i] = new ComponentRun(ids[i], null, null, null, null, e.FullText);
             }
             catch (ArgumentException e)
             {
@@ -104,12 +103,12 @@ internal static class ReportRun
                 }) + ".",
             ],
             NotAvailable = notAvailable,
-            Provenance = new ReportProvenance(CliApp.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf),
+            Provenance = new ReportProvenance(ToolInfo.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf),
         };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.Portfolio(portfolio));
         File.WriteAllText(Path.Combine(folder, "register.json"), JsonSerializer.Serialize(new RegisterExport("inspection-update/register-export/1", title, options.AsOf,
-            CliApp.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
+            ToolInfo.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
         return index;
     }
 
