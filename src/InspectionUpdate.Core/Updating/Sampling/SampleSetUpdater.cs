@@ -138,6 +138,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
                 Route = estimate.Route,
                 Converged = estimate.Converged,
                 CoefficientOfVariation = estimate.CoefficientOfVariation,
+                UpperBound = estimate.UpperBound,
                 Evaluations = 0,
                 Note = note,
             });
@@ -194,7 +195,11 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             };
         }
 
-        var resolved = p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples && p.CoefficientOfVariation <= Options.TargetCoefficientOfVariation;
+        var covered = p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples;
+        // Converged: the target CoV is met, or (with the failure region covered) the value is shown below the level
+        // at which no planning decision depends on more digits.
+        var belowDecisions = covered && p.Value + 3 * p.StandardError < Options.DecisionFloor;
+        var resolved = covered && (p.CoefficientOfVariation <= Options.TargetCoefficientOfVariation || belowDecisions);
         UpdatedEstimate? firstOrder = null;
         if (Options.FirstOrderBelowResolution)
         {
@@ -205,7 +210,17 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         var sampleNote = string.Create(CultureInfo.InvariantCulture, $"{p.EffectiveEvents:F0} effective failure samples of {weighted.Count}");
         if (resolved)
         {
-            return Sampled(p, true, Append(note, sampleNote));
+            return Sampled(p, true, Append(note, belowDecisions && p.CoefficientOfVariation > Options.TargetCoefficientOfVariation
+                ? string.Create(CultureInfo.InvariantCulture, $"{sampleNote}; below {Options.DecisionFloor:0.#E+0} with three standard errors")
+                : sampleNote));
+        }
+
+        // Pf never falls with time within a renewal period: a later resolved value bounds this one from above.
+        if (LaterBound(weighted, set, t) is { } bound && bound.Value < Options.DecisionFloor)
+        {
+            var bounded = Sampled(p, true, Append(note, string.Create(CultureInfo.InvariantCulture,
+                $"bounded: Pf ≤ {bound.Value:0.###E+00} (the sampled value at {bound.AtYears:0.###} y, from at least {Options.MinimumFailureSamples} effective failure samples, plus three standard errors; Pf never falls with time), {sampleNote}")));
+            return bounded with { UpperBound = bound.Value };
         }
 
         if (firstOrder is { Converged: true } f && f.CumulativePf < Options.NegligibleProbability
@@ -234,6 +249,24 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             CoefficientOfVariation = s.Value > 0 ? s.CoefficientOfVariation : null,
             Note = text,
         };
+    }
+
+    /// <summary>p + 3·se at the first later time (yearly steps to the period's end) whose failure region is covered, or null.</summary>
+    private (double Value, double AtYears)? LaterBound(WeightedFailureTimes weighted, ComponentSampleSet set, double t)
+    {
+        var (period, local) = set.Locate(t);
+        var end = set.PeriodLength(period);
+        for (var later = Math.Floor(local) + 1; ; later += 1)
+        {
+            var at = Math.Min(later, end);
+            var p = weighted.Cumulative(period, at);
+            if (p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples)
+            {
+                return (p.Value + 3 * p.StandardError, set.PeriodStart(period) + at);
+            }
+
+            if (at >= end) return null;
+        }
     }
 
     private UpdatedEstimate? TryFirstOrder(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, double t)
