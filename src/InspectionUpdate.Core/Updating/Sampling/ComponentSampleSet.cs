@@ -325,6 +325,13 @@ internal sealed class ComponentSampleSet
             // sampling density (the balance heuristic of multiple importance sampling, Veach & Guibas 1995), so
             // earlier draws stay valid.
             var centre = FailedMean(missed.Period, missed.Local, out var effective);
+            if (centre is null || effective < 3)
+            {
+                // Too few failures by that time to aim at it: one cross-entropy rung instead, the mean of the earliest
+                // fifth (by weight) of the failures drawn in the period, a step towards the earlier, rarer failures.
+                centre = EarliestFailuresMean(missed.Period, 0.2, out effective);
+            }
+
             if (centre is not null && effective >= 3 && _mixture.Centres.All(c => Distance(c, centre) > 0.25))
             {
                 _mixture = Mixture(mean, smooth, [.. _mixture.Centres.Skip(smooth ? 1 : 0), centre], scaled, scaledLogDet);
@@ -474,12 +481,52 @@ internal sealed class ComponentSampleSet
             {
                 var local = Math.Min(k, _periodLength[e]);
                 var p = Weighted.Cumulative(e, local);
-                if (!(p.Value + 3 * p.StandardError >= _options.DecisionFloor)) continue;
+                // Where the failures drawn are too few to judge, the next covered value bounds this one (Pf never falls).
+                var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(e, local);
+                if (!(bound >= _options.DecisionFloor)) continue;
                 if (p.CoefficientOfVariation > _options.TargetCoefficientOfVariation || p.EffectiveEvents < _options.MinimumFailureSamples) return (e, local);
             }
         }
 
         return null;
+    }
+
+    /// <summary>p + 3·se at the first later yearly time of the period with enough effective failure samples; 1 when none.</summary>
+    private double CoveredBoundAfter(int period, double local)
+    {
+        for (var later = Math.Floor(local) + 1; ; later += 1)
+        {
+            var at = Math.Min(later, _periodLength[period]);
+            var p = Weighted.Cumulative(period, at);
+            if (p.EffectiveEvents >= _options.MinimumFailureSamples) return p.Value + 3 * p.StandardError;
+            if (at >= _periodLength[period]) return 1;
+        }
+    }
+
+    /// <summary>Weighted mean (u-space) of the earliest failures of a period carrying the given share of the failed weight.</summary>
+    private double[]? EarliestFailuresMean(int period, double share, out double effective)
+    {
+        effective = 0;
+        var times = _times[period];
+        var order = Enumerable.Range(0, times.Count).Where(i => double.IsFinite(times[i]) && times[i] <= _periodLength[period] && _logW[i] > double.NegativeInfinity)
+            .OrderBy(i => times[i]).ToArray();
+        if (order.Length == 0) return null;
+        var top = order.Max(i => _logW[i]);
+        var totalFailed = order.Sum(i => Math.Exp(_logW[i] - top));
+        var mean = new double[_d];
+        double sum = 0, sum2 = 0;
+        foreach (var i in order)
+        {
+            var w = Math.Exp(_logW[i] - top);
+            sum += w;
+            sum2 += w * w;
+            for (var k = 0; k < _d; k++) mean[k] += w * _u[i * _d + k];
+            if (sum >= share * totalFailed) break;
+        }
+
+        for (var k = 0; k < _d; k++) mean[k] /= sum;
+        effective = sum * sum / sum2;
+        return mean;
     }
 
     /// <summary>Recomputes every weight against the sampling density of all batches drawn so far.</summary>

@@ -25,6 +25,9 @@ namespace InspectionUpdate.Updating.Sampling;
 public sealed class SampleSetUpdater : IReliabilityUpdater
 {
     private const int CachedSets = 6;
+
+    /// <summary>Smallest share of a set's effective sample size that a reweighting for further findings may keep before a new set is drawn.</summary>
+    private const double MinimumEffectiveShare = 0.5;
     private readonly Lock _gate = new();
     private readonly LinkedList<Entry> _recent = new();
     private readonly ReliabilityUpdater _firstOrder;
@@ -49,7 +52,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         var (set, weighted, note) = Resolve(model, evidence, timeYears);
         var (period, local) = set.Locate(timeYears);
         var p = weighted.Cumulative(period, local);
-        return Decide(model, evidence, timeYears, p, weighted, set, note, out _);
+        return Decide(model, evidence, timeYears, p, weighted, set, note, crossCheck: false, out _);
     }
 
     /// <summary>The interval probability P(t₀ &lt; T_f ≤ t₁ | data) read directly from the sample set (same renewal period), or null.</summary>
@@ -88,7 +91,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             var (period, local) = set.Locate(t);
             var restarted = period != prevPeriod;
             var cumulative = weighted.Cumulative(period, local);
-            var estimate = Decide(model, evidence, t, cumulative, weighted, set, null, out var firstOrderValue);
+            var estimate = Decide(model, evidence, t, cumulative, weighted, set, null, crossCheck: Options.FirstOrderBelowResolution, out var firstOrderValue);
             var usedFirstOrder = estimate.Route != ComputationRoute.ImportanceSampling;
             var basePf = restarted ? 0.0 : prevPf;
             double interval;
@@ -177,7 +180,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
 
     /// <summary>The reported estimate at t: sampled where resolved, else first order below the negligible level, else the sampled value flagged.</summary>
     private UpdatedEstimate Decide(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, double t, SampledProbability p,
-        WeightedFailureTimes weighted, ComponentSampleSet set, string? note, out double? firstOrderValue)
+        WeightedFailureTimes weighted, ComponentSampleSet set, string? note, bool crossCheck, out double? firstOrderValue)
     {
         firstOrderValue = null;
         var evidenceProbability = evidence.Any(e => e is SizedIndication) ? double.NaN : Math.Exp(weighted.LogMeanWeight);
@@ -201,7 +204,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         var belowDecisions = covered && p.Value + 3 * p.StandardError < Options.DecisionFloor;
         var resolved = covered && (p.CoefficientOfVariation <= Options.TargetCoefficientOfVariation || belowDecisions);
         UpdatedEstimate? firstOrder = null;
-        if (Options.FirstOrderBelowResolution)
+        if (crossCheck || Options.FirstOrderBelowResolution && !resolved)
         {
             firstOrder = TryFirstOrder(model, evidence, t);
             if (firstOrder is not null && double.IsFinite(firstOrder.CumulativePf)) firstOrderValue = firstOrder.CumulativePf;
@@ -301,11 +304,14 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             // A cached set whose findings are a part of these, the rest planned findings without a repair: reweight it.
             foreach (var candidate in _recent)
             {
-                if (!ReferenceEquals(candidate.Model, model) || candidate.HorizonYears < horizon || candidate.Evidence.Length >= evidence.Count) continue;
+                // The prior's set is not reweighted with findings: its density does not look where they point.
+                if (!ReferenceEquals(candidate.Model, model) || candidate.HorizonYears < horizon || candidate.Evidence.Length == 0
+                    || candidate.Evidence.Length >= evidence.Count) continue;
                 if (!candidate.Set.IsValueCreated) continue;
                 var known = candidate.Derived.FirstOrDefault(d => d.Evidence.SequenceEqual(evidence));
                 var reweighted = known.Weighted ?? candidate.Set.Value.Reweighted(evidence, out _);
-                if (reweighted is null) continue;
+                // Reused only while the weights stay balanced: a finding that moves the posterior far gets a set of its own.
+                if (reweighted is null || reweighted.EffectiveSampleSize < MinimumEffectiveShare * candidate.Set.Value.Weighted.EffectiveSampleSize) continue;
                 if (known.Weighted is null)
                 {
                     candidate.Derived.Add((evidence.ToArray(), reweighted));
