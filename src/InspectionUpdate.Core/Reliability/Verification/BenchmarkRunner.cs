@@ -46,6 +46,12 @@ public sealed record BenchmarkRouteResult
 
     /// <summary>A note (why not converged, seed, samples), or null.</summary>
     public string? Note { get; init; }
+
+    /// <summary>
+    /// Limit-state evaluations of the engine's simulation check of this result (<see cref="DesignPointSimulationCheck"/>),
+    /// not included in <see cref="LimitStateEvaluations"/>; null when the result was not checked.
+    /// </summary>
+    public long? CheckEvaluations { get; init; }
 }
 
 /// <summary>A row of the benchmark table.</summary>
@@ -65,7 +71,9 @@ public sealed record BenchmarkRow(BenchmarkProblem Problem, string RouteName, Be
 /// <param name="WrongAndConverged">Problems outside tolerance, converged and unflagged.</param>
 /// <param name="NotRun">Problems the route was not run on.</param>
 /// <param name="MedianEvaluations">Median limit-state evaluations over the problems it ran on.</param>
-public sealed record BenchmarkRouteSummary(string Route, int Passed, int Flagged, int FlaggedOnlyByCrossCheck, int WrongAndConverged, int NotRun, double MedianEvaluations);
+/// <param name="MedianCheckEvaluations">Median evaluations of the simulation check over the problems where it ran; NaN when it never ran.</param>
+public sealed record BenchmarkRouteSummary(string Route, int Passed, int Flagged, int FlaggedOnlyByCrossCheck, int WrongAndConverged, int NotRun, double MedianEvaluations,
+    double MedianCheckEvaluations);
 
 /// <summary>Settings of a benchmark run.</summary>
 public sealed record BenchmarkOptions
@@ -75,6 +83,9 @@ public sealed record BenchmarkOptions
 
     /// <summary>Importance sampling: target CoV 0.05, at most 100 000 samples.</summary>
     public SamplingOptions ImportanceSampling { get; init; } = new() { TargetCoefficientOfVariation = 0.05, MaxSamples = 100_000, Seed = 11 };
+
+    /// <summary>The simulation check of converged FORM and SORM estimates (importance sampling at their design point, target CoV 0.01).</summary>
+    public DesignPointSimulationCheckOptions SimulationCheck { get; init; } = DesignPointSimulationCheckOptions.Default;
 
     /// <summary>Subset simulation: 2000 samples per level.</summary>
     public SubsetSimulationOptions Subset { get; init; } = new() { SamplesPerLevel = 2000, Seed = 13 };
@@ -100,6 +111,8 @@ public sealed class BenchmarkContext
 {
     private MultiStartFormResult? _form;
     private SormResult? _sorm;
+    private DesignPointSimulationCheckResult? _check;
+    private bool _checkDone;
 
     internal BenchmarkContext(BenchmarkProblem problem, BenchmarkOptions options)
     {
@@ -118,6 +131,22 @@ public sealed class BenchmarkContext
 
     /// <summary>SORM with the curvature check around <see cref="Form"/>'s kept design point (computed on first use).</summary>
     public SormResult Sorm => _sorm ??= SormSolver.SolveWithCurvatureCheck(Problem.Problem, Form.Best);
+
+    /// <summary>
+    /// The simulation check at <see cref="Form"/>'s kept design point (computed on first use); null when FORM did not
+    /// converge (its result is flagged already and the design point may not be finite).
+    /// </summary>
+    public DesignPointSimulationCheckResult? Check(CancellationToken cancellationToken)
+    {
+        if (_checkDone) return _check;
+        if (Form.Converged && Form.Best.DesignPointU.All(double.IsFinite))
+        {
+            _check = DesignPointSimulationCheck.Run(Problem.Problem, Form.Best, Options.SimulationCheck, cancellationToken);
+        }
+
+        _checkDone = true;
+        return _check;
+    }
 }
 
 /// <summary>
@@ -144,7 +173,9 @@ public interface IBenchmarkRoute
 /// </summary>
 /// <remarks>
 /// Flags come from the engine's own diagnostics: FORM's convergence, multi-start FORM's other significant design
-/// points, SORM's curvature and second-order model checks, and, after all routes ran, the cross-checks between routes
+/// points, SORM's curvature and second-order model checks, the simulation check of converged FORM and SORM estimates
+/// at their design point (<see cref="DesignPointSimulationCheck"/>; its evaluations are counted apart, in
+/// <see cref="BenchmarkRouteResult.CheckEvaluations"/>), and, after all routes ran, the cross-checks between routes
 /// (see <c>CrossCheck</c>: simulations against each other, FORM and SORM against the best simulation, simulations
 /// against a FORM or SORM estimate that passed its own checks). Summaries count separately the results flagged only by
 /// a cross-check.
@@ -284,19 +315,28 @@ public static class BenchmarkRunner
         ArgumentNullException.ThrowIfNull(rows);
         return rows.GroupBy(r => r.RouteName).Select(g =>
         {
-            var evaluations = g.Where(r => r.Result is not null).Select(r => (double)r.Result!.LimitStateEvaluations).OrderBy(v => v).ToArray();
-            var median = evaluations.Length == 0 ? double.NaN
-                : evaluations.Length % 2 == 1 ? evaluations[evaluations.Length / 2]
-                : 0.5 * (evaluations[evaluations.Length / 2 - 1] + evaluations[evaluations.Length / 2]);
+            var median = Median(g.Where(r => r.Result is not null).Select(r => (double)r.Result!.LimitStateEvaluations));
+            var checkMedian = Median(g.Where(r => r.Result?.CheckEvaluations is not null).Select(r => (double)r.Result!.CheckEvaluations!.Value));
             return new BenchmarkRouteSummary(g.Key,
                 g.Count(r => r.Outcome == BenchmarkOutcome.Passed),
                 g.Count(r => r.Outcome == BenchmarkOutcome.Flagged),
                 g.Count(r => r.FlaggedOnlyByCrossCheck),
                 g.Count(r => r.Outcome == BenchmarkOutcome.WrongAndConverged),
                 g.Count(r => r.Outcome == BenchmarkOutcome.NotRun),
-                median);
+                median,
+                checkMedian);
         }).ToArray();
     }
+
+    private static double Median(IEnumerable<double> values)
+    {
+        var v = values.Order().ToArray();
+        return v.Length == 0 ? double.NaN : v.Length % 2 == 1 ? v[v.Length / 2] : 0.5 * (v[v.Length / 2 - 1] + v[v.Length / 2]);
+    }
+
+    /// <summary>The simulation check's flag on a converged estimate, if any (added to the route's own flags).</summary>
+    private static IEnumerable<string> CheckFlags(DesignPointSimulationCheckResult? check, bool converged, double estimate) =>
+        converged && check?.Flag(estimate) is { } flag ? [flag] : [];
 
     private static string[] FormFlags(MultiStartFormResult form) =>
         form.SignificantOtherDesignPoints.Count > 0 && form.Warning is { } w ? ["multiple design points: " + w] : [];
@@ -310,6 +350,7 @@ public static class BenchmarkRunner
         public BenchmarkRouteResult? Run(BenchmarkContext context, CancellationToken cancellationToken)
         {
             var form = context.Form;
+            var check = context.Check(cancellationToken);
             return new BenchmarkRouteResult
             {
                 Route = Name,
@@ -317,8 +358,9 @@ public static class BenchmarkRunner
                 FailureProbability = form.Best.FailureProbability,
                 LimitStateEvaluations = form.LimitStateEvaluations,
                 Converged = form.Converged,
-                Flags = FormFlags(form),
+                Flags = [.. FormFlags(form), .. CheckFlags(check, form.Converged, form.Best.FailureProbability)],
                 Note = form.Converged ? form.Warning : form.Best.Diagnostic,
+                CheckEvaluations = check?.Simulation.LimitStateEvaluations,
             };
         }
     }
@@ -335,15 +377,19 @@ public static class BenchmarkRunner
             var estimate = sorm.Estimates[formula];
             var flags = new List<string>(FormFlags(context.Form));
             if (sorm.CurvatureWarning is { } w) flags.Add(w);
+            var converged = sorm.Converged && estimate.Valid;
+            var check = context.Check(cancellationToken);
+            flags.AddRange(CheckFlags(check, converged, estimate.FailureProbability));
             return new BenchmarkRouteResult
             {
                 Route = Name,
                 IsSimulation = false,
                 FailureProbability = estimate.FailureProbability,
                 LimitStateEvaluations = context.Form.LimitStateEvaluations + sorm.LimitStateEvaluations,
-                Converged = sorm.Converged && estimate.Valid,
+                Converged = converged,
                 Flags = flags,
                 Note = estimate.Note ?? (sorm.Converged ? null : sorm.Diagnostic),
+                CheckEvaluations = check?.Simulation.LimitStateEvaluations,
             };
         }
     }
@@ -369,9 +415,14 @@ public static class BenchmarkRunner
         public BenchmarkRouteResult? Run(BenchmarkContext context, CancellationToken cancellationToken)
         {
             var form = context.Form;
-            var flags = form.SignificantOtherDesignPoints.Count > 0
-                ? new[] { "centred at one of several significant design points: the others' regions are sampled rarely" }
-                : [];
+            var flags = new List<string>();
+            if (form.SignificantOtherDesignPoints.Count > 0) flags.Add("centred at one of several significant design points: the others' regions are sampled rarely");
+            if (context.Check(cancellationToken) is { Conclusive: false } check)
+            {
+                flags.Add(string.Create(CultureInfo.InvariantCulture,
+                    $"{DesignPointSimulationCheckResult.FlagPrefix}: a longer run at the same centre reached only CoV {check.Simulation.CoefficientOfVariation:0.###} after {check.Simulation.Samples} samples: heavy-tailed weights, the estimate and its CoV are not reliable"));
+            }
+
             var s = ImportanceSampling.Run(context.Problem.Problem, form.Best, context.Options.ImportanceSampling, cancellationToken);
             return FromSimulation(Name, s, form.LimitStateEvaluations, flags);
         }

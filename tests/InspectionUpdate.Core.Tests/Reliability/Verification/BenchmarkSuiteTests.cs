@@ -21,11 +21,9 @@ public class BenchmarkSuiteTests(ITestOutputHelper output)
 
         foreach (var s in BenchmarkRunner.Summarize(rows)) output.WriteLine(s.ToString());
         output.WriteLine("elapsed " + sw.Elapsed);
-        // Simulation routes: never wrong and converged. FORM and SORM: the two known cases stay the only ones (RP14: the
-        // Gumbel tail makes FORM 10 % low with every check passed; RP57: multi-start keeps a design point of the wrong
-        // branch); any other is a regression.
-        Assert.DoesNotContain(rows, r => r.Outcome == BenchmarkOutcome.WrongAndConverged && r.Result!.IsSimulation);
-        var wrong = rows.Where(r => r.Outcome == BenchmarkOutcome.WrongAndConverged).Select(r => r.Problem.Id).Distinct().Order().ToArray();
-        Assert.Subset(new HashSet<string> { "RP14", "RP57" }, wrong.ToHashSet());
+        // No route, on no problem, may be wrong and converged: every result outside its tolerance must be unconverged or
+        // flagged by the engine's own diagnostics.
+        var wrong = rows.Where(r => r.Outcome == BenchmarkOutcome.WrongAndConverged).Select(r => r.Problem.Id + " " + r.RouteName).ToArray();
+        Assert.True(wrong.Length == 0, "Wrong and converged: " + string.Join("; ", wrong));
     }
 }
