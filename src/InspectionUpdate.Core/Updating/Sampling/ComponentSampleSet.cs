@@ -328,8 +328,8 @@ internal sealed class ComponentSampleSet
             if (centre is null || effective < 3)
             {
                 // Too few failures by that time to aim at it: one cross-entropy rung instead, the mean of the earliest
-                // fifth (by weight) of the failures drawn in the period, a step towards the earlier, rarer failures.
-                centre = EarliestFailuresMean(missed.Period, 0.2, out effective);
+                // fifth (by weight) of the failures by the next covered time, a step towards the earlier, rarer failures.
+                centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(missed.Period, missed.Local), 0.2, out effective);
             }
 
             if (centre is not null && effective >= 3 && _mixture.Centres.All(c => Distance(c, centre) > 0.25))
@@ -494,21 +494,27 @@ internal sealed class ComponentSampleSet
     /// <summary>p + 3·se at the first later yearly time of the period with enough effective failure samples; 1 when none.</summary>
     private double CoveredBoundAfter(int period, double local)
     {
+        var at = CoveredTimeAfter(period, local);
+        var p = Weighted.Cumulative(period, at);
+        return p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : 1;
+    }
+
+    /// <summary>The first later yearly time of the period with enough effective failure samples, else the period's end.</summary>
+    private double CoveredTimeAfter(int period, double local)
+    {
         for (var later = Math.Floor(local) + 1; ; later += 1)
         {
             var at = Math.Min(later, _periodLength[period]);
-            var p = Weighted.Cumulative(period, at);
-            if (p.EffectiveEvents >= _options.MinimumFailureSamples) return p.Value + 3 * p.StandardError;
-            if (at >= _periodLength[period]) return 1;
+            if (at >= _periodLength[period] || Weighted.Cumulative(period, at).EffectiveEvents >= _options.MinimumFailureSamples) return at;
         }
     }
 
-    /// <summary>Weighted mean (u-space) of the earliest failures of a period carrying the given share of the failed weight.</summary>
-    private double[]? EarliestFailuresMean(int period, double share, out double effective)
+    /// <summary>Weighted mean (u-space) of the earliest failures of a period by a local time, carrying the given share of their weight.</summary>
+    private double[]? EarliestFailuresMean(int period, double byLocal, double share, out double effective)
     {
         effective = 0;
         var times = _times[period];
-        var order = Enumerable.Range(0, times.Count).Where(i => double.IsFinite(times[i]) && times[i] <= _periodLength[period] && _logW[i] > double.NegativeInfinity)
+        var order = Enumerable.Range(0, times.Count).Where(i => double.IsFinite(times[i]) && times[i] <= byLocal && _logW[i] > double.NegativeInfinity)
             .OrderBy(i => times[i]).ToArray();
         if (order.Length == 0) return null;
         var top = order.Max(i => _logW[i]);
