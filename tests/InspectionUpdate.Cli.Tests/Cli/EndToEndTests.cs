@@ -95,7 +95,8 @@ public sealed class EndToEndTests
         var asOf = DateOnly.FromDateTime(recorded.UtcDateTime).AddYears(-3).ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture);
         foreach (var command in new[] { "assess", "plan", "report" })
         {
-            var run = cli.Run(command, "IL3-KP42", "-r", register, "--as-of", asOf, "--out", "rep");
+            string[] args = [command, "IL3-KP42", "-r", register, "--as-of", asOf];
+            var run = cli.Run(command == "report" ? [.. args, "--out", "rep"] : args);
             Assert.Equal(ExitCodes.BadInput, run.ExitCode);
             Assert.DoesNotContain("is not in the register", run.Error, StringComparison.Ordinal);
             Assert.Contains("IL3-KP42", run.Error, StringComparison.Ordinal);
