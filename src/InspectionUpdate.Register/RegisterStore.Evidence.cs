@@ -148,7 +148,9 @@ public sealed partial class RegisterStore
             invariants.Add(FormattableString.Invariant($"schema version {version}, expected {Schema.Migrations.Current}"));
         }
 
-        var journal = Convert.ToString(Sql.Scalar(c, t, "PRAGMA journal_mode"), CultureInfo.InvariantCulture);
+        // An immutable (read-only) connection reports its own journal mode: the file header tells the file's.
+        var journal = IsReadOnly ? (Schema.RegisterIdentity.IsWalFile(Path) ? "wal" : "delete")
+            : Convert.ToString(Sql.Scalar(c, t, "PRAGMA journal_mode"), CultureInfo.InvariantCulture);
         if (!string.Equals(journal, "wal", StringComparison.OrdinalIgnoreCase))
         {
             invariants.Add($"journal mode is '{journal}', expected 'wal'");

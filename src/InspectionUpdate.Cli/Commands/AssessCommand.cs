@@ -2,6 +2,7 @@ using System.Globalization;
 using InspectionUpdate.Cli.Engine;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
+using InspectionUpdate.Register;
 using InspectionUpdate.Reliability;
 using InspectionUpdate.Reporting.Export;
 using InspectionUpdate.Reporting.Plots;
@@ -26,7 +27,7 @@ internal static class Study
             return ComponentContexts.FromFiles(host, modelPath, findings, inService, asOf);
         }
 
-        using var store = RegisterAccess.Open(host, s.RegisterPath(host));
+        using var store = RegisterAccess.Open(host, s.RegisterPath(host), RegisterOpenMode.OpenExistingToRead);
         return ComponentContexts.FromRegister(store, RegisterAccess.Component(store, s.Component!, asOf), asOf);
     }
 

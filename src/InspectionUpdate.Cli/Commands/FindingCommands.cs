@@ -251,7 +251,7 @@ public sealed class FindingListCommand(CliHost host) : CliCommand<FindingListSet
     /// <inheritdoc />
     protected override int Run(FindingListSettings settings, CancellationToken cancellation)
     {
-        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExistingToRead);
         var components = settings.Component is null ? store.Components() : [RegisterAccess.Component(store, settings.Component)];
         var rows = new List<FindingRow>();
         foreach (var c in components)

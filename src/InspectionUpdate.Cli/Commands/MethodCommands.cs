@@ -292,7 +292,7 @@ public sealed class MethodListCommand(CliHost host) : CliCommand<MethodListSetti
     /// <inheritdoc />
     protected override int Run(MethodListSettings settings, CancellationToken cancellation)
     {
-        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExistingToRead);
         var rows = store.Methods().Select(MethodRow.From).ToArray();
         if (settings.Json) WriteJson(new MethodList(rows));
         else

@@ -43,7 +43,7 @@ public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterChec
     /// <inheritdoc />
     protected override int Run(RegisterCheckSettings settings, CancellationToken cancellation)
     {
-        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExistingToRead);
         var check = store.Check();
         var now = Host.Clock.GetUtcNow();
         var result = new RegisterChecked(store.Path, check.SchemaVersion, check.IsHealthy, check.IntegrityCheck, check.ForeignKeyViolations,

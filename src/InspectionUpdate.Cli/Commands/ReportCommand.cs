@@ -3,6 +3,7 @@ using System.Globalization;
 using InspectionUpdate.Cli.Engine;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
+using InspectionUpdate.Register;
 using InspectionUpdate.Time;
 using Spectre.Console.Cli;
 
@@ -70,7 +71,7 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
     /// <summary>Runs the report over a register; shared with demo.</summary>
     internal static (ReportDocument Document, int ExitCode) Produce(CliHost host, string registerPath, string? only, string folder, ReportRunOptions options, bool quiet, string title)
     {
-        using var store = RegisterAccess.Open(host, registerPath);
+        using var store = RegisterAccess.Open(host, registerPath, RegisterOpenMode.OpenExistingToRead);
         var known = RegisterAccess.AsKnownOn(options.AsOf);
         var components = only is null ? store.Components(known) : [RegisterAccess.Component(store, only, options.AsOf)];
         var fingerprint = store.Fingerprint(known);

@@ -33,6 +33,10 @@ public abstract class CliCommand<TSettings> : Command<TSettings>
         {
             return Fail(settings, e.ExitCode, e.Message, e, e.Problems);
         }
+        catch (Register.RegisterFileException e)
+        {
+            return Fail(settings, ExitCodes.RegisterError, e.Message, e);
+        }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
         {
             return Fail(settings, ExitCodes.BadInput, e.Message, e);

@@ -239,7 +239,9 @@ internal static class Migrations
             {
                 command.Transaction = transaction;
                 // The script is a constant of this assembly and the version an integer: no user data is built into SQL.
-                command.CommandText = Scripts[version] + string.Create(CultureInfo.InvariantCulture, $"\nPRAGMA user_version = {version + 1};");
+                // Every migrated file carries the register's application id (registers of schema 1 and 2 had none).
+                command.CommandText = Scripts[version] + string.Create(CultureInfo.InvariantCulture,
+                    $"\nPRAGMA user_version = {version + 1};\nPRAGMA application_id = {RegisterIdentity.ApplicationId};");
                 command.ExecuteNonQuery();
             }
 
