@@ -1,5 +1,4 @@
 using System.Globalization;
-using System.Text.Json;
 using InspectionUpdate.Inspection;
 using Microsoft.Data.Sqlite;
 
@@ -260,14 +259,19 @@ public sealed partial class RegisterStore
             return;
         }
 
-        try
-        {
-            using var _ = JsonDocument.Parse(json);
-        }
-        catch (JsonException e)
-        {
-            problems.Add(new("model_definition_json", Abbreviate(json), "the model definition is not valid JSON: " + e.Message));
-        }
+        // The same parse and build as an assessment (ComponentModelDefinition.Parse builds the model and its
+        // transformation): everything the register accepts, an assessment accepts.
+        problems.AddRange(ModelProblems(json));
+    }
+
+    /// <summary>
+    /// Every problem of a model definition as assess would find it (parse, validation, model and transformation
+    /// build), each naming the JSON path ("model $.inputs.rate_mmPerYear.cov") and the value; empty when valid.
+    /// </summary>
+    public static IReadOnlyList<ValidationProblem> ModelProblems(string json)
+    {
+        var parsed = Degradation.Definition.ComponentModelDefinition.Parse(json);
+        return parsed.IsValid ? [] : parsed.Problems.Select(p => new ValidationProblem("model " + p.Path, p.Value, p.Message)).ToList();
     }
 
     private static void ValidatePod(List<ValidationProblem> problems, PodSpec pod)

@@ -47,7 +47,7 @@ public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterChec
         var check = store.Check();
         var now = Host.Clock.GetUtcNow();
         var result = new RegisterChecked(store.Path, check.SchemaVersion, check.IsHealthy, check.IntegrityCheck, check.ForeignKeyViolations,
-            check.InvariantViolations, store.Fingerprint(now), store.Sites().Count, store.Components().Count, store.Methods().Count);
+            check.InvariantViolations, check.InvalidModels, store.Fingerprint(now), store.Sites().Count, store.Components().Count, store.Methods().Count);
         if (settings.Json) WriteJson(result);
         else
         {
@@ -57,9 +57,12 @@ public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterChec
                 ["SQLite integrity", string.Join("; ", check.IntegrityCheck)],
                 ["foreign keys", check.ForeignKeyViolations.Count == 0 ? "ok" : string.Join("; ", check.ForeignKeyViolations)],
                 ["register invariants", check.InvariantViolations.Count == 0 ? "ok" : string.Join("; ", check.InvariantViolations)],
+                ["component models", check.InvalidModels.Count == 0 ? "ok" : $"{check.InvalidModels.Count.ToString(System.Globalization.CultureInfo.InvariantCulture)} do not pass (listed below)"],
                 ["sites / components / methods", $"{result.Sites} / {result.Components} / {result.Methods}"],
                 ["fingerprint", result.Fingerprint],
             ]);
+            foreach (var m in check.InvalidModels) Line("model does not pass: " + m);
+            if (check.InvalidModels.Count > 0) Line("Components with these models cannot be assessed until their model is revised (component revise).");
             Line(check.IsHealthy ? "The register is healthy." : "The register FAILED its check.");
         }
 
@@ -69,4 +72,4 @@ public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterChec
 
 /// <summary>--json of <c>register check</c>.</summary>
 public sealed record RegisterChecked(string Register, int SchemaVersion, bool Healthy, IReadOnlyList<string> IntegrityCheck,
-    IReadOnlyList<string> ForeignKeyViolations, IReadOnlyList<string> InvariantViolations, string Fingerprint, int Sites, int Components, int Methods);
+    IReadOnlyList<string> ForeignKeyViolations, IReadOnlyList<string> InvariantViolations, IReadOnlyList<string> InvalidModels, string Fingerprint, int Sites, int Components, int Methods);

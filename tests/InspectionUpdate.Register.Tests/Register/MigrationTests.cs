@@ -138,3 +138,59 @@ public class MigrationTests
         }
     }
 }
+
+public class ModelCheckMigrationTests
+{
+    [Fact]
+    [Reference("Design rule: a model stored before the register checked models is marked by the migration and listed by the check")]
+    public void Migrating_marks_stored_models_that_no_longer_pass_and_the_check_lists_them()
+    {
+        var path = TestRegister.TempPath();
+        try
+        {
+            using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: 2))
+            {
+            }
+
+            // Rows as an earlier program wrote them: it checked only that the model was JSON.
+            using (var connection = new SqliteConnection($"Data Source={path};Pooling=False;Foreign Keys=True"))
+            {
+                connection.Open();
+                using var command = connection.CreateCommand();
+                command.CommandText = """
+                    INSERT INTO site (code, name, recorded_utc, recorded_by) VALUES ('S', 'Site', '2024-01-01T00:00:00.0000000Z', 'v2');
+                    INSERT INTO component (site_id, code, install_date, recorded_utc, recorded_by) VALUES (1, 'GOOD', '2015-01-01', '2024-01-01T00:00:00.0000000Z', 'v2');
+                    INSERT INTO component (site_id, code, install_date, recorded_utc, recorded_by) VALUES (1, 'BAD', '2015-01-01', '2024-01-01T00:00:00.0000000Z', 'v2');
+                    INSERT INTO component_model_revision (component_id, revision, definition_json, model_version, recorded_utc, recorded_by, reason) VALUES (1, 1, $good, 'm1', '2024-01-01T00:00:00.0000000Z', 'v2', 'initial');
+                    INSERT INTO component_model_revision (component_id, revision, definition_json, model_version, recorded_utc, recorded_by, reason) VALUES (2, 1, $bad, 'm1', '2024-01-01T00:00:00.0000000Z', 'v2', 'initial');
+                    """;
+                command.Parameters.AddWithValue("$good", TestRegister.ModelJson);
+                command.Parameters.AddWithValue("$bad", TestRegister.ModelJson.Replace("serviceLife_years", "serviceLife_year", StringComparison.Ordinal));
+                command.ExecuteNonQuery();
+            }
+
+            using var store = RegisterStore.Open(path, RegisterOpenMode.OpenExisting);
+            using (var connection = new SqliteConnection($"Data Source={path};Pooling=False"))
+            {
+                connection.Open();
+                using var command = connection.CreateCommand();
+                command.CommandText = "SELECT c.code, m.passes FROM model_check m JOIN component_model_revision r USING (model_revision_id) JOIN component c USING (component_id) ORDER BY c.code";
+                using var reader = command.ExecuteReader();
+                var rows = new List<(string, long)>();
+                while (reader.Read()) rows.Add((reader.GetString(0), reader.GetInt64(1)));
+                Assert.Equal([("BAD", 0L), ("GOOD", 1L)], rows);
+            }
+
+            var check = store.Check();
+            Assert.True(check.IsHealthy, string.Join("; ", check.InvariantViolations));
+            var line = Assert.Single(check.InvalidModels);
+            Assert.Contains("component BAD", line, StringComparison.Ordinal);
+            Assert.Contains("serviceLife_year", line, StringComparison.Ordinal);
+            Assert.Contains("marked", line, StringComparison.Ordinal);
+        }
+        finally
+        {
+            TestRegister.Delete(path);
+        }
+    }
+}

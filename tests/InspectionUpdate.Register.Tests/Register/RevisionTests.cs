@@ -121,7 +121,7 @@ public class RevisionTests
         r.Clock.Advance(TimeSpan.FromDays(1));
         r.Store.ReviseFinding(f.FindingId, Sized(3.0), "engineer B", "re-read").Require();
         r.Store.AddFinding(Sized(1.0, "12 o'clock"), "inspector A", "report IR-2").Require();
-        r.Store.ReviseModel(TestRegister.Component, """{"kind":"corrosion","rate_mm_per_year":0.2}""", "corrosion-2", "engineer B", "new rate data").Require();
+        r.Store.ReviseModel(TestRegister.Component, TestRegister.ModelJson.Replace("\"mean\":0.1", "\"mean\":0.2", StringComparison.Ordinal), "corrosion-2", "engineer B", "new rate data").Require();
 
         Assert.Equal(fingerprint, r.Store.Fingerprint(asOf));
         Assert.NotEqual(fingerprint, r.Store.Fingerprint(r.Clock.UtcNow));
