@@ -59,6 +59,12 @@ public static class CliApp
                 b.SetDescription("Components and their degradation models.");
                 Add<ComponentAddCommand>(b, "component add").WithDescription("Add a component with its model file.")
                     .WithExample("component", "add", "WI-03", "--site", "NORTH-BAY", "--name", "\"Injection line spool 3\"", "--model", "wi-03.model.json", "--in-service", "2011-04-01", "-r", "plant.register");
+                Add<ComponentReviseCommand>(b, "component revise").WithDescription("Revise a component's model (a new revision; the old one stays readable).")
+                    .WithExample("component", "revise", "WI-03", "--model", "wi-03.model.json", "--reason", "\"new coating survey\"", "-r", "plant.register");
+                Add<ComponentRetireCommand>(b, "component retire").WithDescription("Retire a component: it leaves reports and runs, and stays readable as of earlier dates.")
+                    .WithExample("component", "retire", "WI-03", "--reason", "\"spool replaced\"", "-r", "plant.register");
+                Add<ComponentReinstateCommand>(b, "component reinstate").WithDescription("Reinstate a retired component.")
+                    .WithExample("component", "reinstate", "WI-03", "--reason", "\"retired in error\"", "-r", "plant.register");
                 Add<ComponentListCommand>(b, "component list").WithDescription("List the components.").WithExample("component", "list", "-r", "plant.register");
             });
             strict.Branch("method");
@@ -87,6 +93,11 @@ public static class CliApp
             config.AddBranch("repair", b =>
             {
                 b.SetDescription("Repairs (the component's degradation restarts).");
+                Add<RepairListCommand>(b, "repair list").WithDescription("List repairs.").WithExample("repair", "list", "WI-03", "--all-revisions", "-r", "plant.register");
+                Add<RepairCorrectCommand>(b, "repair correct").WithDescription("Correct a repair: records a new revision with who and why.")
+                    .WithExample("repair", "correct", "3", "--date", "2023-09-04", "--reason", "\"date from the work order\"", "-r", "plant.register");
+                Add<RepairWithdrawCommand>(b, "repair withdraw").WithDescription("Withdraw a repair logged in error (kept in the history).")
+                    .WithExample("repair", "withdraw", "3", "--reason", "\"logged on the wrong component\"", "-r", "plant.register");
                 Add<RepairLogCommand>(b, "repair log").WithDescription("Log a repair.")
                     .WithExample("repair", "log", "WI-03", "--date", "2023-09-02", "--description", "\"clamp and sleeve fitted\"", "--by", "a.engineer", "-r", "plant.register");
             });

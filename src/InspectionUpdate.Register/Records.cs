@@ -261,3 +261,11 @@ public sealed record RegisterCheckResult(int SchemaVersion, IReadOnlyList<string
     /// <summary>True when every check passed.</summary>
     public bool IsHealthy => IntegrityCheck is ["ok"] && ForeignKeyViolations.Count == 0 && InvariantViolations.Count == 0;
 }
+
+/// <summary>A component retired or reinstated, with who, when and why.</summary>
+/// <param name="StatusId">Row id.</param>
+/// <param name="ComponentId">Component id.</param>
+/// <param name="ComponentCode">Component code.</param>
+/// <param name="Status">"retired" or "in-service".</param>
+/// <param name="Recorded">Who, when (UTC) and why.</param>
+public sealed record ComponentStatusChange(long StatusId, long ComponentId, string ComponentCode, string Status, Provenance Recorded);

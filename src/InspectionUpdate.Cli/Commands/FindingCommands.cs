@@ -339,4 +339,11 @@ public sealed class RepairLogCommand(CliHost host) : CliCommand<RepairLogSetting
 }
 
 /// <summary>A repair in --json output.</summary>
-public sealed record RepairRow(long RepairId, int Revision, string Component, DateOnly RepairDate, string Description, string PostRepairPriorJson, DateTimeOffset RecordedUtc, string RecordedBy);
+public sealed record RepairRow(long RepairId, int Revision, string Component, DateOnly RepairDate, string Description, string PostRepairPriorJson, DateTimeOffset RecordedUtc, string RecordedBy)
+{
+    /// <summary>Whether this revision withdraws the repair.</summary>
+    public bool Withdrawn { get; init; }
+
+    /// <summary>Why this revision was recorded.</summary>
+    public string Reason { get; init; } = string.Empty;
+}

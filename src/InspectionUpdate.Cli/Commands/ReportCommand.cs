@@ -73,7 +73,8 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
     {
         using var store = RegisterAccess.Open(host, registerPath, RegisterOpenMode.OpenExistingToRead);
         var known = RegisterAccess.AsKnownOn(options.AsOf);
-        var components = only is null ? store.Components(known) : [RegisterAccess.Component(store, only, options.AsOf)];
+        // Retired components leave reports (as known on the date); naming one still reports it.
+        var components = only is null ? store.ComponentsInService(known) : [RegisterAccess.Component(store, only, options.AsOf)];
         var fingerprint = store.Fingerprint(known);
         var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(store, c, options.AsOf))).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));

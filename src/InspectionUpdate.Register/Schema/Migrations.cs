@@ -18,11 +18,11 @@ internal static class Migrations
     public static IReadOnlyList<string> AppendOnlyTables { get; } =
     [
         "site", "component", "component_model_revision", "inspection_method", "finding", "finding_revision",
-        "repair", "repair_revision", "audit_log", "import_batch", "model_check",
+        "repair", "repair_revision", "audit_log", "import_batch", "model_check", "component_status",
     ];
 
     /// <summary>Tables added after version 1 (their append-only triggers come with their own migration).</summary>
-    private static readonly string[] LaterTables = ["import_batch", "model_check"];
+    private static readonly string[] LaterTables = ["import_batch", "model_check", "component_status"];
 
     /// <summary>
     /// The migration that adds <c>model_check</c>; after its SQL, every stored model revision is checked in C# in the
@@ -220,6 +220,7 @@ internal static class Migrations
         {AppendOnly("import_batch")}
         """;
 
+    // Version 3 (two parts, one migration). Component status: retire and reinstate, with who, when and why.
     // Model checks: the register refuses a model that an assessment would refuse (since this version). Models stored
     // before are checked once when the file is migrated; those that do not pass are marked, listed by 'register check',
     // and stay readable: a new revision ('component revise') replaces them. One row per model revision, never updated.
@@ -234,6 +235,17 @@ internal static class Migrations
         ) STRICT;
 
         {AppendOnly("model_check")}
+
+        CREATE TABLE component_status (
+          status_id INTEGER PRIMARY KEY,
+          component_id INTEGER NOT NULL REFERENCES component (component_id),
+          status TEXT NOT NULL CHECK (status IN ('retired', 'in-service')),
+        {Recorded(true)}
+        ) STRICT;
+        CREATE INDEX component_status_by_component ON component_status (component_id, recorded_utc);
+
+        {Audit("component_status", "component", "component_id", "CASE WHEN NEW.status = 'retired' THEN 'withdraw' ELSE 'revise' END", "json_object('status', NEW.status, 'reason', NEW.reason)")}
+        {AppendOnly("component_status")}
         """;
 
     /// <summary>Checks every model revision that has no check row yet (within the migration's transaction).</summary>

@@ -161,3 +161,36 @@ public class RevisionTests
         Assert.Equal(2, r.Store.GetFinding(f.FindingId, f.Recorded.RecordedUtc)!.Revision);
     }
 }
+
+public class ComponentStatusTests
+{
+    [Fact]
+    [Reference("Design rule: a retired component leaves runs from its retirement on and stays readable as known on earlier dates")]
+    public void A_retired_component_is_in_service_as_known_before_and_retired_after()
+    {
+        using var r = new TestRegister();
+        var before = r.Clock.UtcNow;
+        r.Clock.Advance(TimeSpan.FromDays(1));
+        r.Store.SetRetired(TestRegister.Component, retired: true, "engineer B", "spool replaced").Require();
+        Assert.Contains(r.Store.ComponentsInService(before), c => c.Code == TestRegister.Component);
+        Assert.DoesNotContain(r.Store.ComponentsInService(r.Clock.UtcNow), c => c.Code == TestRegister.Component);
+        Assert.NotNull(r.Store.FindComponent(TestRegister.Component));
+        r.Clock.Advance(TimeSpan.FromDays(1));
+        r.Store.SetRetired(TestRegister.Component, retired: false, "engineer B", "retired in error").Require();
+        Assert.Contains(r.Store.ComponentsInService(), c => c.Code == TestRegister.Component);
+        var history = r.Store.StatusHistory(r.ComponentId);
+        Assert.Equal(["retired", "in-service"], history.Select(h => h.Status));
+        Assert.Equal(["spool replaced", "retired in error"], history.Select(h => h.Recorded.Reason));
+        Assert.Throws<SqliteException>(() => Exec(r.Path, "DELETE FROM component_status"));
+        Assert.True(r.Store.Check().IsHealthy);
+    }
+
+    private static void Exec(string path, string sql)
+    {
+        using var connection = new SqliteConnection($"Data Source={path};Pooling=False");
+        connection.Open();
+        using var command = connection.CreateCommand();
+        command.CommandText = sql;
+        command.ExecuteNonQuery();
+    }
+}
