@@ -832,9 +832,10 @@ public sealed class ComponentModelDefinition
         }
 
         private void Add(string path, JsonElement value, string message) =>
-            problems.Add(new DefinitionProblem(path, Render(value), message));
+            problems.Add(new DefinitionProblem(path, Render(value), ComponentModelDefinition.WithoutParameterSuffix(message)));
 
-        private void Add(string path, string? value, string message) => problems.Add(new DefinitionProblem(path, value, message));
+        private void Add(string path, string? value, string message) =>
+            problems.Add(new DefinitionProblem(path, value, ComponentModelDefinition.WithoutParameterSuffix(message)));
 
         private static string WithoutParameterSuffix(ArgumentException e)
         {
