@@ -27,7 +27,7 @@ public sealed class ComponentAddSettings : RegisterSettings
 
     /// <summary>Model file.</summary>
     [CommandOption("--model <FILE>")]
-    [Description("Component model file (JSON, see docs/formats.md).")]
+    [Description("Component model file (JSON, see docs/models.md §5); checked as assess checks it.")]
     public string? Model { get; init; }
 
     /// <summary>Model version.</summary>

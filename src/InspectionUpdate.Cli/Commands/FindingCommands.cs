@@ -119,7 +119,7 @@ public sealed class FindingImportSettings : RegisterSettings
 {
     /// <summary>CSV file.</summary>
     [CommandArgument(0, "<CSV>")]
-    [Description("Findings file (CSV, see docs/formats.md).")]
+    [Description("Findings file (CSV, UTF-8, see docs/register.md, \"CSV import of findings\").")]
     public string File { get; init; } = string.Empty;
 
     /// <summary>Who imports.</summary>
@@ -302,7 +302,7 @@ public sealed class RepairLogSettings : RegisterSettings
 
     /// <summary>Post-repair prior.</summary>
     [CommandOption("--post-repair-prior <FILE>")]
-    [Description("JSON file with the distributions of the inputs the repair renews (docs/formats.md); default: the renewed inputs restart with their original prior.")]
+    [Description("JSON file with the distributions of the inputs the repair renews (docs/register.md, section Post-repair prior); default: the renewed inputs restart with their original prior.")]
     public string? PostRepairPrior { get; init; }
 
     /// <summary>Who.</summary>

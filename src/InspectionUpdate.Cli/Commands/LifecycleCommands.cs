@@ -178,7 +178,7 @@ public sealed class RepairCorrectSettings : ChangeSettings
 
     /// <summary>New post-repair prior.</summary>
     [CommandOption("--post-repair-prior <FILE>")]
-    [Description("Corrected post-repair prior (JSON file, docs/formats.md).")]
+    [Description("Corrected post-repair prior (JSON file, docs/register.md, section Post-repair prior).")]
     public string? PostRepairPrior { get; init; }
 }
 

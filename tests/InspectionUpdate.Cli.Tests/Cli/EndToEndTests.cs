@@ -162,7 +162,7 @@ public sealed class EndToEndTests
         Assert.Equal(0, doc.GetProperty("failed").GetInt32());
         Assert.True(doc.GetProperty("passed").GetInt32() >= 6);
         Assert.Contains("| case | source |", File.ReadAllText(cli.PathOf("v.md")), StringComparison.Ordinal);
-        // The main job is verified too: updating by both routes and the planner on the REFERENCES.md worked case.
+        // The main job is verified too: updating by both routes and the planner on the docs/references.md worked case.
         var methods = doc.GetProperty("rows").EnumerateArray().Select(r => r.GetProperty("method").GetString()).ToHashSet();
         Assert.Contains("first-order updating", methods);
         Assert.Contains("importance-sampling updating", methods);
