@@ -28,6 +28,11 @@ public sealed class ReportSettings : RegisterSettings
     [Description(AssessSettings.AsOfHelp)]
     public string? AsOf { get; init; }
 
+    /// <summary>Register date.</summary>
+    [CommandOption("--known-on <DATE>")]
+    [Description(AssessSettings.KnownOnHelp)]
+    public string? KnownOn { get; init; }
+
     /// <summary>Target.</summary>
     [CommandOption("--target-annual-pf <P>")]
     [Description("Target annual failure probability for plans and ranking.")]
@@ -56,11 +61,13 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         var asOf = settings.AsOf is null ? Host.Today() : RegisterAccess.Date("--as-of", settings.AsOf);
         var registerPath = settings.RegisterPath(Host);
         var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null);
-        var result = Produce(Host, registerPath, settings.Component, Host.Resolve(settings.Out), options, settings.Json, Path.GetFileNameWithoutExtension(registerPath));
+        var knownOn = settings.KnownOn is null ? Host.Today() : RegisterAccess.Date("--known-on", settings.KnownOn);
+        var result = Produce(Host, registerPath, settings.Component, Host.Resolve(settings.Out), options, settings.Json, Path.GetFileNameWithoutExtension(registerPath), knownOn);
         if (settings.Json) WriteJson(result.Document);
         else
         {
             Summary(result.Document);
+            Line($"Evidence up to {result.Document.AsOf:yyyy-MM-dd}; register as known on {result.Document.KnownOn:yyyy-MM-dd}; fingerprint {result.Document.Fingerprint[..12]}….");
             Line($"Report: {result.Document.PortfolioReport}");
             Caution();
         }
@@ -69,19 +76,21 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
     }
 
     /// <summary>Runs the report over a register; shared with demo.</summary>
-    internal static (ReportDocument Document, int ExitCode) Produce(CliHost host, string registerPath, string? only, string folder, ReportRunOptions options, bool quiet, string title)
+    internal static (ReportDocument Document, int ExitCode) Produce(CliHost host, string registerPath, string? only, string folder, ReportRunOptions options, bool quiet, string title, DateOnly? knownOn = null)
     {
+        // Evidence up to options.AsOf; the register as recorded on knownOn (the demo passes none: the same date).
+        var registerDate = knownOn ?? options.AsOf;
         using var store = RegisterAccess.Open(host, registerPath, RegisterOpenMode.OpenExistingToRead);
-        var known = RegisterAccess.AsKnownOn(options.AsOf);
+        var known = RegisterAccess.AsKnownOn(registerDate);
         // Retired components leave reports (as known on the date); naming one still reports it.
-        var components = only is null ? store.ComponentsInService(known) : [RegisterAccess.Component(store, only, options.AsOf)];
+        var components = only is null ? store.ComponentsInService(known) : [RegisterAccess.Component(store, only, registerDate)];
         var fingerprint = store.Fingerprint(known);
-        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(store, c, options.AsOf))).ToArray();
+        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(store, c, options.AsOf, registerDate))).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
         var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, []);
         var rows = runs.Select(r => Row(r, folder)).ToArray();
         var code = runs.Any(r => r.Error is not null) ? ExitCodes.BadInput : runs.All(r => r.AllConverged) ? ExitCodes.Ok : ExitCodes.NotConverged;
-        return (new ReportDocument(folder, index, fingerprint, options.AsOf, options.Target.AnnualPf, rows, Reporting.Cautions.Line), code);
+        return (new ReportDocument(folder, index, fingerprint, options.AsOf, options.Target.AnnualPf, rows, Reporting.Cautions.Line) { KnownOn = registerDate }, code);
     }
 
     /// <summary>One component's row: the annual Pf is the ΔPf of the grid year ending at the first grid time at or after the as-of date.</summary>
@@ -137,4 +146,8 @@ public sealed record ReportRow(string ComponentId, double? AnnualPfNow, DateOnly
 }
 
 /// <summary>--json of <c>report</c>.</summary>
-public sealed record ReportDocument(string OutputFolder, string PortfolioReport, string Fingerprint, DateOnly AsOf, double TargetAnnualPf, IReadOnlyList<ReportRow> Components, string Caution);
+public sealed record ReportDocument(string OutputFolder, string PortfolioReport, string Fingerprint, DateOnly AsOf, double TargetAnnualPf, IReadOnlyList<ReportRow> Components, string Caution)
+{
+    /// <summary>The date the register was read as recorded on (--known-on).</summary>
+    public DateOnly KnownOn { get; init; }
+}

@@ -29,10 +29,13 @@ internal static class ComponentContexts
         return (parsed.Definition!.Build(), parsed.Definition!);
     }
 
-    /// <summary>One component of the register as known on <paramref name="asOf"/>.</summary>
-    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf)
+    /// <summary>
+    /// One component of the register as recorded on <paramref name="knownOn"/> (default: <paramref name="asOf"/>),
+    /// with evidence up to <paramref name="asOf"/> (the evidence cut is made by the request).
+    /// </summary>
+    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf, DateOnly? knownOn = null)
     {
-        var known = RegisterAccess.AsKnownOn(asOf);
+        var known = RegisterAccess.AsKnownOn(knownOn ?? asOf);
         var (model, definition) = BuildModel(component.Model.DefinitionJson, "component " + component.Code);
         var site = store.Sites(known).FirstOrDefault(s => s.Id == component.SiteId);
         var findings = store.Findings(component.Id, known, includeWithdrawn: true)

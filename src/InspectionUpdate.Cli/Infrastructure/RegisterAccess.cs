@@ -54,7 +54,7 @@ internal static class RegisterAccess
         store.FindComponent(code) ?? throw CliException.BadInput("component", code, "is not in the register.");
 
     /// <summary>
-    /// A component by code as known on <paramref name="asOf"/> (the --as-of date). A component recorded after that
+    /// A component by code as known on <paramref name="asOf"/> (the --known-on date). A component recorded after that
     /// date is bad input naming the component, the as-of date and the recording date; an unknown code names the code.
     /// </summary>
     public static Component Component(RegisterStore store, string code, DateOnly asOf)
@@ -65,8 +65,8 @@ internal static class RegisterAccess
         var recorded = DateOnly.FromDateTime(later.Recorded.RecordedUtc.UtcDateTime);
         var asOfText = asOf.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
         var recordedText = recorded.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
-        throw CliException.BadInput("--as-of", asOfText,
-            $"is before component '{code}' was recorded in the register on {recordedText}: the register as known on {asOfText} does not hold it. Give --as-of {recordedText} or later.");
+        throw CliException.BadInput("--known-on", asOfText,
+            $"is before component '{code}' was recorded in the register on {recordedText}: the register as known on {asOfText} does not hold it. Give --known-on {recordedText} or later.");
     }
 
     /// <summary>Parses an ISO 8601 date option, or bad input naming the option.</summary>
