@@ -8,8 +8,7 @@ namespace InspectionUpdate.Cli;
 public static class CliApp
 {
     /// <summary>The tool version shown in reports and --version.</summary>
-    public static string Version { get; } =
-        typeof(CliApp).Assembly.GetName().Version is { } v ? $"{v.Major}.{v.Minor}.{v.Build}" : "0.0.0";
+    public static string Version => Application.ToolInfo.Version;
 
     /// <summary>Runs the command line on <paramref name="host"/> and returns the exit code.</summary>
     public static int Run(string[] args, CliHost host)
@@ -39,11 +38,18 @@ public static class CliApp
             strict.Branch("register");
             config.AddBranch("register", b =>
             {
-                b.SetDescription("Create and check a register (the SQLite file of sites, components, methods, findings, repairs).");
+                b.SetDescription("Create, check and assess a register (the SQLite file of sites, components, methods, findings, repairs and stored results).");
                 Add<RegisterCreateCommand>(b, "register create").WithDescription("Create an empty register file.")
                     .WithExample("register", "create", "plant.register");
                 Add<RegisterCheckCommand>(b, "register check").WithDescription("Check the register's integrity and print its fingerprint.")
                     .WithExample("register", "check", "-r", "plant.register");
+                Add<RegisterAssessCommand>(b, "register assess").WithDescription("Assess and plan every component in service as of a date; store each result under its key (reruns recompute only what changed).")
+                    .WithExample("register", "assess", "--as-of", "2025-06-30", "-r", "plant.register")
+                    .WithExample("register", "assess", "--shard", "0/4", "-r", "plant.register");
+                Add<RegisterMergeCommand>(b, "register merge").WithDescription("Fold shard results files into the register, refusing results whose keys no longer match.")
+                    .WithExample("register", "merge", "plant.register.shard-0-of-4.results", "plant.register.shard-1-of-4.results", "-r", "plant.register");
+                Add<RegisterInventCommand>(b, "register invent").WithDescription("Create a register of invented components (benchmarks and trials).")
+                    .WithExample("register", "invent", "trial.register", "--components", "1000");
             });
             strict.Branch("site");
             config.AddBranch("site", b =>
@@ -109,8 +115,8 @@ public static class CliApp
                 .WithExample("plan", "--model", "wi-03.model.json", "--target-annual-pf", "1e-4");
             Top<ReportCommand>(config, "report").WithDescription("Write HTML reports (one per component and one for the register) with CSV and JSON exports.")
                 .WithExample("report", "--out", "reports", "-r", "plant.register");
-            Top<VerifyCommand>(config, "verify").WithDescription("Run the verification cases on this installation.")
-                .WithExample("verify").WithExample("verify", "--write-doc", "docs/verification.md");
+            Top<VerifyCommand>(config, "verify").WithDescription("Run the verification cases and the benchmark-collection problems on this installation.")
+                .WithExample("verify").WithExample("verify", "--benchmarks", "quick").WithExample("verify", "--write-doc", "docs/verification.md");
             Top<DemoCommand>(config, "demo").WithDescription("Build a demo register from sample-data, assess, plan and report.")
                 .WithExample("demo").WithExample("demo", "--out", "demo-output");
         });

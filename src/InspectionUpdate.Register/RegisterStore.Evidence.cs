@@ -82,15 +82,44 @@ public sealed partial class RegisterStore
     /// model revisions, methods, every finding and repair revision recorded by then (the audit trail is not included).
     /// Equal fingerprints mean an assessment run as of that instant sees the same data; print it in reports.
     /// </summary>
-    public string Fingerprint(DateTimeOffset asOf) => Read((c, t) =>
+    public string Fingerprint(DateTimeOffset asOf) => Read((c, t) => Hash(c, t, "inspection-update register schema " + SchemaVersion.ToString(CultureInfo.InvariantCulture),
+    [
+        ("site", "SELECT site_id, code, name, recorded_utc, recorded_by FROM site WHERE recorded_utc <= $asOf ORDER BY site_id"),
+        ("component", "SELECT component_id, site_id, code, description, install_date, wall_thickness_mm, parameter_group, recorded_utc, recorded_by FROM component WHERE recorded_utc <= $asOf ORDER BY component_id"),
+        ("component_model_revision", "SELECT model_revision_id, component_id, revision, supersedes_revision_id, definition_json, model_version, recorded_utc, recorded_by, reason FROM component_model_revision WHERE recorded_utc <= $asOf ORDER BY model_revision_id"),
+        ("inspection_method", $"SELECT {MethodColumns} FROM inspection_method WHERE recorded_utc <= $asOf ORDER BY method_id"),
+        ("finding_revision", "SELECT fr.finding_revision_id, fr.finding_id, f.component_id, fr.revision, fr.supersedes_revision_id, fr.inspection_date, fr.kind, fr.method_id, fr.measured_size_mm, fr.remaining_wall_mm, fr.location, fr.note, fr.withdrawn, fr.recorded_utc, fr.recorded_by, fr.reason FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE fr.recorded_utc <= $asOf ORDER BY fr.finding_revision_id"),
+        ("repair_revision", "SELECT rr.repair_revision_id, rr.repair_id, r.component_id, rr.revision, rr.supersedes_revision_id, rr.repair_date, rr.description, rr.post_repair_prior_json, rr.withdrawn, rr.recorded_utc, rr.recorded_by, rr.reason FROM repair_revision rr JOIN repair r ON r.repair_id = rr.repair_id WHERE rr.recorded_utc <= $asOf ORDER BY rr.repair_revision_id"),
+    ], ("$asOf", Sql.Utc(asOf))));
+
+    /// <summary>
+    /// SHA-256 (hex) of what one component's numbers rest on, as known on <paramref name="asOf"/>: the component row,
+    /// its model revisions, every revision of its findings and repairs recorded by then, the methods those findings
+    /// name, and its shared-parameter group's name. It reads only this component's rows (and the methods it uses), so
+    /// it costs the same whatever the register size; it changes when anything that can change this component's
+    /// numbers changes (and also on edits that cannot, such as a finding's note: a recomputation, never a stale result).
+    /// </summary>
+    /// <remarks>
+    /// The assessment today treats each component on its own; shared parameters are not pooled across a group. When
+    /// they are, the fingerprints of the group's other members must enter this hash.
+    /// </remarks>
+    public string ComponentFingerprint(long componentId, DateTimeOffset asOf) => Read((c, t) => Hash(c, t, "inspection-update component schema " + SchemaVersion.ToString(CultureInfo.InvariantCulture),
+    [
+        ("component", "SELECT component_id, site_id, code, install_date, wall_thickness_mm, parameter_group FROM component WHERE component_id = $id AND recorded_utc <= $asOf"),
+        ("component_model_revision", "SELECT model_revision_id, revision, definition_json, model_version FROM component_model_revision WHERE component_id = $id AND recorded_utc <= $asOf ORDER BY revision"),
+        ("finding_revision", "SELECT fr.finding_revision_id, fr.finding_id, fr.revision, fr.inspection_date, fr.kind, fr.method_id, fr.measured_size_mm, fr.remaining_wall_mm, fr.location, fr.note, fr.withdrawn, fr.recorded_utc FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE f.component_id = $id AND fr.recorded_utc <= $asOf ORDER BY fr.finding_revision_id"),
+        ("repair_revision", "SELECT rr.repair_revision_id, rr.repair_id, rr.revision, rr.repair_date, rr.post_repair_prior_json, rr.withdrawn, rr.recorded_utc FROM repair_revision rr JOIN repair r ON r.repair_id = rr.repair_id WHERE r.component_id = $id AND rr.recorded_utc <= $asOf ORDER BY rr.repair_revision_id"),
+        ("inspection_method", $"SELECT {MethodColumns} FROM inspection_method WHERE method_id IN (SELECT fr.method_id FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE f.component_id = $id AND fr.recorded_utc <= $asOf) ORDER BY method_id"),
+    ], ("$id", componentId), ("$asOf", Sql.Utc(asOf))));
+
+    private static string Hash(SqliteConnection c, SqliteTransaction t, string header, IReadOnlyList<(string Name, string Sql)> tables, params (string Name, object? Value)[] parameters)
     {
-        var at = ("$asOf", (object?)Sql.Utc(asOf));
         var text = new StringBuilder();
-        text.Append("inspection-update register schema ").Append(SchemaVersion.ToString(CultureInfo.InvariantCulture)).Append('\n');
-        void Table(string name, string sql)
+        text.Append(header).Append('\n');
+        foreach (var (name, sql) in tables)
         {
             text.Append("# ").Append(name).Append('\n');
-            using var command = Sql.Command(c, t, sql, at);
+            using var command = Sql.Command(c, t, sql, parameters);
             using var reader = command.ExecuteReader();
             while (reader.Read())
             {
@@ -108,14 +137,8 @@ public sealed partial class RegisterStore
             }
         }
 
-        Table("site", "SELECT site_id, code, name, recorded_utc, recorded_by FROM site WHERE recorded_utc <= $asOf ORDER BY site_id");
-        Table("component", "SELECT component_id, site_id, code, description, install_date, wall_thickness_mm, parameter_group, recorded_utc, recorded_by FROM component WHERE recorded_utc <= $asOf ORDER BY component_id");
-        Table("component_model_revision", "SELECT model_revision_id, component_id, revision, supersedes_revision_id, definition_json, model_version, recorded_utc, recorded_by, reason FROM component_model_revision WHERE recorded_utc <= $asOf ORDER BY model_revision_id");
-        Table("inspection_method", $"SELECT {MethodColumns} FROM inspection_method WHERE recorded_utc <= $asOf ORDER BY method_id");
-        Table("finding_revision", "SELECT fr.finding_revision_id, fr.finding_id, f.component_id, fr.revision, fr.supersedes_revision_id, fr.inspection_date, fr.kind, fr.method_id, fr.measured_size_mm, fr.remaining_wall_mm, fr.location, fr.note, fr.withdrawn, fr.recorded_utc, fr.recorded_by, fr.reason FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE fr.recorded_utc <= $asOf ORDER BY fr.finding_revision_id");
-        Table("repair_revision", "SELECT rr.repair_revision_id, rr.repair_id, r.component_id, rr.revision, rr.supersedes_revision_id, rr.repair_date, rr.description, rr.post_repair_prior_json, rr.withdrawn, rr.recorded_utc, rr.recorded_by, rr.reason FROM repair_revision rr JOIN repair r ON r.repair_id = rr.repair_id WHERE rr.recorded_utc <= $asOf ORDER BY rr.repair_revision_id");
         return Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(text.ToString())));
-    });
+    }
 
     private static string Canonical(object value) => value switch
     {

@@ -1,5 +1,5 @@
 using System.Globalization;
-using InspectionUpdate.Cli.Engine;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Register;
@@ -24,7 +24,7 @@ internal static class Study
             if (findings is not null && !File.Exists(findings)) throw CliException.BadInput("--findings", findings, "does not exist.");
             var inService = s.InService is null ? (findings is null ? asOf : throw new CliException("--in-service is missing: findings are dated, so the date of entry into service is needed."))
                 : RegisterAccess.Date("--in-service", s.InService);
-            return ComponentContexts.FromFiles(host, modelPath, findings, inService, asOf);
+            return ComponentContexts.FromFiles(modelPath, findings, inService, asOf);
         }
 
         using var store = RegisterAccess.Open(host, s.RegisterPath(host), RegisterOpenMode.OpenExistingToRead);
@@ -60,7 +60,7 @@ public sealed class AssessCommand(CliHost host) : CliCommand<AssessSettings>(hos
     {
         var asOf = settings.AsOfDate(Host);
         var context = Study.Context(Host, settings, asOf);
-        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route));
+        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route)) with { Sampling = settings.Sampling() };
         var outcome = ProgressRunner.Run(Host, settings.Json, $"Assessing {context.Id}", p => ComponentAssessment.Assess(request, p));
         var doc = ComponentStudy.AssessJson(context, request, outcome);
         if (settings.Json)
@@ -111,7 +111,7 @@ public sealed class PlanCommand(CliHost host) : CliCommand<PlanSettings>(host)
         var method = settings.Method is null ? context.DefaultPlanMethod
             : context.Methods.FirstOrDefault(m => m.Name == settings.Method) ?? throw CliException.BadInput("--method", settings.Method, "is not a known method.");
         if (method is null && !settings.NoSchedule) throw new CliException("No inspection method is known for the schedule: give --method, add a method, or use --no-schedule.");
-        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route));
+        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route)) with { Sampling = settings.Sampling() };
         var plan = ProgressRunner.Run(Host, settings.Json, $"Planning {context.Id}", p => ComponentAssessment.Plan(request, target, settings.NoSchedule ? null : method, p));
         var doc = ComponentStudy.PlanJson(context, request, plan);
         if (settings.Json)

@@ -1,6 +1,7 @@
 using System.ComponentModel;
 using System.Globalization;
 using System.Text.Json;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Register;
 using Spectre.Console.Cli;
@@ -74,33 +75,6 @@ public sealed class ComponentAddCommand(CliHost host) : CliCommand<ComponentAddS
         else Line($"Added component {component.Code} ({component.Description}), model version {component.Model.ModelVersion}, in service {component.InstallDate:yyyy-MM-dd}.");
         return ExitCodes.Ok;
     }
-}
-
-/// <summary>Reads model files.</summary>
-internal static class ModelFiles
-{
-    /// <summary>The file's text, checked to be JSON.</summary>
-    public static string Read(string path)
-    {
-        if (!File.Exists(path)) throw CliException.BadInput("--model", path, "does not exist.");
-        var text = File.ReadAllText(path);
-        try
-        {
-            using var _ = JsonDocument.Parse(text);
-        }
-        catch (JsonException e)
-        {
-            throw CliException.BadInput("--model", path, "is not valid JSON: " + e.Message);
-        }
-
-        return text;
-    }
-
-    /// <summary>
-    /// The model version recorded when none is given. The model file schema (docs/schema/component-model.schema.json)
-    /// has no version field: the version is the user's label of the definition, kept by the register.
-    /// </summary>
-    public const string DefaultVersion = "1";
 }
 
 /// <summary>A component in --json output.</summary>

@@ -1,8 +1,8 @@
 using System.ComponentModel;
 using System.Diagnostics;
 using System.Globalization;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Demo;
-using InspectionUpdate.Cli.Engine;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Register;

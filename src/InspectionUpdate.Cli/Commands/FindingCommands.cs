@@ -1,5 +1,6 @@
 using System.ComponentModel;
 using System.Globalization;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Register;
 using Spectre.Console.Cli;
@@ -95,15 +96,7 @@ internal static class FindingText
     };
 
     /// <summary>An outcome in words for reports.</summary>
-    public static string Words(FindingKind kind) => kind switch
-    {
-        FindingKind.NoIndication => "no indication",
-        FindingKind.IndicationNotSized => "indication, not sized",
-        FindingKind.SizedIndication => "sized indication",
-        FindingKind.WallThickness => "remaining-wall reading",
-        FindingKind.InService => "in service, not failed",
-        _ => kind.ToString(),
-    };
+    public static string Words(FindingKind kind) => FindingWords.Of(kind);
 }
 
 /// <summary>One revision of a finding in --json output.</summary>

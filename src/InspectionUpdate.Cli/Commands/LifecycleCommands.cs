@@ -1,5 +1,6 @@
 using System.ComponentModel;
 using System.Globalization;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Register;
 using Spectre.Console.Cli;

@@ -1,6 +1,6 @@
 using System.ComponentModel;
 using System.Globalization;
-using InspectionUpdate.Cli.Engine;
+using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Register;
@@ -10,7 +10,7 @@ using Spectre.Console.Cli;
 namespace InspectionUpdate.Cli.Commands;
 
 /// <summary>Settings of <c>report</c>.</summary>
-public sealed class ReportSettings : RegisterSettings
+public sealed class ReportSettings : SampledSettings
 {
     /// <summary>Only this component.</summary>
     [CommandArgument(0, "[COMPONENT]")]
@@ -46,7 +46,7 @@ public sealed class ReportSettings : RegisterSettings
 
     /// <summary>Updating route.</summary>
     [CommandOption("--route <ROUTE>")]
-    [Description("Updating route: auto, first-order or simulation.")]
+    [Description("Route: auto (sample set with first-order cross-check), first-order or simulation.")]
     [DefaultValue("auto")]
     public string Route { get; init; } = "auto";
 }
@@ -60,7 +60,7 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         if (!(settings.TargetAnnualPf > 0 && settings.TargetAnnualPf < 1)) throw CliException.BadInput("--target-annual-pf", settings.TargetAnnualPf, "must be a probability strictly between 0 and 1.");
         var asOf = settings.AsOf is null ? Host.Today() : RegisterAccess.Date("--as-of", settings.AsOf);
         var registerPath = settings.RegisterPath(Host);
-        var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null);
+        var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null) { Sampling = settings.Sampling() };
         var knownOn = settings.KnownOn is null ? Host.Today() : RegisterAccess.Date("--known-on", settings.KnownOn);
         var result = Produce(Host, registerPath, settings.Component, Host.Resolve(settings.Out), options, settings.Json, Path.GetFileNameWithoutExtension(registerPath), knownOn);
         if (settings.Json) WriteJson(result.Document);
@@ -81,11 +81,11 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         // Evidence up to options.AsOf; the register as recorded on knownOn (the demo passes none: the same date).
         var registerDate = knownOn ?? options.AsOf;
         using var store = RegisterAccess.Open(host, registerPath, RegisterOpenMode.OpenExistingToRead);
-        var known = RegisterAccess.AsKnownOn(registerDate);
+        var snapshot = new RegisterSnapshot(store, options.AsOf, registerDate);
         // Retired components leave reports (as known on the date); naming one still reports it.
-        var components = only is null ? store.ComponentsInService(known) : [RegisterAccess.Component(store, only, registerDate)];
-        var fingerprint = store.Fingerprint(known);
-        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(store, c, options.AsOf, registerDate))).ToArray();
+        var components = only is null ? store.ComponentsInService(snapshot.Known) : [RegisterAccess.Component(store, only, registerDate)];
+        var fingerprint = snapshot.Fingerprint;
+        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(snapshot, c))).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
         var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, []);
         var rows = runs.Select(r => Row(r, folder)).ToArray();

@@ -1,4 +1,5 @@
 using System.Text.Json;
+using InspectionUpdate.Application;
 using InspectionUpdate.Reporting.Export;
 using Spectre.Console;
 using Spectre.Console.Cli;
@@ -32,6 +33,10 @@ public abstract partial class CliCommand<TSettings> : Command<TSettings>
         catch (CliException e)
         {
             return Fail(settings, e.ExitCode, e.Message, e, e.Problems);
+        }
+        catch (ApplicationFailureException e)
+        {
+            return Fail(settings, ExitCodes.Of(e.Kind), e.Message, e, e.Problems);
         }
         catch (Register.RegisterFileException e)
         {

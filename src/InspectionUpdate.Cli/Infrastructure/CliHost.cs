@@ -1,3 +1,4 @@
+using InspectionUpdate.Application;
 using Spectre.Console;
 
 namespace InspectionUpdate.Cli.Infrastructure;
@@ -84,11 +85,4 @@ public sealed class CliHost
 
     /// <summary>An absolute path for a user-given one.</summary>
     public string Resolve(string path) => Path.GetFullPath(path, WorkingDirectory);
-}
-
-/// <summary>A clock that stands at noon UTC of one day (tests and the demo's scenario date).</summary>
-public sealed class FixedClock(DateOnly day) : TimeProvider
-{
-    /// <inheritdoc />
-    public override DateTimeOffset GetUtcNow() => new(day.ToDateTime(new TimeOnly(12, 0)), TimeSpan.Zero);
 }

@@ -1,3 +1,5 @@
+using InspectionUpdate.Application;
+
 namespace InspectionUpdate.Cli.Infrastructure;
 
 /// <summary>Process exit codes of inspection-update (documented in docs/cli.md; stable).</summary>
@@ -24,6 +26,16 @@ public static class ExitCodes
     /// <summary>verify: at least one verification case failed its tolerance.</summary>
     public const int VerificationFailed = 6;
 
+    /// <summary>The exit code of an application failure.</summary>
+    public static int Of(FailureKind kind) => kind switch
+    {
+        FailureKind.BadInput => BadInput,
+        FailureKind.Register => RegisterError,
+        FailureKind.NotConverged => NotConverged,
+        FailureKind.NotAvailable => NotAvailable,
+        _ => InternalError,
+    };
+
     /// <summary>Stable name of an exit code, used in JSON errors.</summary>
     public static string Name(int code) => code switch
     {
@@ -35,5 +47,4 @@ public static class ExitCodes
         VerificationFailed => "verification_failed",
         _ => "internal_error",
     };
-
 }

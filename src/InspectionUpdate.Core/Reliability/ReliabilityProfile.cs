@@ -37,7 +37,13 @@ public sealed record ProfilePoint
     /// <summary>ΔPf over the step ending at t: Pf(t) − Pf(t_prev). On a yearly grid this is the annual failure probability.</summary>
     public required double IntervalPf { get; init; }
 
-    /// <summary>Hazard over the step: ΔPf / (1 − Pf(t_prev)).</summary>
+    /// <summary>
+    /// Coefficient of variation of <see cref="IntervalPf"/> when it was estimated directly from one sample set (not as
+    /// the difference of two estimates); null otherwise.
+    /// </summary>
+    public double? IntervalCoefficientOfVariation { get; init; }
+
+    /// <summary>Hazard over the step: ΔPf / (1 − Pf(t_prev)); NaN (with a note) where Pf(t_prev) = 1 leaves it undefined.</summary>
     public required double Hazard { get; init; }
 
     /// <summary>Route that produced <see cref="CumulativePf"/>.</summary>
@@ -48,6 +54,9 @@ public sealed record ProfilePoint
 
     /// <summary>Coefficient of variation of a simulated Pf, null for first order.</summary>
     public double? CoefficientOfVariation { get; init; }
+
+    /// <summary>Set where <see cref="CumulativePf"/> is only bounded from above (with three standard errors); null otherwise.</summary>
+    public double? UpperBound { get; init; }
 
     /// <summary>Limit-state evaluations spent on this step.</summary>
     public int Evaluations { get; init; }

@@ -236,6 +236,22 @@ public sealed class EvidenceModel
         return layout.EpochAt(timeYears).Map[i];
     }
 
+    /// <summary>The degradation model of a component.</summary>
+    internal IDegradationModel ComponentModel(string componentId) => LayoutOf(componentId).Model;
+
+    /// <summary>Start (years) of a component's renewal period k (0 for the first).</summary>
+    internal double PeriodStartYears(string componentId, int period) => LayoutOf(componentId).Epochs[period].StartYears;
+
+    /// <summary>Index of the renewal period current at t (the period a finding dated exactly at a repair belongs to is the earlier one).</summary>
+    internal int PeriodAt(string componentId, double timeYears) => LayoutOf(componentId).EpochIndexAt(timeYears);
+
+    /// <summary>Copies the model inputs of renewal period k out of an input (or augmented) vector, in the model's own order.</summary>
+    internal void PeriodInputs(string componentId, int period, ReadOnlySpan<double> x, Span<double> local)
+    {
+        var map = LayoutOf(componentId).Epochs[period].Map;
+        for (var i = 0; i < map.Length; i++) local[i] = x[map[i]];
+    }
+
     private Layout LayoutOf(string componentId) =>
         componentId is not null && _layouts.TryGetValue(componentId, out var layout)
             ? layout

@@ -31,7 +31,7 @@ internal static class Migrations
     private static readonly string ModelCheckScript = ModelChecks();
 
     /// <summary>Migration scripts; index i takes the schema from version i to i + 1.</summary>
-    public static IReadOnlyList<string> Scripts { get; } = [Version1(), Version2(), ModelCheckScript];
+    public static IReadOnlyList<string> Scripts { get; } = [Version1(), Version2(), StoredResults(), ModelCheckScript];
 
     /// <summary>The schema version this code writes and reads.</summary>
     public static int Current => Scripts.Count;
@@ -220,7 +220,48 @@ internal static class Migrations
         {AppendOnly("import_batch")}
         """;
 
-    // Version 3 (two parts, one migration). Component status: retire and reinstate, with who, when and why.
+    // Version 3: stored results of whole-register runs (results, not evidence: a rerun replaces a row; findings never change).
+    // Self-contained so that it can be renumbered when migrations from other branches land first.
+    private static string StoredResults() => ResultTable(inRegister: true);
+
+    /// <summary>
+    /// The table of stored component results. In the register it refers to the component; in a shard results file
+    /// (<see cref="ShardResultsFile"/>) the same columns stand alone. One row per component, evidence date and options.
+    /// </summary>
+    public static string ResultTable(bool inRegister) =>
+        $"""
+        CREATE TABLE component_result (
+          component_id INTEGER NOT NULL{(inRegister ? " REFERENCES component (component_id)" : "")},
+          component_code TEXT NOT NULL {F(NonBlank, "component_code")},
+          site_code TEXT NOT NULL,
+          as_of TEXT NOT NULL {F(IsoDate, "as_of")},
+          options_key TEXT NOT NULL {F(NonBlank, "options_key")},
+          model_revision INTEGER NOT NULL CHECK (model_revision >= 1),
+          component_fingerprint TEXT NOT NULL CHECK (length(component_fingerprint) = 64),
+          tool_version TEXT NOT NULL {F(NonBlank, "tool_version")},
+          result_key TEXT NOT NULL CHECK (length(result_key) = 64),
+          status TEXT NOT NULL CHECK (status IN ('assessed', 'not-converged', 'failed')),
+          error TEXT,
+          annual_pf REAL,
+          annual_pf_year_ending TEXT CHECK (annual_pf_year_ending IS NULL OR date(annual_pf_year_ending) IS annual_pf_year_ending),
+          cumulative_pf REAL,
+          beta REAL,
+          route TEXT,
+          converged INTEGER NOT NULL CHECK (converged IN (0, 1)),
+          cov REAL,
+          next_due TEXT CHECK (next_due IS NULL OR date(next_due) IS next_due),
+          next_status TEXT,
+          years_to_target REAL,
+          target_reached INTEGER CHECK (target_reached IS NULL OR target_reached IN (0, 1)),
+          remaining_life_years REAL,
+          profiles_json TEXT CHECK (profiles_json IS NULL OR json_valid(profiles_json)),
+          computed_utc TEXT NOT NULL {F(Utc, "computed_utc")},
+          PRIMARY KEY (component_id, as_of, options_key),
+          CHECK ((status = 'failed') = (error IS NOT NULL))
+        ) STRICT;
+        """;
+
+    // Version 4 (two parts, one migration). Component status: retire and reinstate, with who, when and why.
     // Model checks: the register refuses a model that an assessment would refuse (since this version). Models stored
     // before are checked once when the file is migrated; those that do not pass are marked, listed by 'register check',
     // and stay readable: a new revision ('component revise') replaces them. One row per model revision, never updated.
@@ -292,7 +333,7 @@ internal static class Migrations
             {
                 command.Transaction = transaction;
                 // The script is a constant of this assembly and the version an integer: no user data is built into SQL.
-                // Every migrated file carries the register's application id (registers of schema 1 and 2 had none).
+                // Every migrated file carries the register's application id (registers of schema 1, 2 and 3 had none).
                 command.CommandText = Scripts[version] + string.Create(CultureInfo.InvariantCulture,
                     $"\nPRAGMA user_version = {version + 1};\nPRAGMA application_id = {RegisterIdentity.ApplicationId};");
                 command.ExecuteNonQuery();

@@ -12,7 +12,7 @@ namespace InspectionUpdate.Register.Schema;
 /// <remarks>
 /// The SQLite file header (sqlite.org/fileformat2.html §1.3): 16 bytes "SQLite format 3\0", the user version at
 /// offset 60 and the application id at offset 68, both 4-byte big-endian integers; bytes 18 and 19 are 2 in WAL mode.
-/// Registers written before the application id existed (schema 1 and 2, application id 0) are recognised by their
+/// Registers written before the application id existed (schema 1, 2 and 3, application id 0) are recognised by their
 /// tables, read through an immutable connection that neither locks nor creates side files.
 /// </remarks>
 internal static class RegisterIdentity

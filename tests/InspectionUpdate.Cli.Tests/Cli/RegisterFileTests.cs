@@ -19,6 +19,7 @@ public sealed class RegisterFileTests
     [InlineData("site", "add")]
     [InlineData("register", "check")]
     [InlineData("component", "list")]
+    [InlineData("register", "assess")]
     public void A_foreign_sqlite_file_is_refused_with_exit_4_and_left_as_it_was(string noun, string verb)
     {
         using var cli = new CliRunner();

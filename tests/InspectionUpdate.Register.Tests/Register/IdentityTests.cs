@@ -127,22 +127,27 @@ public sealed class IdentityTests
         Assert.Equal((long)RegisterApplicationId, Pragma(r.Path, "application_id"));
     }
 
-    [Fact]
-    [Reference("Design rule: registers written before the application id (schema 1) are recognised by their tables and migrated")]
-    public void A_register_written_before_the_application_id_is_opened_and_given_it()
+    [Theory]
+    [Reference("Design rule: registers written before the application id (schema 1, 2 and 3) are recognised by their tables and migrated")]
+    [InlineData(1)]
+    [InlineData(2)]
+    [InlineData(3)]
+    public void A_register_written_before_the_application_id_is_opened_and_given_it(int version)
     {
         var path = TestRegister.TempPath();
         try
         {
-            using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: 1))
+            using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: version))
             {
             }
 
             SqliteConnection.ClearAllPools();
             Execute(path, "PRAGMA application_id = 0");
             using var store = RegisterStore.Open(path, RegisterOpenMode.OpenExisting);
+            Assert.Equal(4, store.SchemaVersion);
             Assert.Equal(RegisterStore.CurrentSchemaVersion, store.SchemaVersion);
             Assert.Equal((long)RegisterApplicationId, Pragma(path, "application_id"));
+            Assert.True(store.Check().IsHealthy, string.Join("; ", store.Check().InvariantViolations));
         }
         finally
         {

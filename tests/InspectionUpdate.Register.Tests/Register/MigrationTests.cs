@@ -80,6 +80,44 @@ public class MigrationTests
     }
 
     [Fact]
+    [Reference("docs/register.md: version 3 adds component_result, version 4 adds component_status and model_check")]
+    public void Version_3_holds_stored_results_and_version_4_adds_the_model_checks_and_statuses()
+    {
+        var path = TestRegister.TempPath();
+        try
+        {
+            Assert.Equal(4, RegisterStore.CurrentSchemaVersion);
+            using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: 3))
+            {
+            }
+
+            string[] Tables()
+            {
+                using var connection = new SqliteConnection($"Data Source={path};Pooling=False");
+                connection.Open();
+                using var command = connection.CreateCommand();
+                command.CommandText = "SELECT name FROM sqlite_schema WHERE type = 'table' AND name IN ('component_result', 'model_check', 'component_status') ORDER BY name";
+                using var reader = command.ExecuteReader();
+                var names = new List<string>();
+                while (reader.Read()) names.Add(reader.GetString(0));
+                return names.ToArray();
+            }
+
+            Assert.Equal(["component_result"], Tables());
+            using (RegisterStore.Open(path, RegisterOpenMode.OpenExisting))
+            {
+            }
+
+            Assert.Equal(4L, Pragma(path, "user_version"));
+            Assert.Equal(["component_result", "component_status", "model_check"], Tables());
+        }
+        finally
+        {
+            TestRegister.Delete(path);
+        }
+    }
+
+    [Fact]
     [Reference("Design rule: a program never writes into a schema newer than it knows")]
     public void A_file_with_a_newer_schema_is_refused()
     {
@@ -141,14 +179,16 @@ public class MigrationTests
 
 public class ModelCheckMigrationTests
 {
-    [Fact]
-    [Reference("Design rule: a model stored before the register checked models is marked by the migration and listed by the check")]
-    public void Migrating_marks_stored_models_that_no_longer_pass_and_the_check_lists_them()
+    [Theory]
+    [Reference("Design rule: a model stored before the register checked models is marked by the migration (version 4) and listed by the check")]
+    [InlineData(2)]
+    [InlineData(3)]
+    public void Migrating_marks_stored_models_that_no_longer_pass_and_the_check_lists_them(int version)
     {
         var path = TestRegister.TempPath();
         try
         {
-            using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: 2))
+            using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: version))
             {
             }
 

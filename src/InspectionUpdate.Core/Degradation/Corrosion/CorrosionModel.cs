@@ -60,7 +60,7 @@ public sealed record CorrosionSettings
 /// External or internal wall-loss corrosion of a pipe: depth growth after an initiation time, and a leak or burst
 /// limit state. Inputs are looked up by name in the stochastic model (see <see cref="ExpectedInputs"/>).
 /// </summary>
-public sealed class CorrosionModel : IDegradationModel, IDegradationMarginGradient
+public sealed class CorrosionModel : IDegradationModel, IDegradationMarginGradient, IFailureTimeModel
 {
     /// <summary>Input name: wall thickness, mm.</summary>
     public const string WallThickness = "wallThickness_mm";
@@ -308,6 +308,43 @@ public sealed class CorrosionModel : IDegradationModel, IDegradationMarginGradie
         }
 
         return g;
+    }
+
+    /// <inheritdoc />
+    /// <remarks>
+    /// Leak: g = f·w − d(t) with d(t) = r·max(0, t − T₀) or k·max(0, t − T₀)ⁿ, so T_f = T₀ + f·w/r or
+    /// T₀ + (f·w/k)^(1/n) (never when the rate, k or n is ≤ 0; at once when f·w ≤ 0). Burst has no closed form (NaN).
+    /// </remarks>
+    public double FailureTimeYears(ReadOnlySpan<double> x)
+    {
+        if (Settings.FailureMode != CorrosionFailureMode.Leak) return double.NaN;
+        var allowed = Settings.LeakFraction * _wall.Read(x);
+        if (!(allowed > 0)) return 0;
+        var t0 = _t0.Read(x);
+        double exposure;
+        if (Settings.GrowthLaw == CorrosionGrowthLaw.Linear)
+        {
+            var r = _rate.Read(x);
+            if (!(r > 0)) return double.PositiveInfinity;
+            exposure = allowed / r;
+        }
+        else
+        {
+            var k = _k.Read(x);
+            var n = _n.Read(x);
+            if (!(k > 0) || !(n > 0)) return double.PositiveInfinity;
+            exposure = Math.Pow(allowed / k, 1 / n);
+        }
+
+        return Math.Max(0, t0 + exposure);
+    }
+
+    /// <inheritdoc />
+    /// <remarks>Depth and length never shrink when their rates are ≥ 0, and the capacity falls with both.</remarks>
+    public bool MarginNeverIncreases(ReadOnlySpan<double> x)
+    {
+        var depthGrows = Settings.GrowthLaw == CorrosionGrowthLaw.Linear ? _rate.Read(x) >= 0 : _k.Read(x) >= 0 && _n.Read(x) >= 0;
+        return depthGrows && (!Settings.LengthGrows || _lengthRate.Read(x) >= 0);
     }
 
     private CapacityWithGradient Capacity(ReadOnlySpan<double> x, double wall, double depth, double length) =>

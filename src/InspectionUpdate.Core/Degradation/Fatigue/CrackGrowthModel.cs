@@ -59,7 +59,7 @@ public sealed record CrackGrowthSettings
 /// <para>When a₀ ≥ a_c the margin is a large negative constant (failed at entry into service); when N_c is infinite
 /// (a crack below a constant-amplitude threshold) it is +709.</para>
 /// </remarks>
-public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGradient
+public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGradient, IFailureTimeModel
 {
     /// <summary>Input name: initial crack depth, mm.</summary>
     public const string InitialDepth = "initialDepth_mm";
@@ -296,6 +296,24 @@ public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGrad
 
         return lnNc;
     }
+
+    /// <inheritdoc />
+    /// <remarks>
+    /// g = ln N_c − ln max(ν t, 1) (see <see cref="Margin"/>): failure at t = N_c/ν once N_c exceeds one cycle, at
+    /// t = 0 when N_c ≤ 1 or the initial depth is already critical, never when growth stops below a threshold.
+    /// </remarks>
+    public double FailureTimeYears(ReadOnlySpan<double> x)
+    {
+        var p = Read(x);
+        var nc = _closedForm ? ClosedFormCycles(p) : QuadratureCycles(p, p.A0, p.Ac);
+        if (double.IsNaN(nc)) return double.NaN;
+        if (!(nc > 1)) return 0;
+        if (double.IsPositiveInfinity(nc) || !(p.Nu > 0)) return double.PositiveInfinity;
+        return nc / p.Nu;
+    }
+
+    /// <inheritdoc />
+    public bool MarginNeverIncreases(ReadOnlySpan<double> x) => Read(x).Nu >= 0;
 
     private static double MarginFromCycles(double nc, double cycles)
     {

@@ -52,7 +52,7 @@ internal sealed class LikelihoodImportanceSampler
     /// <summary>Weighted posterior samples of the inputs (physical values), with their weights.</summary>
     public sealed record EvidenceSamples(double[][] X, double[] Weights, SimulatedValue Evidence, double LogScale, double EffectiveSampleSize);
 
-    private sealed record Laplace(double[] Mean, double[,] Lower, double LogDet, bool Converged, string? Note, long Evaluations);
+    internal sealed record Laplace(double[] Mean, double[,] Lower, double LogDet, bool Converged, string? Note, long Evaluations);
 
     /// <summary>The evidence P(data) (a density for equalities) and the weighted posterior samples behind it.</summary>
     public EvidenceSamples Evidence()
@@ -412,7 +412,7 @@ internal sealed class LikelihoodImportanceSampler
         return Math.Sqrt(-2 * Math.Log(u1)) * Math.Cos(2 * Math.PI * u2);
     }
 
-    private Laplace FitLaplace()
+    internal Laplace FitLaplace()
     {
         if (_laplace is not null) return _laplace;
         var u = new double[_d];

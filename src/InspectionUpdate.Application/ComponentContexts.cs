@@ -1,18 +1,16 @@
 using System.Globalization;
 using System.Security.Cryptography;
 using System.Text;
-using InspectionUpdate.Cli.Commands;
-using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Degradation;
 using InspectionUpdate.Degradation.Definition;
 using InspectionUpdate.Register;
 using InspectionUpdate.Reporting;
 using InspectionUpdate.Time;
 
-namespace InspectionUpdate.Cli.Engine;
+namespace InspectionUpdate.Application;
 
 /// <summary>Builds <see cref="ComponentContext"/>s from the register or from files.</summary>
-internal static class ComponentContexts
+public static class ComponentContexts
 {
     /// <summary>Parses and builds a component model definition; every problem becomes a line of one bad-input error.</summary>
     public static (IDegradationModel Model, ComponentModelDefinition Definition) BuildModel(string json, string source)
@@ -22,8 +20,8 @@ internal static class ComponentContexts
         {
             var lines = parsed.Problems.Select(p => p.Value is null ? $"{p.Path}: {p.Message.TrimEnd('.')}." : $"{p.Path} '{p.Value}': {p.Message.TrimEnd('.')}.").ToArray();
             throw lines.Length == 1
-                ? new CliException(ExitCodes.BadInput, $"The model of {source} is not valid: {lines[0]}")
-                : new CliException(ExitCodes.BadInput, $"The model of {source} has {lines.Length.ToString(CultureInfo.InvariantCulture)} problems.", lines);
+                ? new ApplicationFailureException(FailureKind.BadInput, $"The model of {source} is not valid: {lines[0]}")
+                : new ApplicationFailureException(FailureKind.BadInput, $"The model of {source} has {lines.Length.ToString(CultureInfo.InvariantCulture)} problems.", lines);
         }
 
         return (parsed.Definition!.Build(), parsed.Definition!);
@@ -33,25 +31,42 @@ internal static class ComponentContexts
     /// One component of the register as recorded on <paramref name="knownOn"/> (default: <paramref name="asOf"/>),
     /// with evidence up to <paramref name="asOf"/> (the evidence cut is made by the request).
     /// </summary>
-    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf, DateOnly? knownOn = null)
+    /// <remarks>Hashes the whole register for the report's fingerprint: for many components use the overload that takes a <see cref="RegisterSnapshot"/>.</remarks>
+    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf, DateOnly? knownOn = null) =>
+        FromRegister(new RegisterSnapshot(store, asOf, knownOn), component);
+
+    /// <summary>
+    /// One component of the register as recorded on the snapshot's known-on date. The register fingerprint, the sites and the
+    /// methods are read once per snapshot; this reads only the component's own rows, so it costs the same whatever the
+    /// register size.
+    /// </summary>
+    /// <param name="snapshot">The register as known on the evidence date.</param>
+    /// <param name="component">The component, as known then.</param>
+    /// <param name="componentFingerprint">Its fingerprint when the caller has it already; computed when null.</param>
+    public static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component, string? componentFingerprint = null)
     {
-        var known = RegisterAccess.AsKnownOn(knownOn ?? asOf);
+        ArgumentNullException.ThrowIfNull(snapshot);
+        ArgumentNullException.ThrowIfNull(component);
+        var store = snapshot.Store;
+        var known = snapshot.Known;
         var (model, definition) = BuildModel(component.Model.DefinitionJson, "component " + component.Code);
-        var site = store.Sites(known).FirstOrDefault(s => s.Id == component.SiteId);
+        var site = snapshot.Sites.FirstOrDefault(s => s.Id == component.SiteId);
         var findings = store.Findings(component.Id, known, includeWithdrawn: true)
             .SelectMany(f => store.FindingHistory(f.FindingId).Where(r => r.Recorded.RecordedUtc <= known))
             .ToList();
         var latest = findings.GroupBy(f => f.FindingId).ToDictionary(g => g.Key, g => g.Max(r => r.Revision));
-        var methods = store.Methods(known);
+        var methods = snapshot.Methods;
         var used = findings.Select(f => f.MethodName).Where(n => n is not null).Distinct().ToHashSet();
         return new ComponentContext
         {
             Id = component.Code,
             Name = component.Description,
             Site = site is null ? "?" : $"{site.Code} ({site.Name})",
+            SiteCode = site?.Code ?? "?",
             InServiceDate = component.InstallDate,
             Model = model,
             ModelDescription = $"{definition.Name}, version {component.Model.ModelVersion} (revision {component.Model.Revision.ToString(CultureInfo.InvariantCulture)})",
+            ModelRevision = component.Model.Revision,
             InputSource = $"model version {component.Model.ModelVersion} in the register",
             ServiceLifeYears = definition.ServiceLifeYears > 0 ? definition.ServiceLifeYears : null,
             Evidence = store.EvidenceFor(component.Id, known),
@@ -59,7 +74,8 @@ internal static class ComponentContexts
                 .Select(f => Finding(f, component.InstallDate, f.Revision < latest[f.FindingId] || f.Withdrawn)).ToArray(),
             Repairs = store.Repairs(component.Id, known).Select(r => new ReportRepair(r.RepairDate, ServiceTime.YearsSince(component.InstallDate, r.RepairDate), r.Description)).ToArray(),
             Methods = methods.OrderBy(m => used.Contains(m.Name) ? 0 : 1).Select(m => m.ToInspectionMethod()).ToArray(),
-            Fingerprint = store.Fingerprint(known),
+            Fingerprint = snapshot.Fingerprint,
+            ComponentFingerprint = componentFingerprint ?? store.ComponentFingerprint(component.Id, known),
             Source = store.Path,
         };
     }
@@ -69,7 +85,7 @@ internal static class ComponentContexts
     /// model's folder. The findings go through a temporary register so that they are validated and mapped exactly as
     /// the register does; nothing is kept.
     /// </summary>
-    public static ComponentContext FromFiles(CliHost host, string modelPath, string? findingsPath, DateOnly inService, DateOnly asOf)
+    public static ComponentContext FromFiles(string modelPath, string? findingsPath, DateOnly inService, DateOnly asOf)
     {
         var json = ModelFiles.Read(modelPath);
         var (model, definition) = BuildModel(json, Path.GetFileName(modelPath));
@@ -80,15 +96,15 @@ internal static class ComponentContexts
         try
         {
             // The what-if register records at the evidence date, so that reads "as known on" that date see everything.
-            using var store = RegisterAccess.Open(host.WithClock(new FixedClock(asOf)), temp, RegisterOpenMode.CreateNew);
+            using var store = Registers.Open(temp, RegisterOpenMode.CreateNew, new FixedClock(asOf));
             const string actor = "what-if";
-            RegisterAccess.Require(store.AddSite(new NewSite("FILE", "model file"), actor), "what-if site");
+            Registers.Require(store.AddSite(new NewSite("FILE", "model file"), actor), "what-if site");
             var code = Path.GetFileNameWithoutExtension(modelPath).Replace(".model", string.Empty, StringComparison.Ordinal);
-            RegisterAccess.Require(store.AddComponent(new NewComponent("FILE", code, definition.Name, inService, model.MaximumSizeMm is { } w && double.IsFinite(w) ? w : null, json, "file"), actor), "what-if component");
+            Registers.Require(store.AddComponent(new NewComponent("FILE", code, definition.Name, inService, model.MaximumSizeMm is { } w && double.IsFinite(w) ? w : null, json, "file"), actor), "what-if component");
             foreach (var file in methodFiles)
             {
                 var name = Path.GetFileName(file)[..^".method.json".Length].ToUpperInvariant();
-                RegisterAccess.Require(store.AddMethod(MethodFile.Read(file, name), actor), "method file " + Path.GetFileName(file));
+                Registers.Require(store.AddMethod(MethodFile.Read(file, name), actor), "method file " + Path.GetFileName(file));
                 hash.Append(File.ReadAllText(file));
             }
 
@@ -98,7 +114,7 @@ internal static class ComponentContexts
                 hash.Append(csv);
                 // The file names the component by the model file's name; rewrite nothing: rows must use that code.
                 var result = store.ImportFindingsCsv(new StringReader(csv), Path.GetFileName(findingsPath), actor, "what-if");
-                if (!result.Succeeded) throw RegisterAccess.Problems("findings file " + Path.GetFileName(findingsPath), result.Problems);
+                if (!result.Succeeded) throw Registers.Problems("findings file " + Path.GetFileName(findingsPath), result.Problems);
             }
 
             var component = store.FindComponent(code)!;
@@ -109,6 +125,7 @@ internal static class ComponentContexts
                 ModelDescription = definition.Name + " (model file)",
                 InputSource = "model file " + Path.GetFileName(modelPath),
                 Fingerprint = "sha256:" + Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(hash.ToString()))),
+                ComponentFingerprint = Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(hash.ToString()))),
                 Source = modelPath + (findingsPath is null ? string.Empty : " + " + findingsPath),
             };
         }
@@ -124,6 +141,6 @@ internal static class ComponentContexts
 
     private static ReportFinding Finding(FindingRevision f, DateOnly inService, bool superseded) => new(
         $"F-{f.FindingId.ToString(CultureInfo.InvariantCulture)} r{f.Revision.ToString(CultureInfo.InvariantCulture)}", f.InspectionDate,
-        ServiceTime.YearsSince(inService, f.InspectionDate), FindingText.Words(f.Kind) + (f.Withdrawn ? " (withdrawn)" : string.Empty), f.MethodName ?? "-",
+        ServiceTime.YearsSince(inService, f.InspectionDate), FindingWords.Of(f.Kind) + (f.Withdrawn ? " (withdrawn)" : string.Empty), f.MethodName ?? "-",
         f.MeasuredSizeMm ?? f.RemainingWallMm, f.Revision, f.Recorded.RecordedBy, f.Revision > 1 || f.Withdrawn ? f.Recorded.Reason : null, superseded);
 }

@@ -9,10 +9,10 @@ using InspectionUpdate.Reporting.Html;
 using InspectionUpdate.Time;
 using InspectionUpdate.Updating;
 
-namespace InspectionUpdate.Cli.Engine;
+namespace InspectionUpdate.Application;
 
-/// <summary>One component as the CLI studies it: identity, model, evidence and the records behind the evidence.</summary>
-internal sealed record ComponentContext
+/// <summary>One component as the application studies it: identity, model, evidence and the records behind the evidence.</summary>
+public sealed record ComponentContext
 {
     public required string Id { get; init; }
 
@@ -47,6 +47,15 @@ internal sealed record ComponentContext
 
     /// <summary>Fingerprint of the register state (or of the input files).</summary>
     public required string Fingerprint { get; init; }
+
+    /// <summary>Fingerprint of what this component's numbers rest on (<see cref="InspectionUpdate.Register.RegisterStore.ComponentFingerprint"/>; for files, of the files).</summary>
+    public string ComponentFingerprint { get; init; } = string.Empty;
+
+    /// <summary>Revision of the component's model definition in the register (1 for a model file).</summary>
+    public int ModelRevision { get; init; } = 1;
+
+    /// <summary>Code of the site that holds the component ("-" for a model file).</summary>
+    public string SiteCode { get; init; } = "-";
 
     /// <summary>The register file or model file.</summary>
     public required string Source { get; init; }
@@ -87,7 +96,7 @@ public sealed record PlanDocument(string ComponentId, DateOnly AsOf, double Targ
     double? MaxCov, IReadOnlyList<string> Assumptions, string Fingerprint, string ToolVersion, string Caution);
 
 /// <summary>Builds outputs from engine results. Lookups and wording only.</summary>
-internal static class ComponentStudy
+public static class ComponentStudy
 {
     public static AssessmentRequest Request(ComponentContext c, DateOnly asOf, double horizonYears, int stepsPerYear, UpdatingRoute route = UpdatingRoute.Auto) =>
         new(c.Id, c.Model, c.InServiceDate, asOf, c.Evidence.Where(e => e.TimeYears <= ServiceTime.YearsSince(c.InServiceDate, asOf) + 1e-9).ToArray(), horizonYears, stepsPerYear, route);
@@ -102,7 +111,7 @@ internal static class ComponentStudy
     public static AssessDocument AssessJson(ComponentContext c, AssessmentRequest r, AssessmentOutcome o) => new(
         c.Id, c.Site, c.ModelDescription, c.InServiceDate, r.AsOf, Math.Round(r.AsOfYears, 4), c.Evidence.Count, o.AllConverged,
         Current(o.Current, r.AsOfYears), ProfileExport.ToExport(o.Prior), o.Updated is null ? null : ProfileExport.ToExport(o.Updated),
-        ReportMapping.Posterior(o.Posterior), o.PosteriorNote, c.Fingerprint, CliApp.Version, Cautions.Line);
+        ReportMapping.Posterior(o.Posterior), o.PosteriorNote, c.Fingerprint, ToolInfo.Version, Cautions.Line);
 
     public static PlanDocument PlanJson(ComponentContext c, AssessmentRequest r, PlanOutcome p)
     {
@@ -114,7 +123,7 @@ internal static class ComponentStudy
             p.Schedule?.Inspections.Select(i => new PlannedRow(i.Number, i.Date, i.TimeYears, i.IntervalYears, i.Before.Value, i.After.Value,
                 ProfileExport.RouteKey(i.Before.Route), i.Before.Converged && i.After.Converged)).ToArray() ?? [],
             p.AllConverged, computation.Routes.Select(ProfileExport.RouteKey).ToArray(), computation.MaxCoefficientOfVariation,
-            p.Next.Assumptions.Concat(p.Schedule?.Assumptions ?? []).Distinct().ToArray(), c.Fingerprint, CliApp.Version, Cautions.Line);
+            p.Next.Assumptions.Concat(p.Schedule?.Assumptions ?? []).Distinct().ToArray(), c.Fingerprint, ToolInfo.Version, Cautions.Line);
     }
 
     public static ComponentReportData Report(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, IReadOnlyList<string> notAvailable,
@@ -155,7 +164,7 @@ internal static class ComponentStudy
             Assumptions = assumptions,
             NotAvailable = notAvailable,
             NotRequested = notRequested ?? [],
-            Provenance = new ReportProvenance(CliApp.Version, c.Fingerprint, c.Source, DateTimeOffset.UtcNow, r.AsOf),
+            Provenance = new ReportProvenance(ToolInfo.Version, c.Fingerprint, c.Source, DateTimeOffset.UtcNow, r.AsOf),
         };
     }
 

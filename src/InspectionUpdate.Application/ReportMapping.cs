@@ -8,10 +8,10 @@ using InspectionUpdate.Reporting.Html;
 using InspectionUpdate.Reporting.Plots;
 using InspectionUpdate.Updating;
 
-namespace InspectionUpdate.Cli.Engine;
+namespace InspectionUpdate.Application;
 
 /// <summary>Maps engine results to what the reports and the --json outputs show. No numerics: lookups and wording only.</summary>
-internal static class ReportMapping
+public static class ReportMapping
 {
     /// <summary>Inputs of a model in words, with the unit taken from the name's suffix (e.g. rate_mmPerYear → mm/year).</summary>
     public static IReadOnlyList<ReportInput> Inputs(StochasticModel inputs, string source) =>

@@ -1,4 +1,4 @@
-using InspectionUpdate.Cli.Engine;
+using InspectionUpdate.Application;
 using InspectionUpdate.Degradation.Corrosion;
 using InspectionUpdate.Inspection;
 using InspectionUpdate.Planning;
@@ -6,11 +6,11 @@ using InspectionUpdate.Probability;
 using InspectionUpdate.Reporting.Html;
 using InspectionUpdate.Updating;
 
-namespace InspectionUpdate.Tests.Cli;
+namespace InspectionUpdate.Tests.Application;
 
 /// <summary>
-/// The CLI's orchestration of the engine on a hand-built leak model. The numbers come from the core; these tests
-/// check that the CLI carries them through to the outputs unchanged and consistently.
+/// The application layer's orchestration of the engine on a hand-built leak model. The numbers come from the core; these tests
+/// check that it carries them through to the outputs unchanged and consistently.
 /// </summary>
 public sealed class ComponentStudyTests
 {

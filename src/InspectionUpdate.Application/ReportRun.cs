@@ -1,25 +1,28 @@
 using System.Globalization;
 using System.Text.Json;
-using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Reporting;
 using InspectionUpdate.Reporting.Export;
 using InspectionUpdate.Reporting.Html;
 using InspectionUpdate.Updating;
 
-namespace InspectionUpdate.Cli.Engine;
+namespace InspectionUpdate.Application;
 
 /// <summary>One component's run for a report: the engine's results, or why it could not be assessed.</summary>
-internal sealed record ComponentRun(string ComponentId, ComponentContext? Context, AssessmentRequest? Request, AssessmentOutcome? Outcome, PlanOutcome? Plan, string? Error)
+public sealed record ComponentRun(string ComponentId, ComponentContext? Context, AssessmentRequest? Request, AssessmentOutcome? Outcome, PlanOutcome? Plan, string? Error)
 {
     public bool AllConverged => (Outcome?.AllConverged ?? true) && (Plan?.AllConverged ?? true);
 }
 
 /// <summary>Settings of a report run.</summary>
-internal sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool Schedule, UpdatingRoute Route, double? HorizonYears);
+public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool Schedule, UpdatingRoute Route, double? HorizonYears)
+{
+    /// <summary>Accuracy and seed of the sampling route.</summary>
+    public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
+}
 
 /// <summary>Runs assess and plan over several components (in parallel) and writes the reports and exports.</summary>
-internal static class ReportRun
+public static class ReportRun
 {
     /// <summary>Assesses and plans each component; a component that fails is recorded with its error, the others go on.</summary>
     public static IReadOnlyList<ComponentRun> Run(IReadOnlyList<Func<ComponentContext>> components, IReadOnlyList<string> ids, ReportRunOptions options, Action<double> progress)
@@ -31,15 +34,15 @@ internal static class ReportRun
             try
             {
                 var context = components[i]();
-                var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route);
+                var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling };
                 var outcome = ComponentAssessment.Assess(request, _ => { });
                 var method = options.Schedule ? context.DefaultPlanMethod : null;
                 PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, options.Target, method, _ => { }) : null;
                 runs[i] = new ComponentRun(context.Id, context, request, outcome, plan, null);
             }
-            catch (CliException e)
+            catch (ApplicationFailureException e)
             {
-                runs[i] = new ComponentRun(ids[i], null, null, null, null, e.Message + (e.Problems.Count > 0 ? " " + string.Join(" ", e.Problems) : string.Empty));
+                runs[i] = new ComponentRun(ids[i], null, null, null, null, e.FullText);
             }
             catch (ArgumentException e)
             {
@@ -99,17 +102,17 @@ internal static class ReportRun
                 "Updating route: " + (options.Route switch
                 {
                     UpdatingRoute.FirstOrder => "first order only (linearized events); numbers the updater flags as unreliable are noted per step — check them with --route auto",
-                    UpdatingRoute.Simulation => "simulation only (likelihood-weighted importance sampling)",
+                    UpdatingRoute.Simulation => "simulation only (one weighted sample set per component; numbers it cannot resolve are flagged, not replaced)",
                     _ => "automatic: first order, with simulation where first order is flagged unreliable",
                 }) + ".",
             ],
             NotAvailable = notAvailable,
-            Provenance = new ReportProvenance(CliApp.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf),
+            Provenance = new ReportProvenance(ToolInfo.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf),
         };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.Portfolio(portfolio));
         File.WriteAllText(Path.Combine(folder, "register.json"), JsonSerializer.Serialize(new RegisterExport("inspection-update/register-export/1", title, options.AsOf,
-            CliApp.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
+            ToolInfo.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
         return index;
     }
 

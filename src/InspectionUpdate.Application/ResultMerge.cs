@@ -1,0 +1,117 @@
+using InspectionUpdate.Register;
+
+namespace InspectionUpdate.Application;
+
+/// <summary>A stored result whose key no longer matches the register, and why.</summary>
+/// <param name="Source">The register or the shard results file it was read from.</param>
+/// <param name="ComponentId">Component code.</param>
+/// <param name="AsOf">Evidence date of the result.</param>
+/// <param name="OptionsKey">Its options.</param>
+/// <param name="Reason">What changed.</param>
+public sealed record StaleResult(string Source, string ComponentId, DateOnly AsOf, string OptionsKey, string Reason);
+
+/// <summary>What a merge did.</summary>
+/// <param name="Files">Shard results files read.</param>
+/// <param name="Accepted">Results written into the register.</param>
+/// <param name="Refused">Results refused because their keys no longer match the register.</param>
+public sealed record MergeSummary(IReadOnlyList<string> Files, int Accepted, IReadOnlyList<StaleResult> Refused);
+
+/// <summary>What <c>register check</c> found among the stored results.</summary>
+/// <param name="Stored">Stored results.</param>
+/// <param name="Stale">Those whose key no longer matches the register (recomputed by the next run).</param>
+public sealed record StoredResultsCheck(int Stored, IReadOnlyList<StaleResult> Stale);
+
+/// <summary>Checks stored results against their keys, and folds shard results files into the register.</summary>
+public static class StoredResults
+{
+    /// <summary>Why <paramref name="row"/> no longer holds for the register (null when its key matches the key computed now).</summary>
+    public static string? WhyStale(RegisterStore store, StoredResult row)
+    {
+        ArgumentNullException.ThrowIfNull(store);
+        ArgumentNullException.ThrowIfNull(row);
+        if (row.ResultKey != ResultKeys.Compute(row.ModelRevision, row.ComponentFingerprint, row.AsOf, row.OptionsKey, row.ToolVersion))
+        {
+            return "its key does not match its own fields (the row was altered)";
+        }
+
+        var known = Registers.AsKnownOn(row.AsOf);
+        var component = store.FindComponent(row.ComponentCode, known);
+        if (component is null) return $"component {row.ComponentCode} is not in the register as known on {row.AsOf:yyyy-MM-dd}";
+        if (component.Id != row.ComponentId) return $"component {row.ComponentCode} has id {component.Id} in the register, not {row.ComponentId}";
+        if (row.ToolVersion != ToolInfo.ResultVersion) return $"computed by {row.ToolVersion}, not by this build ({ToolInfo.ResultVersion})";
+        if (component.Model.Revision != row.ModelRevision) return $"model revision {row.ModelRevision} was superseded by revision {component.Model.Revision}";
+        var fingerprint = store.ComponentFingerprint(component.Id, known);
+        return fingerprint == row.ComponentFingerprint ? null : "the component's findings, repairs, model or methods changed since it was computed";
+    }
+
+    /// <summary>Checks every stored result of the register against its key.</summary>
+    public static StoredResultsCheck Check(RegisterStore store)
+    {
+        ArgumentNullException.ThrowIfNull(store);
+        var rows = store.Results();
+        var stale = rows.Select(r => (Row: r, Why: WhyStale(store, r))).Where(x => x.Why is not null)
+            .Select(x => new StaleResult(store.Path, x.Row.ComponentCode, x.Row.AsOf, x.Row.OptionsKey, x.Why!)).ToArray();
+        return new StoredResultsCheck(rows.Count, stale);
+    }
+
+    /// <summary>
+    /// Folds shard results files into the register: each result whose key still matches the register is written
+    /// (replacing the stored one of the same component, date and options); the others are refused and listed.
+    /// Writing is in batches, each one transaction; findings are never touched.
+    /// </summary>
+    /// <exception cref="ApplicationFailureException">A file is missing or not a shard results file (nothing of it is written).</exception>
+    public static MergeSummary Merge(RegisterStore store, IReadOnlyList<string> files)
+    {
+        ArgumentNullException.ThrowIfNull(store);
+        ArgumentNullException.ThrowIfNull(files);
+        var accepted = 0;
+        var refused = new List<StaleResult>();
+        var opened = new List<ShardResultsFile>();
+        try
+        {
+            // Open every file first: a bad one refuses the whole merge before anything is written.
+            foreach (var file in files)
+            {
+                try
+                {
+                    opened.Add(ShardResultsFile.OpenRead(file));
+                }
+                catch (RegisterFileException e)
+                {
+                    throw ApplicationFailureException.BadInput("results file", file, "cannot be merged: " + e.Message);
+                }
+            }
+
+            foreach (var file in opened)
+            {
+                var batch = new List<StoredResult>();
+                foreach (var row in file.Results())
+                {
+                    var why = WhyStale(store, row);
+                    if (why is not null)
+                    {
+                        refused.Add(new StaleResult(file.Path, row.ComponentCode, row.AsOf, row.OptionsKey, why));
+                        continue;
+                    }
+
+                    batch.Add(row);
+                    if (batch.Count >= 256)
+                    {
+                        store.Save(batch);
+                        accepted += batch.Count;
+                        batch.Clear();
+                    }
+                }
+
+                store.Save(batch);
+                accepted += batch.Count;
+            }
+        }
+        finally
+        {
+            foreach (var f in opened) f.Dispose();
+        }
+
+        return new MergeSummary(opened.Select(f => f.Path).ToArray(), accepted, refused);
+    }
+}

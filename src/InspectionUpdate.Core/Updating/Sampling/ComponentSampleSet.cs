@@ -1,0 +1,632 @@
+using System.Globalization;
+using InspectionUpdate.Degradation;
+using InspectionUpdate.Probability;
+using InspectionUpdate.Reliability;
+using InspectionUpdate.Updating.Simulation;
+
+namespace InspectionUpdate.Updating.Sampling;
+
+/// <summary>
+/// One set of weighted samples of a component's inputs that covers its failure region over the whole horizon, for
+/// every renewal period at once. Each sample carries its failure time in each renewal period and its weight
+/// φ(u)/q(u)·Π L_k(x) (the findings' likelihoods); every Pf(t | data), ΔPf and planner probe is read from it.
+/// </summary>
+/// <remarks>
+/// <para>Density: <see cref="SamplingMixture"/> of the prior, the Laplace approximation of the posterior and
+/// Gaussians at the design points of g(x, t) = 0 at several times per renewal period, found by FORM in the
+/// posterior-whitened coordinates (so "nearest" is measured by the posterior). One cross-entropy step (Rubinstein &amp;
+/// Kroese 2004, The Cross-Entropy Method, ch. 3) then moves each of these centres to the weighted mean of a pilot
+/// batch's samples that failed by its time; a period with no usable design point gets a centre from its failures.
+/// The pilot is discarded.</para>
+/// <para>Growth: the set doubles while a yearly cumulative Pf of some renewal period that may lie above the decision
+/// floor misses the target CoV or the minimum effective number of failure samples, up to the cap. Reproducible from
+/// the seed.</para>
+/// </remarks>
+internal sealed class ComponentSampleSet
+{
+    private const string Id = UpdatingCase.SingleComponentId;
+    private const double Inflation = 1.1;
+
+    private readonly SampleSetOptions _options;
+    private readonly NatafTransformation _t;
+    private readonly IDegradationModel _component;
+    private readonly int _d;
+    private readonly int _m;
+    private readonly int _localDimension;
+    private readonly double[] _periodStart;
+    private readonly double[] _periodLength;
+    private readonly EvidenceEvent[] _events;
+    private readonly List<double> _x = [];
+    private readonly List<double> _logW = [];
+    private readonly List<double> _u = [];
+    private readonly List<double> _logTarget = [];
+    private readonly List<(SamplingMixture Mixture, int Count)> _batches = [];
+    private readonly List<double>[] _times;
+    private readonly Random _rng;
+    private SamplingMixture _mixture = null!;
+    private int[][]? _order;
+
+    private ComponentSampleSet(EvidenceModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears)
+    {
+        Model = model;
+        Evidence = evidence;
+        _options = options;
+        _t = new NatafTransformation(model.InputModel);
+        _d = _t.StandardDimension;
+        _m = _t.PhysicalDimension;
+        _component = model.ComponentModel(Id);
+        _localDimension = _component.Inputs.Variables.Count;
+        _events = model.Events.ToArray();
+        var periods = model.RenewalPeriods(Id);
+        _periodStart = new double[periods];
+        _periodLength = new double[periods];
+        for (var e = 0; e < periods; e++) _periodStart[e] = model.PeriodStartYears(Id, e);
+        for (var e = 0; e < periods; e++) _periodLength[e] = (e + 1 < periods ? _periodStart[e + 1] : Math.Max(horizonYears, _periodStart[e] + 1)) - _periodStart[e];
+        HorizonYears = _periodStart[^1] + _periodLength[^1];
+        _times = Enumerable.Range(0, periods).Select(_ => new List<double>()).ToArray();
+        _rng = new Random(options.Seed);
+    }
+
+    /// <summary>The augmented model and events.</summary>
+    public EvidenceModel Model { get; }
+
+    /// <summary>The findings the weights include.</summary>
+    public IReadOnlyList<InspectionOutcome> Evidence { get; }
+
+    /// <summary>Times beyond this (years since entry into service) are censored.</summary>
+    public double HorizonYears { get; }
+
+    /// <summary>Weighted failure times under the findings' weights.</summary>
+    public WeightedFailureTimes Weighted { get; private set; } = null!;
+
+    /// <summary>Limit-state and likelihood evaluations spent building the set (FORM searches included).</summary>
+    public long Evaluations { get; private set; }
+
+    /// <summary>How the density was built, for notes.</summary>
+    public string Description { get; private set; } = "";
+
+    /// <summary>False when the posterior-mode search behind the density did not converge.</summary>
+    public bool DensityNote { get; private set; }
+
+    /// <summary>Number of renewal periods.</summary>
+    public int Periods => _periodStart.Length;
+
+    /// <summary>Length in years of renewal period e as sampled (to the next repair, or to the horizon).</summary>
+    public double PeriodLength(int period) => _periodLength[period];
+
+    /// <summary>Start of renewal period e, years since entry into service.</summary>
+    public double PeriodStart(int period) => _periodStart[period];
+
+    /// <summary>Builds the set for one component's findings.</summary>
+    public static ComponentSampleSet Build(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears)
+    {
+        var evidenceModel = EvidenceModel.Build(UpdatingCase.Single(model, evidence));
+        var set = new ComponentSampleSet(evidenceModel, evidence, options, horizonYears);
+        set.Construct();
+        return set;
+    }
+
+    /// <summary>The period of time t (the earlier one at a repair date) and the local time in it.</summary>
+    public (int Period, double Local) Locate(double timeYears)
+    {
+        var e = Model.PeriodAt(Id, timeYears);
+        return (e, timeYears - _periodStart[e]);
+    }
+
+    /// <summary>
+    /// The weights with further findings' likelihoods multiplied in (a planned inspection that finds nothing, say):
+    /// null when <paramref name="extended"/> adds a repair (the inputs change, so the set must be rebuilt).
+    /// </summary>
+    public WeightedFailureTimes? Reweighted(IReadOnlyList<InspectionOutcome> extended, out long evaluations)
+    {
+        evaluations = 0;
+        var extra = Extra(extended);
+        if (extra is null) return null;
+        if (extra.Count == 0) return Weighted;
+        var extendedModel = EvidenceModel.Build(UpdatingCase.Single(_component, extended));
+        if (extendedModel.InputModel.Variables.Count != _m) return null;
+        var extraEvents = extendedModel.Events.Where(ev => extra.Contains(ev.Outcome)).ToArray();
+        var n = _logW.Count;
+        var logW = new double[n];
+        var x = new double[_m];
+        for (var i = 0; i < n; i++)
+        {
+            var l = _logW[i];
+            if (!double.IsNegativeInfinity(l))
+            {
+                for (var k = 0; k < _m; k++) x[k] = _x[i * _m + k];
+                foreach (var ev in extraEvents)
+                {
+                    l += ev.LogLikelihood(x);
+                    evaluations++;
+                    if (double.IsNegativeInfinity(l)) break;
+                }
+            }
+
+            logW[i] = l;
+        }
+
+        return Weigh(logW);
+    }
+
+    /// <summary>Weighted posterior summary of every random input (mean, sd, 5/50/95 % quantiles).</summary>
+    public PosteriorSummary Posterior(WeightedFailureTimes weighted)
+    {
+        var w = WeightsOf(weighted);
+        var total = w.Sum();
+        var model = Model.InputModel;
+        var inputs = new List<InputPosterior>();
+        foreach (var i in model.RandomIndices)
+        {
+            var v = model.Variables[i];
+            var values = new double[w.Length];
+            for (var k = 0; k < w.Length; k++) values[k] = _x[k * _m + i];
+            double mean = 0, second = 0;
+            for (var k = 0; k < w.Length; k++) mean += w[k] * values[k];
+            mean /= total;
+            for (var k = 0; k < w.Length; k++) second += w[k] * (values[k] - mean) * (values[k] - mean);
+            var order = Enumerable.Range(0, w.Length).OrderBy(k => values[k]).ToArray();
+            inputs.Add(new InputPosterior(v.Name, v.Mean, v.StandardDeviation, mean, Math.Sqrt(second / total),
+                Quantile(order, values, w, total, 0.05), Quantile(order, values, w, total, 0.50), Quantile(order, values, w, total, 0.95)));
+        }
+
+        var ess = weighted.EffectiveSampleSize;
+        return new PosteriorSummary
+        {
+            Inputs = inputs,
+            EffectiveSampleSize = ess,
+            Samples = w.Length,
+            Route = ComputationRoute.ImportanceSampling,
+            Converged = ess >= 200,
+            Note = Description,
+        };
+    }
+
+    /// <summary>Draws from the prior (transformation of standard normals) and the posterior (systematic resampling of the weights).</summary>
+    public IReadOnlyList<InputSamples> Draws(WeightedFailureTimes weighted, int count, int seed)
+    {
+        var w = WeightsOf(weighted);
+        var rng = new Random(unchecked(seed * 31 + 7));
+        var u = new double[_d];
+        var x = new double[_m];
+        var prior = new double[count][];
+        for (var k = 0; k < count; k++)
+        {
+            for (var i = 0; i < _d; i++) u[i] = StandardNormal.InverseCdf(1 - rng.NextDouble());
+            _t.ToPhysical(u, x);
+            prior[k] = (double[])x.Clone();
+        }
+
+        var total = w.Sum();
+        var picks = new int[count];
+        var step = total / count;
+        var next = rng.NextDouble() * step;
+        var cumulative = 0.0;
+        var j = 0;
+        for (var k = 0; k < count; k++)
+        {
+            while (j < w.Length - 1 && cumulative + w[j] < next)
+            {
+                cumulative += w[j];
+                j++;
+            }
+
+            picks[k] = j;
+            next += step;
+        }
+
+        return Model.InputModel.RandomIndices
+            .Select(i => new InputSamples(Model.InputModel.Variables[i].Name, prior.Select(p => p[i]).ToArray(), picks.Select(k => _x[k * _m + i]).ToArray()))
+            .ToArray();
+    }
+
+    private static double Quantile(int[] order, double[] values, double[] w, double total, double p)
+    {
+        var target = p * total;
+        var cum = 0.0;
+        foreach (var k in order)
+        {
+            cum += w[k];
+            if (cum >= target) return values[k];
+        }
+
+        return values[order[^1]];
+    }
+
+    /// <summary>Outcomes of <paramref name="extended"/> beyond this set's evidence, or null when it is not an extension without repairs.</summary>
+    private List<InspectionOutcome>? Extra(IReadOnlyList<InspectionOutcome> extended)
+    {
+        var remaining = extended.ToList();
+        foreach (var e in Evidence)
+        {
+            var k = remaining.IndexOf(e);
+            if (k < 0) return null;
+            remaining.RemoveAt(k);
+        }
+
+        return remaining.Any(r => r is Repair) ? null : remaining;
+    }
+
+    private void Construct()
+    {
+        var smooth = _events.Any(e => e.Outcome is not SurvivedInService);
+        double[] mean;
+        double[,] lower;
+        double logDet;
+        string? laplaceNote = null;
+        if (smooth)
+        {
+            var laplace = new LikelihoodImportanceSampler(Model, UpdatingOptions.Default with { Seed = _options.Seed, Form = _options.Form }).FitLaplace();
+            mean = laplace.Mean;
+            lower = laplace.Lower;
+            logDet = laplace.LogDet;
+            laplaceNote = laplace.Note;
+            DensityNote = !laplace.Converged;
+            Evaluations += laplace.Evaluations;
+        }
+        else
+        {
+            mean = new double[_d];
+            lower = new double[_d, _d];
+            for (var i = 0; i < _d; i++) lower[i, i] = 1;
+            logDet = 0;
+        }
+
+        var anchors = Anchors(mean, lower);
+        var scaled = new double[_d, _d];
+        for (var i = 0; i < _d; i++)
+            for (var j = 0; j <= i; j++) scaled[i, j] = Inflation * lower[i, j];
+        var scaledLogDet = logDet + 2 * _d * Math.Log(Inflation);
+        _mixture = Mixture(mean, smooth, anchors.Select(a => a.Centre).ToList(), scaled, scaledLogDet);
+
+        // One cross-entropy step on a pilot batch: each centre moves to the weighted mean of the pilot samples that
+        // failed by its time (the mean of the optimal density for P(T_f ≤ τ | data)).
+        var pilot = Math.Max(2000, _options.Samples / 2);
+        Draw(pilot);
+        var moved = new List<double[]>();
+        var targets = anchors.Select(a => (a.Period, a.Local)).ToList();
+        for (var e = 0; e < Periods; e++)
+        {
+            if (!targets.Any(t => t.Period == e)) targets.Add((e, _periodLength[e]));
+        }
+
+        var movedCount = 0;
+        foreach (var (period, local) in targets)
+        {
+            var centre = FailedMean(period, local, out var effective);
+            if (centre is not null && effective >= 10)
+            {
+                moved.Add(centre);
+                movedCount++;
+            }
+            else if (anchors.FirstOrDefault(a => a.Period == period && a.Local == local) is { Centre: { } c })
+            {
+                moved.Add(c);
+            }
+        }
+
+        _x.Clear();
+        _logW.Clear();
+        _u.Clear();
+        _logTarget.Clear();
+        _batches.Clear();
+        _order = null;
+        foreach (var list in _times) list.Clear();
+        _mixture = Mixture(mean, smooth, Distinct(moved), scaled, scaledLogDet);
+
+        var n = _options.Samples;
+        Draw(n);
+        Weighted = Weigh(_logW.ToArray());
+        var refinements = 0;
+        while (_logW.Count < _options.MaxSamples && Unresolved() is { } missed)
+        {
+            // Refinement: a new centre at the weighted mean of the failures by the earliest unresolved time, and as
+            // many new samples again from the widened mixture. All samples are then weighed against the whole
+            // sampling density (the balance heuristic of multiple importance sampling, Veach & Guibas 1995), so
+            // earlier draws stay valid.
+            var centre = FailedMean(missed.Period, missed.Local, out var effective);
+            if (centre is null || effective < 3)
+            {
+                // Too few failures by that time to aim at it: one cross-entropy rung instead, the mean of the earliest
+                // fifth (by weight) of the failures by the next covered time, a step towards the earlier, rarer failures.
+                centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(missed.Period, missed.Local), 0.2, out effective);
+            }
+
+            if (centre is not null && effective >= 3 && _mixture.Centres.All(c => Distance(c, centre) > 0.25))
+            {
+                _mixture = Mixture(mean, smooth, [.. _mixture.Centres.Skip(smooth ? 1 : 0), centre], scaled, scaledLogDet);
+                refinements++;
+            }
+
+            Draw(Math.Min(_logW.Count, _options.MaxSamples - _logW.Count));
+            Reweigh();
+            Weighted = Weigh(_logW.ToArray());
+        }
+
+        Description = string.Create(CultureInfo.InvariantCulture,
+            $"one weighted sample set: {_logW.Count} samples, ESS {Weighted.EffectiveSampleSize:F0}; mixture of the prior, {(smooth ? "the Laplace posterior, " : "")}{_mixture.Centres.Count - (smooth ? 1 : 0)} failure centre(s) ({anchors.Count} design point(s), {movedCount} moved by a cross-entropy step, {refinements} added where the set was refined)")
+            + (laplaceNote is null ? "" : "; " + laplaceNote);
+    }
+
+    private SamplingMixture Mixture(double[] mean, bool smooth, List<double[]> centres, double[,] scaled, double logDet)
+    {
+        var w0 = _options.DefensiveWeight;
+        var wPosterior = smooth ? (centres.Count == 0 ? 1 - w0 : 0.25) : 0;
+        var components = new List<(double[], double)>();
+        if (smooth) components.Add((mean, wPosterior));
+        var rest = 1 - w0 - wPosterior;
+        if (centres.Count == 0 && !smooth)
+        {
+            // Nothing to centre on: the prior alone (the second weight only keeps the mixture well formed).
+            components.Add((mean, rest));
+        }
+        else
+        {
+            foreach (var c in centres) components.Add((c, rest / centres.Count));
+        }
+
+        return new SamplingMixture(w0, components, scaled, logDet);
+    }
+
+    private static List<double[]> Distinct(List<double[]> centres)
+    {
+        var kept = new List<double[]>();
+        foreach (var c in centres)
+        {
+            if (kept.All(k => Distance(k, c) > 0.25)) kept.Add(c);
+        }
+
+        return kept;
+    }
+
+    private static double Distance(double[] a, double[] b)
+    {
+        var s = 0.0;
+        for (var i = 0; i < a.Length; i++) s += (a[i] - b[i]) * (a[i] - b[i]);
+        return Math.Sqrt(s);
+    }
+
+    /// <summary>
+    /// Design points of g(x, t) = 0 in posterior-whitened coordinates, at times chosen per renewal period so that their
+    /// reliability indices step through the levels 0, 1, …, 6 (a β(t) scan backwards from the period's end, each search
+    /// started from the last point): each level of Pf across the horizon gets a sampling centre of its own.
+    /// </summary>
+    private List<(int Period, double Local, double[] Centre)> Anchors(double[] mean, double[,] lower)
+    {
+        var shifted = new ShiftedTransformation(_t, mean, lower);
+        var result = new List<(int, double, double[])>();
+        for (var e = 0; e < Periods; e++)
+        {
+            var steps = Math.Clamp((int)Math.Ceiling(_periodLength[e]), 8, ScanSteps);
+            IReadOnlyList<double>? start = null;
+            var scan = new List<(double Local, double Beta, double[] U)>();
+            for (var k = steps; k >= 1; k--)
+            {
+                var local = _periodLength[e] * k / steps;
+                var form = FormSolver.Solve(new ReliabilityProblem(shifted, Model.FailureLimitState(Id, _periodStart[e] + local)), _options.Form with { StartPoint = start });
+                Evaluations += form.LimitStateEvaluations;
+                if (!(form.DesignPointU.All(double.IsFinite) && (form.Converged || form.EndsOnLimitState))) continue;
+                start = form.DesignPointU;
+                var u = new double[_d];
+                shifted.ToU(form.DesignPointU.ToArray(), u);
+                scan.Add((local, form.Beta, u));
+                // Past the highest level the earlier times add nothing a planning decision needs.
+                if (form.Beta > BetaLevels[^1] + 0.5) break;
+            }
+
+            if (scan.Count == 0) continue;
+            var chosen = new HashSet<int>();
+            foreach (var level in BetaLevels.Take(_options.AnchorsPerPeriod))
+            {
+                var best = -1;
+                for (var k = 0; k < scan.Count; k++)
+                {
+                    if (best < 0 || Math.Abs(scan[k].Beta - level) < Math.Abs(scan[best].Beta - level)) best = k;
+                }
+
+                if (Math.Abs(scan[best].Beta - level) <= 0.75 || level == BetaLevels[0]) chosen.Add(best);
+            }
+
+            foreach (var k in chosen.Order()) result.Add((e, scan[k].Local, scan[k].U));
+        }
+
+        return result;
+    }
+
+    /// <summary>Reliability-index levels (posterior-whitened) that get a sampling centre, most probable first.</summary>
+    private static readonly double[] BetaLevels = [0, 1, 2, 3, 4, 5, 6, -1, 1.5, 2.5, 3.5, 4.5, 5.5];
+
+    /// <summary>Largest number of times of the β(t) scan per renewal period (one per year of the period, at least 8).</summary>
+    private const int ScanSteps = 60;
+
+    /// <summary>Weighted mean (u-space) of the drawn samples failed by local time τ of a period, with the effective count.</summary>
+    private double[]? FailedMean(int period, double local, out double effective)
+    {
+        effective = 0;
+        var top = double.NegativeInfinity;
+        var times = _times[period];
+        for (var i = 0; i < _logW.Count; i++)
+        {
+            if (times[i] <= local && _logW[i] > top) top = _logW[i];
+        }
+
+        if (!double.IsFinite(top)) return null;
+        var mean = new double[_d];
+        double total = 0, total2 = 0;
+        var x = new double[_m];
+        var u = new double[_d];
+        for (var i = 0; i < _logW.Count; i++)
+        {
+            if (!(times[i] <= local)) continue;
+            var w = Math.Exp(_logW[i] - top);
+            if (w == 0) continue;
+            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
+            total += w;
+            total2 += w * w;
+            for (var k = 0; k < _d; k++) mean[k] += w * u[k];
+        }
+
+        for (var k = 0; k < _d; k++) mean[k] /= total;
+        effective = total * total / total2;
+        return mean;
+    }
+
+    /// <summary>The earliest yearly time of some period whose Pf, possibly at or above the decision floor, misses the target CoV or the minimum failure samples; null when none.</summary>
+    private (int Period, double Local)? Unresolved()
+    {
+        for (var e = 0; e < Periods; e++)
+        {
+            var steps = Math.Max(1, (int)Math.Ceiling(_periodLength[e]));
+            for (var k = 1; k <= steps; k++)
+            {
+                var local = Math.Min(k, _periodLength[e]);
+                var p = Weighted.Cumulative(e, local);
+                // Where the failures drawn are too few to judge, the next covered value bounds this one (Pf never falls).
+                var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(e, local);
+                if (!(bound >= _options.DecisionFloor)) continue;
+                if (p.CoefficientOfVariation > _options.TargetCoefficientOfVariation || p.EffectiveEvents < _options.MinimumFailureSamples) return (e, local);
+            }
+        }
+
+        return null;
+    }
+
+    /// <summary>p + 3·se at the first later yearly time of the period with enough effective failure samples; 1 when none.</summary>
+    private double CoveredBoundAfter(int period, double local)
+    {
+        var at = CoveredTimeAfter(period, local);
+        var p = Weighted.Cumulative(period, at);
+        return p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : 1;
+    }
+
+    /// <summary>The first later yearly time of the period with enough effective failure samples, else the period's end.</summary>
+    private double CoveredTimeAfter(int period, double local)
+    {
+        for (var later = Math.Floor(local) + 1; ; later += 1)
+        {
+            var at = Math.Min(later, _periodLength[period]);
+            if (at >= _periodLength[period] || Weighted.Cumulative(period, at).EffectiveEvents >= _options.MinimumFailureSamples) return at;
+        }
+    }
+
+    /// <summary>Weighted mean (u-space) of the earliest failures of a period by a local time, carrying the given share of their weight.</summary>
+    private double[]? EarliestFailuresMean(int period, double byLocal, double share, out double effective)
+    {
+        effective = 0;
+        var times = _times[period];
+        var order = Enumerable.Range(0, times.Count).Where(i => double.IsFinite(times[i]) && times[i] <= byLocal && _logW[i] > double.NegativeInfinity)
+            .OrderBy(i => times[i]).ToArray();
+        if (order.Length == 0) return null;
+        var top = order.Max(i => _logW[i]);
+        var totalFailed = order.Sum(i => Math.Exp(_logW[i] - top));
+        var mean = new double[_d];
+        double sum = 0, sum2 = 0;
+        foreach (var i in order)
+        {
+            var w = Math.Exp(_logW[i] - top);
+            sum += w;
+            sum2 += w * w;
+            for (var k = 0; k < _d; k++) mean[k] += w * _u[i * _d + k];
+            if (sum >= share * totalFailed) break;
+        }
+
+        for (var k = 0; k < _d; k++) mean[k] /= sum;
+        effective = sum * sum / sum2;
+        return mean;
+    }
+
+    /// <summary>Recomputes every weight against the sampling density of all batches drawn so far.</summary>
+    private void Reweigh()
+    {
+        var total = _logW.Count;
+        var logShares = _batches.Select(b => Math.Log((double)b.Count / total)).ToArray();
+        var u = new double[_d];
+        var terms = new double[_batches.Count];
+        for (var i = 0; i < total; i++)
+        {
+            if (double.IsNegativeInfinity(_logTarget[i])) continue;
+            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
+            var max = double.NegativeInfinity;
+            for (var b = 0; b < _batches.Count; b++)
+            {
+                terms[b] = logShares[b] + _batches[b].Mixture.LogDensity(u);
+                if (terms[b] > max) max = terms[b];
+            }
+
+            var sum = 0.0;
+            foreach (var t in terms) sum += Math.Exp(t - max);
+            _logW[i] = _logTarget[i] - (max + Math.Log(sum));
+        }
+    }
+
+    private void Draw(int count)
+    {
+        _batches.Add((_mixture, count));
+        var u = new double[_d];
+        var x = new double[_m];
+        var local = new double[_localDimension];
+        for (var s = 0; s < count; s++)
+        {
+            _mixture.Draw(_rng, u);
+            _t.ToPhysical(u, x);
+            var logTarget = SamplingMixture.LogPrior(u);
+            foreach (var ev in _events)
+            {
+                logTarget += ev.LogLikelihood(x);
+                Evaluations++;
+                if (double.IsNegativeInfinity(logTarget)) break;
+            }
+
+            if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;
+            var logW = double.IsNegativeInfinity(logTarget) ? logTarget : logTarget - _mixture.LogDensity(u);
+            _logTarget.Add(logTarget);
+            _logW.Add(logW);
+            for (var k = 0; k < _d; k++) _u.Add(u[k]);
+            for (var k = 0; k < _m; k++) _x.Add(x[k]);
+            for (var e = 0; e < Periods; e++)
+            {
+                if (double.IsNegativeInfinity(logW))
+                {
+                    _times[e].Add(double.PositiveInfinity);
+                    continue;
+                }
+
+                Model.PeriodInputs(Id, e, x, local);
+                var tf = FailureTimeSearch.Find(_component, local, _periodLength[e], _options.SearchStepsPerYear, out var used);
+                Evaluations += used;
+                _times[e].Add(tf);
+            }
+        }
+    }
+
+    private static double[] WeightsOf(WeightedFailureTimes weighted) => weighted.Weights;
+
+    private WeightedFailureTimes Weigh(double[] logW)
+    {
+        var top = double.NegativeInfinity;
+        foreach (var l in logW)
+        {
+            if (l > top) top = l;
+        }
+
+        var w = new double[logW.Length];
+        if (double.IsFinite(top))
+        {
+            for (var i = 0; i < w.Length; i++) w[i] = Math.Exp(logW[i] - top);
+        }
+
+        var times = _times.Select(l => l.ToArray()).ToArray();
+        // The order depends on the failure times only: a reweighting (a planned inspection) reuses it.
+        if (_order is null || _order[0].Length != logW.Length)
+        {
+            _order = times.Select(t =>
+            {
+                var idx = Enumerable.Range(0, t.Length).ToArray();
+                Array.Sort((double[])t.Clone(), idx);
+                return idx;
+            }).ToArray();
+        }
+
+        return new WeightedFailureTimes(times, _order, w, double.IsFinite(top) ? top : 0);
+    }
+}
