@@ -10,7 +10,7 @@ using InspectionUpdate.Updating.Sampling;
 namespace InspectionUpdate.Cli.Verification;
 
 /// <summary>
-/// Verification of the main job, updating and planning, on the worked case of REFERENCES.md: ln a(t) = X₁ + X₂t,
+/// Verification of the main job, updating and planning, on the worked case of docs/references.md: ln a(t) = X₁ + X₂t,
 /// X₁ ~ N(ln 0.5, 0.5), X₂ ~ N(0.10, 0.02), failure at a = 20 mm; probability of detection Φ((ln a − ln 2)/0.5);
 /// sizing error ln ε ~ N(0, 0.25). Every event surface is a hyperplane in standard normal space, so the expected
 /// values are exact (derived there by bivariate normal and Gaussian conditioning) and first order must reproduce
@@ -19,7 +19,7 @@ namespace InspectionUpdate.Cli.Verification;
 /// <remarks>The model is written in the component-model file format, so the check also runs the definition parser.</remarks>
 internal static class UpdatingVerificationCases
 {
-    private const string Source = "REFERENCES.md worked updating case [derived, exact]";
+    private const string Source = "docs/references.md worked updating case [derived, exact]";
 
     private static readonly string ModelJson = """
         {

@@ -25,7 +25,7 @@ public static class ProfileExport
         WriteIndented = true,
         DefaultIgnoreCondition = JsonIgnoreCondition.Never,
         NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals,
-        Converters = { new JsonStringEnumConverter(JsonNamingPolicy.SnakeCaseLower) },
+        Converters = { new JsonStringEnumConverter(JsonNamingPolicy.SnakeCaseLower), new UtcTimeConverter() },
     };
 
     /// <summary>Writes the profiles of a component as CSV, one row per time step (invariant culture, RFC 4180 quoting).</summary>
