@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using InspectionUpdate.Degradation;
 using InspectionUpdate.Inspection;
 using InspectionUpdate.Planning;
@@ -5,6 +6,7 @@ using InspectionUpdate.Reliability;
 using InspectionUpdate.Time;
 using InspectionUpdate.TimeVariant;
 using InspectionUpdate.Updating;
+using InspectionUpdate.Updating.Sampling;
 
 namespace InspectionUpdate.Application;
 
@@ -20,6 +22,9 @@ namespace InspectionUpdate.Application;
 public sealed record AssessmentRequest(string ComponentId, IDegradationModel Model, DateOnly InServiceDate, DateOnly AsOf,
     IReadOnlyList<InspectionOutcome> Evidence, double HorizonYears, int StepsPerYear, UpdatingRoute Route = UpdatingRoute.Auto)
 {
+    /// <summary>Accuracy and seed of the sampling route (auto and simulation); numbers are reproducible from them.</summary>
+    public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
+
     /// <summary>Years from entry into service to the evidence date.</summary>
     public double AsOfYears => ServiceTime.YearsSince(InServiceDate, AsOf);
 }
@@ -57,17 +62,48 @@ public sealed record PlanOutcome(NextInspection Next, InspectionSchedule? Schedu
 /// </summary>
 public static class ComponentAssessment
 {
-    private static readonly Dictionary<UpdatingRoute, ReliabilityUpdater> Updaters = Enum.GetValues<UpdatingRoute>()
-        .ToDictionary(r => r, r => new ReliabilityUpdater(UpdatingOptions.Default with { Route = r }));
+    private static readonly ReliabilityUpdater FirstOrderUpdater = new(UpdatingOptions.Default with { Route = UpdatingRoute.FirstOrder });
 
-    /// <summary>The updater of a route (default seeded options of the updating layer).</summary>
-    public static ReliabilityUpdater Updater(UpdatingRoute route) => Updaters[route];
+    // One sample-set updater per model instance (one component's study): assess, plan and report share its sets.
+    private static readonly ConditionalWeakTable<IDegradationModel, SampleSetUpdater> SampleSets = [];
+
+    /// <summary>
+    /// The updater of a request: first order for the first-order route; otherwise the sample-set route (the automatic
+    /// route with first order below the sampling resolution and as a cross-check, the simulation route without it).
+    /// </summary>
+    public static IReliabilityUpdater Updater(AssessmentRequest request)
+    {
+        ArgumentNullException.ThrowIfNull(request);
+        if (request.Route == UpdatingRoute.FirstOrder) return FirstOrderUpdater;
+        var options = request.Sampling.ToOptions(request.Route == UpdatingRoute.Auto, request.HorizonYears);
+        lock (SampleSets)
+        {
+            if (SampleSets.TryGetValue(request.Model, out var known) && known.Options == options) return known;
+            var updater = new SampleSetUpdater(options);
+            SampleSets.AddOrUpdate(request.Model, updater);
+            return updater;
+        }
+    }
 
     /// <summary>Prior and updated profiles on a grid from the first step to the horizon.</summary>
     public static AssessmentOutcome Assess(AssessmentRequest request, Action<double> progress)
     {
         ArgumentNullException.ThrowIfNull(request);
         var grid = TimeGrid.Yearly(request.HorizonYears, request.StepsPerYear);
+        var updater = Updater(request);
+        if (updater is SampleSetUpdater sampled)
+        {
+            var priorSampled = sampled.Profile(request.Model, [], grid.TimesYears, "prior");
+            progress(request.Evidence.Count == 0 ? 1.0 : 0.4);
+            if (request.Evidence.Count == 0) return new AssessmentOutcome(priorSampled, null, null, "no findings: the prior stands");
+            var updatedSampled = sampled.Profile(request.Model, request.Evidence, grid.TimesYears, UpdatedLabel(request));
+            progress(0.9);
+            var summary = sampled.Posterior(request.Model, request.Evidence);
+            var draws = sampled.PosteriorSamples(request.Model, request.Evidence);
+            progress(1.0);
+            return new AssessmentOutcome(priorSampled, updatedSampled, summary, null) { Samples = draws };
+        }
+
         var prior = TimeVariantReliability.Profile(request.Model, grid, ProfileOptions.Default with
         {
             Label = "prior",
@@ -76,9 +112,8 @@ public static class ComponentAssessment
         progress(request.Evidence.Count == 0 ? 1.0 : 0.4);
         if (request.Evidence.Count == 0) return new AssessmentOutcome(prior, null, null, "no findings: the prior stands");
 
-        var session = Updater(request.Route).Prepare(request.Model, request.Evidence);
-        var label = $"updated with {request.Evidence.Count} record(s) to {request.AsOf:yyyy-MM-dd}";
-        var updated = session.Profile(UpdatingCase.SingleComponentId, grid.TimesYears, label);
+        var session = FirstOrderUpdater.Prepare(request.Model, request.Evidence);
+        var updated = session.Profile(UpdatingCase.SingleComponentId, grid.TimesYears, UpdatedLabel(request));
         progress(0.8);
         PosteriorSummary? posterior = null;
         IReadOnlyList<InputSamples> samples = [];
@@ -97,12 +132,14 @@ public static class ComponentAssessment
         return new AssessmentOutcome(prior, updated, posterior, note) { Samples = samples };
     }
 
+    private static string UpdatedLabel(AssessmentRequest request) => $"updated with {request.Evidence.Count} record(s) to {request.AsOf:yyyy-MM-dd}";
+
     /// <summary>Next inspection, schedule and remaining life against <paramref name="target"/>.</summary>
     public static PlanOutcome Plan(AssessmentRequest request, AnnualTarget target, InspectionMethod? method, Action<double> progress)
     {
         ArgumentNullException.ThrowIfNull(request);
         ArgumentNullException.ThrowIfNull(target);
-        var planner = new InspectionPlanner(Updater(request.Route));
+        var planner = new InspectionPlanner(Updater(request));
         var planning = new PlanningRequest
         {
             Model = request.Model,

@@ -15,7 +15,11 @@ public sealed record ComponentRun(string ComponentId, ComponentContext? Context,
 }
 
 /// <summary>Settings of a report run.</summary>
-public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool Schedule, UpdatingRoute Route, double? HorizonYears);
+public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool Schedule, UpdatingRoute Route, double? HorizonYears)
+{
+    /// <summary>Accuracy and seed of the sampling route.</summary>
+    public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
+}
 
 /// <summary>Runs assess and plan over several components (in parallel) and writes the reports and exports.</summary>
 public static class ReportRun
@@ -30,7 +34,7 @@ public static class ReportRun
             try
             {
                 var context = components[i]();
-                var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route);
+                var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling };
                 var outcome = ComponentAssessment.Assess(request, _ => { });
                 var method = options.Schedule ? context.DefaultPlanMethod : null;
                 PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, options.Target, method, _ => { }) : null;
@@ -73,7 +77,7 @@ public static class ReportRun
                 "Updating route: " + (options.Route switch
                 {
                     UpdatingRoute.FirstOrder => "first order only (linearized events); numbers the updater flags as unreliable are noted per step — check them with --route auto",
-                    UpdatingRoute.Simulation => "simulation only (likelihood-weighted importance sampling)",
+                    UpdatingRoute.Simulation => "simulation only (one weighted sample set per component; numbers it cannot resolve are flagged, not replaced)",
                     _ => "automatic: first order, with simulation where first order is flagged unreliable",
                 }) + ".",
             ],

@@ -14,7 +14,7 @@ namespace InspectionUpdate.Application;
 public static class ResultKeys
 {
     /// <summary>Canonical text of the options that change a component's numbers (part of the key and of the row's identity).</summary>
-    public static string Options(UpdatingRoute route, AnnualTarget target, double? horizonYears)
+    public static string Options(UpdatingRoute route, AnnualTarget target, double? horizonYears, SamplingSettings? sampling = null)
     {
         ArgumentNullException.ThrowIfNull(target);
         var routeText = route switch
@@ -24,7 +24,8 @@ public static class ResultKeys
             _ => "auto",
         };
         return string.Create(CultureInfo.InvariantCulture,
-            $"route={routeText};target={AnnualTarget.MeasureName(target.Measure)}:{target.AnnualPf:R};horizon={(horizonYears is { } h ? h.ToString("R", CultureInfo.InvariantCulture) : "model")};steps-per-year=1;schedule=none");
+            $"route={routeText};target={AnnualTarget.MeasureName(target.Measure)}:{target.AnnualPf:R};horizon={(horizonYears is { } h ? h.ToString("R", CultureInfo.InvariantCulture) : "model")};steps-per-year=1;schedule=none")
+            + (route == UpdatingRoute.FirstOrder ? "" : ";sampling=" + (sampling ?? SamplingSettings.Default));
     }
 
     /// <summary>SHA-256 (hex) of the key fields, one per line.</summary>

@@ -98,8 +98,8 @@ public static class CliApp
                 .WithExample("plan", "--model", "wi-03.model.json", "--target-annual-pf", "1e-4");
             config.AddCommand<ReportCommand>("report").WithDescription("Write HTML reports (one per component and one for the register) with CSV and JSON exports.")
                 .WithExample("report", "--out", "reports", "-r", "plant.register");
-            config.AddCommand<VerifyCommand>("verify").WithDescription("Run the verification cases on this installation.")
-                .WithExample("verify").WithExample("verify", "--write-doc", "docs/verification.md");
+            config.AddCommand<VerifyCommand>("verify").WithDescription("Run the verification cases and the benchmark-collection problems on this installation.")
+                .WithExample("verify").WithExample("verify", "--benchmarks", "quick").WithExample("verify", "--write-doc", "docs/verification.md");
             config.AddCommand<DemoCommand>("demo").WithDescription("Build a demo register from sample-data, assess, plan and report.")
                 .WithExample("demo").WithExample("demo", "--out", "demo-output");
         });

@@ -7,7 +7,7 @@ using Spectre.Console.Cli;
 namespace InspectionUpdate.Cli.Commands;
 
 /// <summary>Settings of <c>assess</c>: a component of the register, or a model file with an optional findings file.</summary>
-public class AssessSettings : RegisterSettings
+public class AssessSettings : SampledSettings
 {
     /// <summary>Component of the register.</summary>
     [CommandArgument(0, "[COMPONENT]")]
@@ -35,7 +35,7 @@ public class AssessSettings : RegisterSettings
 
     /// <summary>Updating route.</summary>
     [CommandOption("--route <ROUTE>")]
-    [Description("Updating route: auto (first order, simulation where first order is unreliable), first-order or simulation.")]
+    [Description("Route: auto (one weighted sample set per component, first order below its resolution and as a cross-check), first-order (fast estimate) or simulation (the sample set alone).")]
     [DefaultValue("auto")]
     public string Route { get; init; } = "auto";
 
@@ -66,6 +66,7 @@ public class AssessSettings : RegisterSettings
         if (HorizonYears is { } h && (!(h > 0) || !double.IsFinite(h))) return ValidationResult.Error($"--horizon-years '{HorizonYears?.ToString(CultureInfo.InvariantCulture)}' must be a positive number of years.");
         if (StepsPerYear is < 1 or > 12) return ValidationResult.Error($"--steps-per-year '{StepsPerYear.ToString(CultureInfo.InvariantCulture)}' must be a whole number from 1 to 12.");
         if (HorizonYears is > 200) return ValidationResult.Error($"--horizon-years '{HorizonYears?.ToString(CultureInfo.InvariantCulture)}' is more than 200 years of service.");
+        if (SamplingProblem() is { } sampling) return sampling;
         if (AsOf is not null && !DateOnly.TryParseExact(AsOf, "yyyy-MM-dd", CultureInfo.InvariantCulture, DateTimeStyles.None, out _))
         {
             return ValidationResult.Error($"--as-of '{AsOf}' is not an ISO 8601 date (yyyy-MM-dd).");
@@ -112,4 +113,36 @@ public sealed class PlanSettings : AssessSettings
         if (TargetBeta is { } b && !double.IsFinite(b)) return ValidationResult.Error($"--target-beta '{b.ToString(CultureInfo.InvariantCulture)}' must be a finite number.");
         return ValidationResult.Success();
     }
+}
+
+/// <summary>Options of the commands that compute numbers by the sampling route: accuracy and seed.</summary>
+public abstract class SampledSettings : RegisterSettings
+{
+    /// <summary>Target CoV of the sampling route.</summary>
+    [CommandOption("--target-cov <COV>")]
+    [Description("Sampling route: target coefficient of variation of each cumulative Pf (0.005 to 0.5; default 0.05).")]
+    [DefaultValue(0.05)]
+    public double TargetCov { get; init; } = 0.05;
+
+    /// <summary>Sample cap of the sampling route.</summary>
+    [CommandOption("--max-samples <N>")]
+    [Description("Sampling route: largest number of samples per component and set of findings (8000 to 10000000; default 128000).")]
+    [DefaultValue(128_000)]
+    public int MaxSamples { get; init; } = 128_000;
+
+    /// <summary>Seed of the sampling route.</summary>
+    [CommandOption("--seed <N>")]
+    [Description("Sampling route: random-number seed (default 1); every number is reproducible from it.")]
+    [DefaultValue(1)]
+    public int Seed { get; init; } = 1;
+
+    /// <summary>The sampling settings of the options.</summary>
+    public Application.SamplingSettings Sampling() => new(TargetCov, MaxSamples, Seed);
+
+    /// <inheritdoc />
+    public override ValidationResult Validate() => SamplingProblem() ?? base.Validate();
+
+    /// <summary>The first problem with the sampling options as a validation error, or null.</summary>
+    protected ValidationResult? SamplingProblem() =>
+        Sampling().Problems() is { Count: > 0 } problems ? ValidationResult.Error(string.Join(" ", problems)) : null;
 }

@@ -94,7 +94,7 @@ public sealed record RegisterChecked(string Register, int SchemaVersion, bool He
 }
 
 /// <summary>Settings of <c>register assess</c>.</summary>
-public sealed class RegisterAssessSettings : RegisterSettings
+public sealed class RegisterAssessSettings : SampledSettings
 {
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
@@ -150,6 +150,7 @@ public sealed class RegisterAssessCommand(CliHost host) : CliCommand<RegisterAss
             Force = settings.Force,
             Shard = shard,
             Parallelism = settings.Parallel,
+            Sampling = settings.Sampling(),
         };
         var registerPath = settings.RegisterPath(Host);
         using var store = RegisterAccess.Open(Host, registerPath);

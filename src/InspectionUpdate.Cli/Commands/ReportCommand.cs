@@ -9,7 +9,7 @@ using Spectre.Console.Cli;
 namespace InspectionUpdate.Cli.Commands;
 
 /// <summary>Settings of <c>report</c>.</summary>
-public sealed class ReportSettings : RegisterSettings
+public sealed class ReportSettings : SampledSettings
 {
     /// <summary>Only this component.</summary>
     [CommandArgument(0, "[COMPONENT]")]
@@ -40,7 +40,7 @@ public sealed class ReportSettings : RegisterSettings
 
     /// <summary>Updating route.</summary>
     [CommandOption("--route <ROUTE>")]
-    [Description("Updating route: auto, first-order or simulation.")]
+    [Description("Route: auto (sample set with first-order cross-check), first-order or simulation.")]
     [DefaultValue("auto")]
     public string Route { get; init; } = "auto";
 }
@@ -54,7 +54,7 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         if (!(settings.TargetAnnualPf > 0 && settings.TargetAnnualPf < 1)) throw CliException.BadInput("--target-annual-pf", settings.TargetAnnualPf, "must be a probability strictly between 0 and 1.");
         var asOf = settings.AsOf is null ? Host.Today() : RegisterAccess.Date("--as-of", settings.AsOf);
         var registerPath = settings.RegisterPath(Host);
-        var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null);
+        var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null) { Sampling = settings.Sampling() };
         var result = Produce(Host, registerPath, settings.Component, Host.Resolve(settings.Out), options, settings.Json, Path.GetFileNameWithoutExtension(registerPath));
         if (settings.Json) WriteJson(result.Document);
         else

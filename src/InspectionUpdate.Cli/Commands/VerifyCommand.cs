@@ -5,6 +5,7 @@ using InspectionUpdate.Cli.Verification;
 using InspectionUpdate.Probability;
 using InspectionUpdate.Reliability;
 using InspectionUpdate.Reliability.Verification;
+using Spectre.Console;
 using Spectre.Console.Cli;
 
 namespace InspectionUpdate.Cli.Commands;
@@ -16,13 +17,39 @@ public sealed class VerifySettings : CommonSettings
     [CommandOption("--write-doc <FILE>")]
     [Description("Also write the table as Markdown to FILE (the project keeps it in docs/verification.md).")]
     public string? WriteDoc { get; init; }
+
+    /// <summary>Which benchmark problems to run: all, quick or none.</summary>
+    [CommandOption("--benchmarks <SET>")]
+    [Description("Benchmark-collection problems to run with every route: all (default, about half a minute), quick (six problems, a few seconds) or none.")]
+    [DefaultValue("all")]
+    public string Benchmarks { get; init; } = "all";
+
+    /// <summary>The parsed <see cref="Benchmarks"/>.</summary>
+    public BenchmarkSet BenchmarkSet => Benchmarks.ToLowerInvariant() switch
+    {
+        "all" => BenchmarkSet.All,
+        "quick" => BenchmarkSet.Quick,
+        _ => BenchmarkSet.None,
+    };
+
+    /// <inheritdoc />
+    public override ValidationResult Validate()
+    {
+        var baseResult = base.Validate();
+        if (!baseResult.Successful) return baseResult;
+        return Benchmarks.ToLowerInvariant() is "all" or "quick" or "none"
+            ? ValidationResult.Success()
+            : ValidationResult.Error($"--benchmarks '{Benchmarks}' must be all, quick or none.");
+    }
 }
 
 /// <summary>
 /// Runs published checks through the engine's side-by-side comparison (FORM, SORM, importance sampling, subset
 /// simulation), then the updating and planning checks of <see cref="UpdatingVerificationCases"/>, and compares each
 /// method with its expected value. The cases are data (a limit state, its inputs and
-/// the published or closed-form value); every obtained number comes from the engine.
+/// the published or closed-form value); every obtained number comes from the engine. Then the benchmark-collection
+/// problems of <see cref="BenchmarkProblems"/> with every route (<see cref="BenchmarkRunner"/>): the command fails when
+/// a case is outside its tolerance or a benchmark result is wrong and converged (flagged results do not fail it).
 /// </summary>
 public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(host)
 {
@@ -74,28 +101,53 @@ public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(hos
             return list;
         });
 
+        var set = settings.BenchmarkSet;
+        var problems = BenchmarkTable.Problems(set);
+        var benchmarkRows = problems.Count == 0 ? []
+            : ProgressRunner.Run(Host, settings.Json, "Running benchmark problems", progress =>
+                BenchmarkRunner.Run(problems, BenchmarkOptions.Default, null, progress, cancellation));
+        var summaries = BenchmarkRunner.Summarize(benchmarkRows);
+        var wrong = benchmarkRows.Count(r => r.Outcome == BenchmarkOutcome.WrongAndConverged);
+
         if (settings.WriteDoc is not null)
         {
             var path = Host.Resolve(settings.WriteDoc);
             Directory.CreateDirectory(Path.GetDirectoryName(path)!);
-            File.WriteAllText(path, VerificationTable.Markdown(rows, CliApp.Version, Host.Today()));
+            var section = benchmarkRows.Count == 0 ? null : BenchmarkTable.Markdown(benchmarkRows, summaries, set);
+            File.WriteAllText(path, VerificationTable.Markdown(rows, CliApp.Version, Host.Today(), section));
         }
 
         var failed = rows.Count(r => !r.Pass);
         if (settings.Json)
         {
             WriteJson(new VerifyDocument(rows.Select(r => new VerifyRowDocument(r.Case, r.Source, r.Quantity, r.Method, r.Expected, r.Obtained, r.RelativeDifference, r.Tolerance, r.Pass, r.Note)).ToArray(),
-                rows.Count - failed, failed, Reporting.Cautions.Line));
+                rows.Count - failed, failed,
+                new BenchmarkDocument(set.ToString().ToLowerInvariant(),
+                    benchmarkRows.Select(r => new BenchmarkRowDocument(r.Problem.Id, r.Problem.ReferenceSource, r.RouteName, r.Problem.ReferencePf,
+                        r.Result?.FailureProbability is { } p && double.IsFinite(p) ? p : null, r.Result?.CoefficientOfVariation is { } c && double.IsFinite(c) ? c : null,
+                        r.Result?.LimitStateEvaluations, r.Result?.CheckEvaluations, r.Result?.Converged, BenchmarkTable.Outcome(r.Outcome).ToLowerInvariant().Replace(' ', '_'),
+                        r.Result?.Flags ?? [], r.Result?.Note)).ToArray(),
+                    summaries.Select(x => new BenchmarkSummaryDocument(x.Route, x.Passed, x.Flagged, x.FlaggedOnlyByCrossCheck, x.WrongAndConverged, x.NotRun,
+                        double.IsFinite(x.MedianEvaluations) ? x.MedianEvaluations : null, double.IsFinite(x.MedianCheckEvaluations) ? x.MedianCheckEvaluations : null)).ToArray(),
+                    wrong),
+                Reporting.Cautions.Line));
         }
         else
         {
             Table(VerificationTable.Headers, rows.Select(VerificationTable.Cells));
             Line($"{rows.Count - failed} of {rows.Count} checks pass.");
+            if (benchmarkRows.Count > 0)
+            {
+                Table(BenchmarkTable.Headers, benchmarkRows.Select(BenchmarkTable.Cells), "Benchmark collections: every route on every problem");
+                Table(BenchmarkTable.SummaryHeaders, summaries.Select(BenchmarkTable.SummaryCells), "Per route");
+                Line($"{wrong} benchmark results wrong and converged (pass: converged and within 5 %, simulation within 3 standard errors; flagged: outside, but said so by the engine).");
+            }
+
             if (settings.WriteDoc is not null) Line("Written to " + Host.Resolve(settings.WriteDoc));
             Caution();
         }
 
-        return failed == 0 ? ExitCodes.Ok : ExitCodes.VerificationFailed;
+        return failed == 0 && wrong == 0 ? ExitCodes.Ok : ExitCodes.VerificationFailed;
     }
 
     private static double? PublishedValue(PublishedSorm s, string method) =>
@@ -144,5 +196,16 @@ public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(hos
 /// <summary>--json row of <c>verify</c>.</summary>
 public sealed record VerifyRowDocument(string Case, string Source, string Quantity, string Method, double Expected, double Obtained, double RelativeDifference, double Tolerance, bool Pass, string? Note);
 
+/// <summary>--json row of <c>verify</c>'s benchmark table (outcome: pass, flagged, wrong or not_run).</summary>
+public sealed record BenchmarkRowDocument(string Problem, string Source, string Route, double Reference, double? Obtained, double? CoefficientOfVariation,
+    long? Evaluations, long? CheckEvaluations, bool? Converged, string Outcome, IReadOnlyList<string> Flags, string? Note);
+
+/// <summary>--json per-route summary of <c>verify</c>'s benchmark table.</summary>
+public sealed record BenchmarkSummaryDocument(string Route, int Passed, int Flagged, int FlaggedOnlyByCrossCheck, int WrongAndConverged, int NotRun,
+    double? MedianEvaluations, double? MedianCheckEvaluations);
+
+/// <summary>--json benchmark part of <c>verify</c>.</summary>
+public sealed record BenchmarkDocument(string Set, IReadOnlyList<BenchmarkRowDocument> Rows, IReadOnlyList<BenchmarkSummaryDocument> Summary, int WrongAndConverged);
+
 /// <summary>--json of <c>verify</c>.</summary>
-public sealed record VerifyDocument(IReadOnlyList<VerifyRowDocument> Rows, int Passed, int Failed, string Caution);
+public sealed record VerifyDocument(IReadOnlyList<VerifyRowDocument> Rows, int Passed, int Failed, BenchmarkDocument Benchmarks, string Caution);

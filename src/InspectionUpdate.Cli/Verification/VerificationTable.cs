@@ -40,7 +40,11 @@ public static class VerificationTable
     }
 
     /// <summary>The Markdown page docs/verification.md.</summary>
-    public static string Markdown(IReadOnlyList<VerificationTableRow> rows, string toolVersion, DateOnly date)
+    /// <param name="rows">The verification cases.</param>
+    /// <param name="toolVersion">The tool's version.</param>
+    /// <param name="date">The date of the run.</param>
+    /// <param name="benchmarkSection">The Markdown section of the benchmark collections (<see cref="BenchmarkTable.Markdown"/>), or null.</param>
+    public static string Markdown(IReadOnlyList<VerificationTableRow> rows, string toolVersion, DateOnly date, string? benchmarkSection = null)
     {
         ArgumentNullException.ThrowIfNull(rows);
         var s = new StringBuilder();
@@ -59,8 +63,9 @@ public static class VerificationTable
 
         var passed = rows.Count(r => r.Pass);
         s.Append('\n').Append(passed.ToString(CultureInfo.InvariantCulture)).Append(" of ").Append(rows.Count.ToString(CultureInfo.InvariantCulture))
-            .Append(" cases pass.\n\n")
-            .Append("These checks show that the engine reproduces known results on this installation; they do not validate a model for a ")
+            .Append(" cases pass.\n\n");
+        if (benchmarkSection is not null) s.Append(benchmarkSection).Append('\n');
+        s.Append("These checks show that the engine reproduces known results on this installation; they do not validate a model for a ")
             .Append("particular asset. Results support, and never replace, engineering judgement; defer to the applicable codes and licensed practice.\n");
         return s.ToString();
     }

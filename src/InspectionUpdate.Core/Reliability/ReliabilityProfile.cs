@@ -55,6 +55,9 @@ public sealed record ProfilePoint
     /// <summary>Coefficient of variation of a simulated Pf, null for first order.</summary>
     public double? CoefficientOfVariation { get; init; }
 
+    /// <summary>Set where <see cref="CumulativePf"/> is only bounded from above (with three standard errors); null otherwise.</summary>
+    public double? UpperBound { get; init; }
+
     /// <summary>Limit-state evaluations spent on this step.</summary>
     public int Evaluations { get; init; }
 

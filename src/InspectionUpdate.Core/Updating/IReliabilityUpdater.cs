@@ -38,6 +38,12 @@ public sealed record UpdatedEstimate
     /// <summary>Coefficient of variation when simulated.</summary>
     public double? CoefficientOfVariation { get; init; }
 
+    /// <summary>
+    /// Set where the number is only bounded: the true value lies at or below this (with three standard errors), and the
+    /// reported value is the best estimate under it. Null for an ordinary estimate.
+    /// </summary>
+    public double? UpperBound { get; init; }
+
     /// <summary>Why the route was chosen, or what went wrong.</summary>
     public string? Note { get; init; }
 }

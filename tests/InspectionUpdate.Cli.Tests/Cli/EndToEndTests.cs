@@ -155,7 +155,7 @@ public sealed class EndToEndTests
     public void Verify_passes_every_case_and_writes_the_markdown_table()
     {
         using var cli = new CliRunner();
-        var run = cli.Run("verify", "--json", "--write-doc", "v.md");
+        var run = cli.Run("verify", "--json", "--benchmarks", "none", "--write-doc", "v.md");
         Assert.Equal(ExitCodes.Ok, run.ExitCode);
         var doc = run.Json();
         Assert.Equal(0, doc.GetProperty("failed").GetInt32());
@@ -166,6 +166,55 @@ public sealed class EndToEndTests
         Assert.Contains("first-order updating", methods);
         Assert.Contains("importance-sampling updating", methods);
         Assert.Contains("planner (first order)", methods);
+        Assert.Equal(0, doc.GetProperty("benchmarks").GetProperty("rows").GetArrayLength());
+    }
+
+    [Fact]
+    [Trait("Category", "Statistical")]
+    [Reference("Reference Pf of RP107 (closed form Φ(−5)), RP22, RP57, RP110, four-branch (closed forms or quadrature) and RP14 (otbenchmark table, confirmed by crude Monte Carlo): tests/InspectionUpdate.Core.Tests/data/benchmarks")]
+    public void Verify_quick_benchmarks_show_every_route_with_none_wrong_and_converged()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("verify", "--json", "--benchmarks", "quick", "--write-doc", "v.md");
+        Assert.Equal(ExitCodes.Ok, run.ExitCode);
+        var benchmarks = run.Json().GetProperty("benchmarks");
+        Assert.Equal("quick", benchmarks.GetProperty("set").GetString());
+        Assert.Equal(0, benchmarks.GetProperty("wrong_and_converged").GetInt32());
+        var rows = benchmarks.GetProperty("rows").EnumerateArray().ToArray();
+        var routes = rows.Select(r => r.GetProperty("route").GetString()).Distinct().ToArray();
+        Assert.Equal(6 * routes.Length, rows.Length);
+        Assert.Contains("FORM (multi-start)", routes);
+        Assert.Contains("subset simulation", routes);
+        Assert.Equal(7, routes.Length);
+
+        // RP107 is linear in standard normal space: FORM is exact (Φ(−5) = 2.8665e-7) and passes.
+        var rp107 = rows.Single(r => r.GetProperty("problem").GetString() == "RP107" && r.GetProperty("route").GetString() == "FORM (multi-start)");
+        Assert.Equal("pass", rp107.GetProperty("outcome").GetString());
+        Assert.Equal(2.86652e-7, rp107.GetProperty("obtained").GetDouble(), 1e-11);
+
+        // RP14 (FORM about 9 % low) and RP57 (design point of the wrong branch) are flagged by the simulation check, never passed.
+        foreach (var id in new[] { "RP14", "RP57" })
+        {
+            var form = rows.Single(r => r.GetProperty("problem").GetString() == id && r.GetProperty("route").GetString() == "FORM (multi-start)");
+            Assert.Equal("flagged", form.GetProperty("outcome").GetString());
+            Assert.Contains(form.GetProperty("flags").EnumerateArray(), f => f.GetString()!.StartsWith("simulation check", StringComparison.Ordinal));
+        }
+
+        var summary = benchmarks.GetProperty("summary").EnumerateArray().ToArray();
+        Assert.Equal(routes.Length, summary.Length);
+        Assert.All(summary, s => Assert.Equal(0, s.GetProperty("wrong_and_converged").GetInt32()));
+        var md = File.ReadAllText(cli.PathOf("v.md"));
+        Assert.Contains("| problem | source | route | reference | obtained | evaluations | converged | pass |", md, StringComparison.Ordinal);
+        Assert.Contains("| route | passed | flagged (cross-check only) | wrong and converged |", md, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Verify_refuses_an_unknown_benchmark_set_naming_the_value()
+    {
+        using var cli = new CliRunner();
+        var run = cli.Run("verify", "--benchmarks", "some");
+        Assert.Equal(ExitCodes.BadInput, run.ExitCode);
+        Assert.Contains("--benchmarks 'some'", run.Error, StringComparison.Ordinal);
     }
 
     [Fact]

@@ -42,6 +42,13 @@ public sealed record SormResult
     /// <summary>What went wrong, or a note (e.g. curvatures that invalidate a formula), or null.</summary>
     public string? Diagnostic { get; init; }
 
+    /// <summary>
+    /// Set by <see cref="SormSolver.SolveWithCurvatureCheck"/> when the curvatures taken with two finite-difference
+    /// steps disagree (a kink, a branch switch or noise near the design point): the SORM estimates are then not to be
+    /// trusted even where the formulas are valid. Null when the check passed or was not run.
+    /// </summary>
+    public string? CurvatureWarning { get; init; }
+
     /// <summary>Limit-state evaluations for the Hessian (FORM's own are in <see cref="Form"/>).</summary>
     public required long LimitStateEvaluations { get; init; }
 }

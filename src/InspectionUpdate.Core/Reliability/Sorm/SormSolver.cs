@@ -90,6 +90,104 @@ public static class SormSolver
         };
     }
 
+    /// <summary>Relative change of a SORM factor (1 − βκ) above which two curvature estimates are said to disagree.</summary>
+    public const double CurvatureAgreementTolerance = 0.05;
+
+    /// <summary>
+    /// SORM around an existing FORM result with a check of the curvatures: the Hessian is taken with the given step and
+    /// with <paramref name="checkFactor"/> times it, and the result carries a <see cref="SormResult.CurvatureWarning"/>
+    /// when max |β|·|κᵢ(h) − κᵢ(kh)| exceeds <see cref="CurvatureAgreementTolerance"/> (so a factor 1 − βκᵢ moves by
+    /// more than 5 %). A smooth surface gives curvatures that agree to O(h²); a kink or a branch switch within a step
+    /// of the design point gives second differences that scale as 1/h and disagree.
+    /// </summary>
+    /// <param name="problem">The problem FORM was run on.</param>
+    /// <param name="form">Its FORM result.</param>
+    /// <param name="finiteDifferenceStep">Step of the Hessian differences in u, in (1e-6, 0.1]; the estimates use this one.</param>
+    /// <param name="checkFactor">Ratio of the check step to the step, in [2, 20]; the check step is capped at 0.1.</param>
+    /// <exception cref="ArgumentOutOfRangeException">The step or the factor is out of range.</exception>
+    public static SormResult SolveWithCurvatureCheck(ReliabilityProblem problem, FormResult form, double finiteDifferenceStep = 1e-3, double checkFactor = 4)
+    {
+        if (!(checkFactor >= 2 && checkFactor <= 20))
+        {
+            throw new ArgumentOutOfRangeException(nameof(checkFactor), checkFactor, "The check factor must lie in [2, 20].");
+        }
+
+        var primary = Solve(problem, form, finiteDifferenceStep);
+        var checkStep = Math.Min(0.1, finiteDifferenceStep * checkFactor);
+        var check = Solve(problem, form, checkStep);
+        var evaluations = primary.LimitStateEvaluations + check.LimitStateEvaluations;
+        var scale = Math.Max(1, double.IsFinite(form.Beta) ? Math.Abs(form.Beta) : 1);
+        var worst = 0.0;
+        for (var i = 0; i < primary.Curvatures.Count; i++)
+        {
+            var d = Math.Abs(primary.Curvatures[i] - check.Curvatures[i]);
+            worst = double.IsNaN(d) ? double.PositiveInfinity : Math.Max(worst, d);
+        }
+
+        string? warning = null;
+        if (scale * worst > CurvatureAgreementTolerance)
+        {
+            warning = string.Create(CultureInfo.InvariantCulture,
+                $"Curvatures unstable: with steps {finiteDifferenceStep:G2} and {checkStep:G2} they differ by up to {worst:G3} (|β|·Δκ = {scale * worst:G3} > {CurvatureAgreementTolerance:G2}); the surface has a kink, a branch switch or noise near the design point, and the SORM estimates are not reliable.");
+        }
+        else if (primary.Converged && problem.Transformation.StandardDimension > 1)
+        {
+            var (offset, probes) = SecondOrderModelOffset(problem, form, finiteDifferenceStep);
+            evaluations += probes;
+            if (offset > SecondOrderModelTolerance)
+            {
+                warning = string.Create(CultureInfo.InvariantCulture,
+                    $"The second-order model does not hold one standard deviation from the design point along the surface: the surface there lies {offset:G3} standard deviations from the quadratic fit (> {SecondOrderModelTolerance:G2}); higher-order terms dominate and FORM and SORM may be far off.");
+            }
+        }
+
+        return primary with { CurvatureWarning = warning, LimitStateEvaluations = evaluations };
+    }
+
+    /// <summary>Largest distance (standard deviations) between the surface and its quadratic fit at the probes, beyond which SORM is flagged.</summary>
+    public const double SecondOrderModelTolerance = 0.25;
+
+    /// <summary>
+    /// Probes G at u* ± δt for the n − 1 tangent directions t of the rotation (δ = 1 standard deviation, where the
+    /// probability mass near the design point lies) and returns max |G − (∇G·δt + ½δ²tᵀHt)| / ‖∇G‖: how far the
+    /// surface lies from its second-order model there, in standard deviations. Directions beyond 50 are not probed.
+    /// </summary>
+    private static (double Offset, long Evaluations) SecondOrderModelOffset(ReliabilityProblem problem, FormResult form, double step)
+    {
+        const double delta = 1.0;
+        var n = problem.Transformation.StandardDimension;
+        var function = new StandardSpaceLimitState(problem.Transformation, problem.LimitState, step / 10);
+        var u = form.DesignPointU.ToArray();
+        var gradient = new double[n];
+        var g0 = function.ValueAndGradient(u, gradient);
+        var gradNorm = Math.Sqrt(gradient.Sum(v => v * v));
+        var hessian = function.Hessian(u);
+        var r = Rotation(form.Alpha.ToArray());
+        var worst = 0.0;
+        var p = new double[n];
+        for (var k = 0; k < Math.Min(n - 1, 50); k++)
+        {
+            var quad = 0.0;
+            var slope = 0.0;
+            for (var i = 0; i < n; i++)
+            {
+                slope += gradient[i] * r[k, i];
+                for (var j = 0; j < n; j++) quad += r[k, i] * hessian[i, j] * r[k, j];
+            }
+
+            foreach (var sign in new[] { -1.0, 1.0 })
+            {
+                for (var i = 0; i < n; i++) p[i] = u[i] + sign * delta * r[k, i];
+                var g = function.Value(p);
+                var model = g0 + sign * delta * slope + 0.5 * delta * delta * quad;
+                var offset = Math.Abs(g - model) / gradNorm;
+                worst = double.IsFinite(offset) ? Math.Max(worst, offset) : double.PositiveInfinity;
+            }
+        }
+
+        return (worst, function.Evaluations);
+    }
+
     /// <summary>
     /// The three estimates for a given β and principal curvatures (Breitung's sign convention: κ &gt; 0 curves towards
     /// the origin). Public so the curvatures of any surface can be corrected, e.g. in tests and the updating layer.
@@ -116,6 +214,13 @@ public static class SormSolver
     private static SormEstimate Complement(SormEstimate e)
     {
         if (!e.Valid) return e;
+        if (!(e.FailureProbability <= 1))
+        {
+            // Strong curvature of the safe domain (e.g. many dimensions): the asymptotic formula exceeds 1 there.
+            return Invalid(e.Method, string.Create(CultureInfo.InvariantCulture,
+                $"β < 0: the formula applied to the safe domain gives {e.FailureProbability:G3}, not a probability."));
+        }
+
         var p = 1 - e.FailureProbability;
         return e with { FailureProbability = p, GeneralizedBeta = -StandardNormal.InverseCdf(p), Note = "β < 0: applied to the safe domain and complemented." };
     }
@@ -183,7 +288,9 @@ public static class SormSolver
         return p is > 0 and < 1 ? Valid(name, p) : Invalid(name, string.Create(CultureInfo.InvariantCulture, $"The three-term sum {p:G4} is not a probability."));
     }
 
-    private static SormEstimate Valid(string name, double p) => new(name, p, -StandardNormal.InverseCdf(Math.Clamp(p, 0, 1)), true, null);
+    private static SormEstimate Valid(string name, double p) => p is >= 0 and <= 1
+        ? new(name, p, -StandardNormal.InverseCdf(p), true, null)
+        : Invalid(name, string.Create(CultureInfo.InvariantCulture, $"The formula gives {p:G3}, not a probability."));
 
     private static SormEstimate Invalid(string name, string note) => new(name, double.NaN, double.NaN, false, note);
 

@@ -18,15 +18,14 @@ namespace InspectionUpdate.Updating.Sampling;
 /// Kroese 2004, The Cross-Entropy Method, ch. 3) then moves each of these centres to the weighted mean of a pilot
 /// batch's samples that failed by its time; a period with no usable design point gets a centre from its failures.
 /// The pilot is discarded.</para>
-/// <para>Growth: the set doubles while the cumulative Pf at the end of some renewal period is above 1e-8 and misses
-/// the target CoV or the minimum effective number of failure samples, up to the cap. Reproducible from the seed.</para>
+/// <para>Growth: the set doubles while a yearly cumulative Pf of some renewal period that may lie above the decision
+/// floor misses the target CoV or the minimum effective number of failure samples, up to the cap. Reproducible from
+/// the seed.</para>
 /// </remarks>
 internal sealed class ComponentSampleSet
 {
     private const string Id = UpdatingCase.SingleComponentId;
     private const double Inflation = 1.1;
-    private const double ResolutionFloor = 1e-8;
-    private static readonly double[] AnchorFractions = [1.0, 0.7, 0.5, 0.35, 0.22, 0.12, 0.06, 0.03, 0.8, 0.6, 0.42, 0.28, 0.17, 0.09, 0.045, 0.02, 0.9, 0.65, 0.3, 0.15];
 
     private readonly SampleSetOptions _options;
     private readonly NatafTransformation _t;
@@ -39,6 +38,9 @@ internal sealed class ComponentSampleSet
     private readonly EvidenceEvent[] _events;
     private readonly List<double> _x = [];
     private readonly List<double> _logW = [];
+    private readonly List<double> _u = [];
+    private readonly List<double> _logTarget = [];
+    private readonly List<(SamplingMixture Mixture, int Count)> _batches = [];
     private readonly List<double>[] _times;
     private readonly Random _rng;
     private SamplingMixture _mixture = null!;
@@ -88,6 +90,9 @@ internal sealed class ComponentSampleSet
 
     /// <summary>Number of renewal periods.</summary>
     public int Periods => _periodStart.Length;
+
+    /// <summary>Length in years of renewal period e as sampled (to the next repair, or to the horizon).</summary>
+    public double PeriodLength(int period) => _periodLength[period];
 
     /// <summary>Start of renewal period e, years since entry into service.</summary>
     public double PeriodStart(int period) => _periodStart[period];
@@ -302,6 +307,9 @@ internal sealed class ComponentSampleSet
 
         _x.Clear();
         _logW.Clear();
+        _u.Clear();
+        _logTarget.Clear();
+        _batches.Clear();
         _order = null;
         foreach (var list in _times) list.Clear();
         _mixture = Mixture(mean, smooth, Distinct(moved), scaled, scaledLogDet);
@@ -309,14 +317,34 @@ internal sealed class ComponentSampleSet
         var n = _options.Samples;
         Draw(n);
         Weighted = Weigh(_logW.ToArray());
-        while (_logW.Count < _options.MaxSamples && Unresolved())
+        var refinements = 0;
+        while (_logW.Count < _options.MaxSamples && Unresolved() is { } missed)
         {
+            // Refinement: a new centre at the weighted mean of the failures by the earliest unresolved time, and as
+            // many new samples again from the widened mixture. All samples are then weighed against the whole
+            // sampling density (the balance heuristic of multiple importance sampling, Veach & Guibas 1995), so
+            // earlier draws stay valid.
+            var centre = FailedMean(missed.Period, missed.Local, out var effective);
+            if (centre is null || effective < 3)
+            {
+                // Too few failures by that time to aim at it: one cross-entropy rung instead, the mean of the earliest
+                // fifth (by weight) of the failures by the next covered time, a step towards the earlier, rarer failures.
+                centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(missed.Period, missed.Local), 0.2, out effective);
+            }
+
+            if (centre is not null && effective >= 3 && _mixture.Centres.All(c => Distance(c, centre) > 0.25))
+            {
+                _mixture = Mixture(mean, smooth, [.. _mixture.Centres.Skip(smooth ? 1 : 0), centre], scaled, scaledLogDet);
+                refinements++;
+            }
+
             Draw(Math.Min(_logW.Count, _options.MaxSamples - _logW.Count));
+            Reweigh();
             Weighted = Weigh(_logW.ToArray());
         }
 
         Description = string.Create(CultureInfo.InvariantCulture,
-            $"one weighted sample set: {_logW.Count} samples, ESS {Weighted.EffectiveSampleSize:F0}; mixture of the prior, {(smooth ? "the Laplace posterior, " : "")}{_mixture.Centres.Count - (smooth ? 1 : 0)} failure centre(s) ({anchors.Count} design point(s), {movedCount} moved by a cross-entropy step)")
+            $"one weighted sample set: {_logW.Count} samples, ESS {Weighted.EffectiveSampleSize:F0}; mixture of the prior, {(smooth ? "the Laplace posterior, " : "")}{_mixture.Centres.Count - (smooth ? 1 : 0)} failure centre(s) ({anchors.Count} design point(s), {movedCount} moved by a cross-entropy step, {refinements} added where the set was refined)")
             + (laplaceNote is null ? "" : "; " + laplaceNote);
     }
 
@@ -358,35 +386,58 @@ internal sealed class ComponentSampleSet
         return Math.Sqrt(s);
     }
 
-    /// <summary>Design points of g(x, t) = 0 at several times per renewal period, in posterior-whitened coordinates.</summary>
+    /// <summary>
+    /// Design points of g(x, t) = 0 in posterior-whitened coordinates, at times chosen per renewal period so that their
+    /// reliability indices step through the levels 0, 1, …, 6 (a β(t) scan backwards from the period's end, each search
+    /// started from the last point): each level of Pf across the horizon gets a sampling centre of its own.
+    /// </summary>
     private List<(int Period, double Local, double[] Centre)> Anchors(double[] mean, double[,] lower)
     {
         var shifted = new ShiftedTransformation(_t, mean, lower);
         var result = new List<(int, double, double[])>();
-        var fractions = AnchorFractions.Take(_options.AnchorsPerPeriod).OrderByDescending(f => f).ToArray();
         for (var e = 0; e < Periods; e++)
         {
+            var steps = Math.Clamp((int)Math.Ceiling(_periodLength[e]), 8, ScanSteps);
             IReadOnlyList<double>? start = null;
-            foreach (var f in fractions)
+            var scan = new List<(double Local, double Beta, double[] U)>();
+            for (var k = steps; k >= 1; k--)
             {
-                var local = _periodLength[e] * f;
-                var time = _periodStart[e] + local;
-                if (!(local > 0)) continue;
-                var form = FormSolver.Solve(new ReliabilityProblem(shifted, Model.FailureLimitState(Id, time)), _options.Form with { StartPoint = start });
+                var local = _periodLength[e] * k / steps;
+                var form = FormSolver.Solve(new ReliabilityProblem(shifted, Model.FailureLimitState(Id, _periodStart[e] + local)), _options.Form with { StartPoint = start });
                 Evaluations += form.LimitStateEvaluations;
-                var usable = form.DesignPointU.All(double.IsFinite) && (form.Converged || form.EndsOnLimitState);
-                if (!usable) continue;
+                if (!(form.DesignPointU.All(double.IsFinite) && (form.Converged || form.EndsOnLimitState))) continue;
                 start = form.DesignPointU;
-                // Points far out in the posterior's own units carry no probability worth sampling.
-                if (form.Beta > 8) continue;
                 var u = new double[_d];
                 shifted.ToU(form.DesignPointU.ToArray(), u);
-                result.Add((e, local, u));
+                scan.Add((local, form.Beta, u));
+                // Past the highest level the earlier times add nothing a planning decision needs.
+                if (form.Beta > BetaLevels[^1] + 0.5) break;
             }
+
+            if (scan.Count == 0) continue;
+            var chosen = new HashSet<int>();
+            foreach (var level in BetaLevels.Take(_options.AnchorsPerPeriod))
+            {
+                var best = -1;
+                for (var k = 0; k < scan.Count; k++)
+                {
+                    if (best < 0 || Math.Abs(scan[k].Beta - level) < Math.Abs(scan[best].Beta - level)) best = k;
+                }
+
+                if (Math.Abs(scan[best].Beta - level) <= 0.75 || level == BetaLevels[0]) chosen.Add(best);
+            }
+
+            foreach (var k in chosen.Order()) result.Add((e, scan[k].Local, scan[k].U));
         }
 
         return result;
     }
+
+    /// <summary>Reliability-index levels (posterior-whitened) that get a sampling centre, most probable first.</summary>
+    private static readonly double[] BetaLevels = [0, 1, 2, 3, 4, 5, 6, -1, 1.5, 2.5, 3.5, 4.5, 5.5];
+
+    /// <summary>Largest number of times of the β(t) scan per renewal period (one per year of the period, at least 8).</summary>
+    private const int ScanSteps = 60;
 
     /// <summary>Weighted mean (u-space) of the drawn samples failed by local time τ of a period, with the effective count.</summary>
     private double[]? FailedMean(int period, double local, out double effective)
@@ -409,8 +460,7 @@ internal sealed class ComponentSampleSet
             if (!(times[i] <= local)) continue;
             var w = Math.Exp(_logW[i] - top);
             if (w == 0) continue;
-            for (var k = 0; k < _m; k++) x[k] = _x[i * _m + k];
-            _t.ToStandard(x, u);
+            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
             total += w;
             total2 += w * w;
             for (var k = 0; k < _d; k++) mean[k] += w * u[k];
@@ -421,20 +471,97 @@ internal sealed class ComponentSampleSet
         return mean;
     }
 
-    private bool Unresolved()
+    /// <summary>The earliest yearly time of some period whose Pf, possibly at or above the decision floor, misses the target CoV or the minimum failure samples; null when none.</summary>
+    private (int Period, double Local)? Unresolved()
     {
         for (var e = 0; e < Periods; e++)
         {
-            var p = Weighted.Cumulative(e, _periodLength[e]);
-            if (!(p.Value >= ResolutionFloor)) continue;
-            if (p.CoefficientOfVariation > _options.TargetCoefficientOfVariation || p.EffectiveEvents < _options.MinimumFailureSamples) return true;
+            var steps = Math.Max(1, (int)Math.Ceiling(_periodLength[e]));
+            for (var k = 1; k <= steps; k++)
+            {
+                var local = Math.Min(k, _periodLength[e]);
+                var p = Weighted.Cumulative(e, local);
+                // Where the failures drawn are too few to judge, the next covered value bounds this one (Pf never falls).
+                var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(e, local);
+                if (!(bound >= _options.DecisionFloor)) continue;
+                if (p.CoefficientOfVariation > _options.TargetCoefficientOfVariation || p.EffectiveEvents < _options.MinimumFailureSamples) return (e, local);
+            }
         }
 
-        return false;
+        return null;
+    }
+
+    /// <summary>p + 3·se at the first later yearly time of the period with enough effective failure samples; 1 when none.</summary>
+    private double CoveredBoundAfter(int period, double local)
+    {
+        var at = CoveredTimeAfter(period, local);
+        var p = Weighted.Cumulative(period, at);
+        return p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : 1;
+    }
+
+    /// <summary>The first later yearly time of the period with enough effective failure samples, else the period's end.</summary>
+    private double CoveredTimeAfter(int period, double local)
+    {
+        for (var later = Math.Floor(local) + 1; ; later += 1)
+        {
+            var at = Math.Min(later, _periodLength[period]);
+            if (at >= _periodLength[period] || Weighted.Cumulative(period, at).EffectiveEvents >= _options.MinimumFailureSamples) return at;
+        }
+    }
+
+    /// <summary>Weighted mean (u-space) of the earliest failures of a period by a local time, carrying the given share of their weight.</summary>
+    private double[]? EarliestFailuresMean(int period, double byLocal, double share, out double effective)
+    {
+        effective = 0;
+        var times = _times[period];
+        var order = Enumerable.Range(0, times.Count).Where(i => double.IsFinite(times[i]) && times[i] <= byLocal && _logW[i] > double.NegativeInfinity)
+            .OrderBy(i => times[i]).ToArray();
+        if (order.Length == 0) return null;
+        var top = order.Max(i => _logW[i]);
+        var totalFailed = order.Sum(i => Math.Exp(_logW[i] - top));
+        var mean = new double[_d];
+        double sum = 0, sum2 = 0;
+        foreach (var i in order)
+        {
+            var w = Math.Exp(_logW[i] - top);
+            sum += w;
+            sum2 += w * w;
+            for (var k = 0; k < _d; k++) mean[k] += w * _u[i * _d + k];
+            if (sum >= share * totalFailed) break;
+        }
+
+        for (var k = 0; k < _d; k++) mean[k] /= sum;
+        effective = sum * sum / sum2;
+        return mean;
+    }
+
+    /// <summary>Recomputes every weight against the sampling density of all batches drawn so far.</summary>
+    private void Reweigh()
+    {
+        var total = _logW.Count;
+        var logShares = _batches.Select(b => Math.Log((double)b.Count / total)).ToArray();
+        var u = new double[_d];
+        var terms = new double[_batches.Count];
+        for (var i = 0; i < total; i++)
+        {
+            if (double.IsNegativeInfinity(_logTarget[i])) continue;
+            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
+            var max = double.NegativeInfinity;
+            for (var b = 0; b < _batches.Count; b++)
+            {
+                terms[b] = logShares[b] + _batches[b].Mixture.LogDensity(u);
+                if (terms[b] > max) max = terms[b];
+            }
+
+            var sum = 0.0;
+            foreach (var t in terms) sum += Math.Exp(t - max);
+            _logW[i] = _logTarget[i] - (max + Math.Log(sum));
+        }
     }
 
     private void Draw(int count)
     {
+        _batches.Add((_mixture, count));
         var u = new double[_d];
         var x = new double[_m];
         var local = new double[_localDimension];
@@ -442,16 +569,19 @@ internal sealed class ComponentSampleSet
         {
             _mixture.Draw(_rng, u);
             _t.ToPhysical(u, x);
-            var logW = SamplingMixture.LogPrior(u) - _mixture.LogDensity(u);
+            var logTarget = SamplingMixture.LogPrior(u);
             foreach (var ev in _events)
             {
-                logW += ev.LogLikelihood(x);
+                logTarget += ev.LogLikelihood(x);
                 Evaluations++;
-                if (double.IsNegativeInfinity(logW)) break;
+                if (double.IsNegativeInfinity(logTarget)) break;
             }
 
-            if (double.IsNaN(logW)) logW = double.NegativeInfinity;
+            if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;
+            var logW = double.IsNegativeInfinity(logTarget) ? logTarget : logTarget - _mixture.LogDensity(u);
+            _logTarget.Add(logTarget);
             _logW.Add(logW);
+            for (var k = 0; k < _d; k++) _u.Add(u[k]);
             for (var k = 0; k < _m; k++) _x.Add(x[k]);
             for (var e = 0; e < Periods; e++)
             {

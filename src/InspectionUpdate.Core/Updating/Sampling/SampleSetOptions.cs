@@ -37,8 +37,19 @@ public sealed record SampleSetOptions
     /// </summary>
     public double NegligibleProbability { get; init; } = 1e-9;
 
-    /// <summary>Times per renewal period at which a design point becomes a mixture component. Default 6.</summary>
-    public int AnchorsPerPeriod { get; init; } = 6;
+    /// <summary>
+    /// A sampled Pf(t) whose failure region is covered (at least <see cref="MinimumFailureSamples"/> effective failure
+    /// samples) and whose value plus three standard errors lies below this level is converged even above the target
+    /// CoV: no planning decision depends on more digits there. Default 1e-7, an order below the smallest annual
+    /// target of the JCSS Probabilistic Model Code table (β = 4.7, about 1.3e-6).
+    /// </summary>
+    public double DecisionFloor { get; init; } = 1e-7;
+
+    /// <summary>
+    /// Reliability-index levels per renewal period (0, 1, …, then half levels) whose design points become mixture
+    /// components. Default 7 (β = 0 to 6).
+    /// </summary>
+    public int AnchorsPerPeriod { get; init; } = 7;
 
     /// <summary>
     /// Horizon in years for the failure-time search of models without a closed form (times beyond it are censored:
@@ -81,7 +92,12 @@ public sealed record SampleSetOptions
             throw new ArgumentOutOfRangeException(nameof(NegligibleProbability), NegligibleProbability, "Must lie in [0, 1e-3).");
         }
 
-        if (AnchorsPerPeriod < 1 || AnchorsPerPeriod > 20) throw new ArgumentOutOfRangeException(nameof(AnchorsPerPeriod), AnchorsPerPeriod, "Must lie in 1–20.");
+        if (!(DecisionFloor >= NegligibleProbability && DecisionFloor < 1e-3))
+        {
+            throw new ArgumentOutOfRangeException(nameof(DecisionFloor), DecisionFloor, "Must lie in [NegligibleProbability, 1e-3).");
+        }
+
+        if (AnchorsPerPeriod < 1 || AnchorsPerPeriod > 13) throw new ArgumentOutOfRangeException(nameof(AnchorsPerPeriod), AnchorsPerPeriod, "Must lie in 1–13.");
         if (!(HorizonYears > 0 && HorizonYears <= 1000)) throw new ArgumentOutOfRangeException(nameof(HorizonYears), HorizonYears, "Must lie in (0, 1000] years.");
         if (SearchStepsPerYear < 1 || SearchStepsPerYear > 100) throw new ArgumentOutOfRangeException(nameof(SearchStepsPerYear), SearchStepsPerYear, "Must lie in 1–100.");
         if (!(CrossCheckMargin >= 0 && double.IsFinite(CrossCheckMargin))) throw new ArgumentOutOfRangeException(nameof(CrossCheckMargin), CrossCheckMargin, "Must be finite and ≥ 0.");

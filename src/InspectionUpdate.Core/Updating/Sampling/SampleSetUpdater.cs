@@ -25,6 +25,9 @@ namespace InspectionUpdate.Updating.Sampling;
 public sealed class SampleSetUpdater : IReliabilityUpdater
 {
     private const int CachedSets = 6;
+
+    /// <summary>Smallest share of a set's effective sample size that a reweighting for further findings may keep before a new set is drawn.</summary>
+    private const double MinimumEffectiveShare = 0.5;
     private readonly Lock _gate = new();
     private readonly LinkedList<Entry> _recent = new();
     private readonly ReliabilityUpdater _firstOrder;
@@ -49,7 +52,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         var (set, weighted, note) = Resolve(model, evidence, timeYears);
         var (period, local) = set.Locate(timeYears);
         var p = weighted.Cumulative(period, local);
-        return Decide(model, evidence, timeYears, p, weighted, set, note, out _);
+        return Decide(model, evidence, timeYears, p, weighted, set, note, crossCheck: false, out _);
     }
 
     /// <summary>The interval probability P(t₀ &lt; T_f ≤ t₁ | data) read directly from the sample set (same renewal period), or null.</summary>
@@ -88,7 +91,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             var (period, local) = set.Locate(t);
             var restarted = period != prevPeriod;
             var cumulative = weighted.Cumulative(period, local);
-            var estimate = Decide(model, evidence, t, cumulative, weighted, set, null, out var firstOrderValue);
+            var estimate = Decide(model, evidence, t, cumulative, weighted, set, null, crossCheck: Options.FirstOrderBelowResolution, out var firstOrderValue);
             var usedFirstOrder = estimate.Route != ComputationRoute.ImportanceSampling;
             var basePf = restarted ? 0.0 : prevPf;
             double interval;
@@ -138,6 +141,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
                 Route = estimate.Route,
                 Converged = estimate.Converged,
                 CoefficientOfVariation = estimate.CoefficientOfVariation,
+                UpperBound = estimate.UpperBound,
                 Evaluations = 0,
                 Note = note,
             });
@@ -176,7 +180,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
 
     /// <summary>The reported estimate at t: sampled where resolved, else first order below the negligible level, else the sampled value flagged.</summary>
     private UpdatedEstimate Decide(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, double t, SampledProbability p,
-        WeightedFailureTimes weighted, ComponentSampleSet set, string? note, out double? firstOrderValue)
+        WeightedFailureTimes weighted, ComponentSampleSet set, string? note, bool crossCheck, out double? firstOrderValue)
     {
         firstOrderValue = null;
         var evidenceProbability = evidence.Any(e => e is SizedIndication) ? double.NaN : Math.Exp(weighted.LogMeanWeight);
@@ -194,9 +198,13 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             };
         }
 
-        var resolved = p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples && p.CoefficientOfVariation <= Options.TargetCoefficientOfVariation;
+        var covered = p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples;
+        // Converged: the target CoV is met, or (with the failure region covered) the value is shown below the level
+        // at which no planning decision depends on more digits.
+        var belowDecisions = covered && p.Value + 3 * p.StandardError < Options.DecisionFloor;
+        var resolved = covered && (p.CoefficientOfVariation <= Options.TargetCoefficientOfVariation || belowDecisions);
         UpdatedEstimate? firstOrder = null;
-        if (Options.FirstOrderBelowResolution)
+        if (crossCheck || Options.FirstOrderBelowResolution && !resolved)
         {
             firstOrder = TryFirstOrder(model, evidence, t);
             if (firstOrder is not null && double.IsFinite(firstOrder.CumulativePf)) firstOrderValue = firstOrder.CumulativePf;
@@ -205,7 +213,17 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         var sampleNote = string.Create(CultureInfo.InvariantCulture, $"{p.EffectiveEvents:F0} effective failure samples of {weighted.Count}");
         if (resolved)
         {
-            return Sampled(p, true, Append(note, sampleNote));
+            return Sampled(p, true, Append(note, belowDecisions && p.CoefficientOfVariation > Options.TargetCoefficientOfVariation
+                ? string.Create(CultureInfo.InvariantCulture, $"{sampleNote}; below {Options.DecisionFloor:0.#E+0} with three standard errors")
+                : sampleNote));
+        }
+
+        // Pf never falls with time within a renewal period: a later resolved value bounds this one from above.
+        if (LaterBound(weighted, set, t) is { } bound && bound.Value < Options.DecisionFloor)
+        {
+            var bounded = Sampled(p, true, Append(note, string.Create(CultureInfo.InvariantCulture,
+                $"bounded: Pf ≤ {bound.Value:0.###E+00} (the sampled value at {bound.AtYears:0.###} y, from at least {Options.MinimumFailureSamples} effective failure samples, plus three standard errors; Pf never falls with time), {sampleNote}")));
+            return bounded with { UpperBound = bound.Value };
         }
 
         if (firstOrder is { Converged: true } f && f.CumulativePf < Options.NegligibleProbability
@@ -234,6 +252,24 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             CoefficientOfVariation = s.Value > 0 ? s.CoefficientOfVariation : null,
             Note = text,
         };
+    }
+
+    /// <summary>p + 3·se at the first later time (yearly steps to the period's end) whose failure region is covered, or null.</summary>
+    private (double Value, double AtYears)? LaterBound(WeightedFailureTimes weighted, ComponentSampleSet set, double t)
+    {
+        var (period, local) = set.Locate(t);
+        var end = set.PeriodLength(period);
+        for (var later = Math.Floor(local) + 1; ; later += 1)
+        {
+            var at = Math.Min(later, end);
+            var p = weighted.Cumulative(period, at);
+            if (p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples)
+            {
+                return (p.Value + 3 * p.StandardError, set.PeriodStart(period) + at);
+            }
+
+            if (at >= end) return null;
+        }
     }
 
     private UpdatedEstimate? TryFirstOrder(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, double t)
@@ -268,11 +304,14 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             // A cached set whose findings are a part of these, the rest planned findings without a repair: reweight it.
             foreach (var candidate in _recent)
             {
-                if (!ReferenceEquals(candidate.Model, model) || candidate.HorizonYears < horizon || candidate.Evidence.Length >= evidence.Count) continue;
+                // The prior's set is not reweighted with findings: its density does not look where they point.
+                if (!ReferenceEquals(candidate.Model, model) || candidate.HorizonYears < horizon || candidate.Evidence.Length == 0
+                    || candidate.Evidence.Length >= evidence.Count) continue;
                 if (!candidate.Set.IsValueCreated) continue;
                 var known = candidate.Derived.FirstOrDefault(d => d.Evidence.SequenceEqual(evidence));
                 var reweighted = known.Weighted ?? candidate.Set.Value.Reweighted(evidence, out _);
-                if (reweighted is null) continue;
+                // Reused only while the weights stay balanced: a finding that moves the posterior far gets a set of its own.
+                if (reweighted is null || reweighted.EffectiveSampleSize < MinimumEffectiveShare * candidate.Set.Value.Weighted.EffectiveSampleSize) continue;
                 if (known.Weighted is null)
                 {
                     candidate.Derived.Add((evidence.ToArray(), reweighted));
