@@ -29,8 +29,11 @@ public sealed record RegisterReportOptions(DateOnly AsOf, AnnualTarget Target, U
     /// <summary>Write pages for every component whose stored annual Pf is above this.</summary>
     public double? PagesAboveAnnualPf { get; init; }
 
+    /// <summary>Accuracy and seed of the sampling route the results were stored with.</summary>
+    public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
+
     /// <summary>Canonical options key (<see cref="ResultKeys.Options"/>).</summary>
-    public string OptionsKey => ResultKeys.Options(Route, Target, HorizonYears);
+    public string OptionsKey => ResultKeys.Options(Route, Target, HorizonYears, Sampling);
 }
 
 /// <summary>What a register report wrote.</summary>
@@ -137,7 +140,7 @@ public static class RegisterReport
             || (options.PagesAboveAnnualPf is { } p && r.AnnualPf > p)).ToArray();
         var pages = new ConcurrentDictionary<string, string>(StringComparer.Ordinal);
         if (selected.Length == 0) return new Dictionary<string, string>(pages);
-        var runOptions = new ReportRunOptions(options.AsOf, options.Target, false, options.Route, options.HorizonYears);
+        var runOptions = new ReportRunOptions(options.AsOf, options.Target, false, options.Route, options.HorizonYears) { Sampling = options.Sampling };
         Parallel.ForEach(selected, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, r =>
         {
             var component = snapshot.Store.GetComponent(r.ComponentId, snapshot.Known);

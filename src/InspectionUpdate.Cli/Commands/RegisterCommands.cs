@@ -307,7 +307,7 @@ public sealed class RegisterInventCommand(CliHost host) : CliCommand<RegisterInv
 public sealed record RegisterInvented(string Register, int Components, int Seed, DateOnly Recorded, string Note);
 
 /// <summary>Settings of <c>register report</c>.</summary>
-public sealed class RegisterReportSettings : RegisterSettings
+public sealed class RegisterReportSettings : SampledSettings
 {
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
@@ -371,6 +371,7 @@ public sealed class RegisterReportCommand(CliHost host) : CliCommand<RegisterRep
             PagesFor = codes,
             PagesForSite = settings.Site,
             PagesAboveAnnualPf = settings.Above,
+            Sampling = settings.Sampling(),
         };
         var registerPath = settings.RegisterPath(Host);
         using var store = RegisterAccess.Open(Host, registerPath);
