@@ -25,11 +25,11 @@ public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool S
 public static class ReportRun
 {
     /// <summary>Assesses and plans each component; a component that fails is recorded with its error, the others go on.</summary>
-    public static IReadOnlyList<ComponentRun> Run(IReadOnlyList<Func<ComponentContext>> components, IReadOnlyList<string> ids, ReportRunOptions options, Action<double> progress)
+    public static IReadOnlyList<ComponentRun> Run(IReadOnlyList<Func<ComponentContext>> components, IReadOnlyList<string> ids, ReportRunOptions options, Action<double> progress, int? parallelism = null)
     {
         var runs = new ComponentRun[components.Count];
         var done = 0;
-        Parallel.For(0, components.Count, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, i =>
+        Parallel.For(0, components.Count, new ParallelOptions { MaxDegreeOfParallelism = parallelism ?? Environment.ProcessorCount }, i =>
         {
             try
             {
@@ -61,32 +61,7 @@ public static class ReportRun
     {
         Directory.CreateDirectory(folder);
         var rows = new List<PortfolioRow>();
-        foreach (var run in runs)
-        {
-            var safe = Safe(run.ComponentId);
-            if (run.Context is null || run.Request is null || run.Outcome is null)
-            {
-                rows.Add(new PortfolioRow(run.ComponentId, "-", "-", null, "-", null, null, "not assessed: " + run.Error, null));
-                continue;
-            }
-
-            IReadOnlyList<string> notRequested = options.Schedule || run.Plan is null ? [] : [ScheduleNotRequested];
-            var data = ComponentStudy.Report(run.Context, run.Request, run.Outcome, run.Plan, notAvailable, notRequested);
-            File.WriteAllText(Path.Combine(folder, safe + ".html"), HtmlReportWriter.Component(data));
-            File.WriteAllText(Path.Combine(folder, safe + ".json"), ProfileExport.ComponentJson(data));
-            using (var w = new StreamWriter(Path.Combine(folder, safe + ".profile.csv")))
-            {
-                ProfileExport.WriteCsv(w, run.ComponentId, new[] { run.Outcome.Prior, run.Outcome.Updated }.Where(p => p is not null)!);
-            }
-
-            if (data.Plan is not null)
-            {
-                using var w = new StreamWriter(Path.Combine(folder, safe + ".plan.csv"));
-                ProfileExport.WritePlanCsv(w, run.ComponentId, data.Plan);
-            }
-
-            rows.Add(ComponentStudy.Row(run.Context, run.Request, run.Outcome, run.Plan, safe + ".html"));
-        }
+        foreach (var run in runs) rows.Add(WriteComponent(folder, run, options, notAvailable));
 
         var portfolio = new PortfolioReportData
         {
@@ -114,6 +89,39 @@ public static class ReportRun
         File.WriteAllText(Path.Combine(folder, "register.json"), JsonSerializer.Serialize(new RegisterExport("inspection-update/register-export/1", title, options.AsOf,
             ToolInfo.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
         return index;
+    }
+
+    /// <summary>
+    /// Writes one component's HTML page, JSON, profile CSV and plan CSV into <paramref name="folder"/> (which must
+    /// exist) and returns its row of the register page; a component that could not be assessed gets a row saying why
+    /// and no files. Components write to their own files, so several may be written at once.
+    /// </summary>
+    public static PortfolioRow WriteComponent(string folder, ComponentRun run, ReportRunOptions options, IReadOnlyList<string> notAvailable)
+    {
+        ArgumentNullException.ThrowIfNull(run);
+        ArgumentNullException.ThrowIfNull(options);
+        var safe = Safe(run.ComponentId);
+        if (run.Context is null || run.Request is null || run.Outcome is null)
+        {
+            return new PortfolioRow(run.ComponentId, "-", "-", null, "-", null, null, "not assessed: " + run.Error, null);
+        }
+
+        IReadOnlyList<string> notRequested = options.Schedule || run.Plan is null ? [] : [ScheduleNotRequested];
+        var data = ComponentStudy.Report(run.Context, run.Request, run.Outcome, run.Plan, notAvailable, notRequested);
+        File.WriteAllText(Path.Combine(folder, safe + ".html"), HtmlReportWriter.Component(data));
+        File.WriteAllText(Path.Combine(folder, safe + ".json"), ProfileExport.ComponentJson(data));
+        using (var w = new StreamWriter(Path.Combine(folder, safe + ".profile.csv")))
+        {
+            ProfileExport.WriteCsv(w, run.ComponentId, new[] { run.Outcome.Prior, run.Outcome.Updated }.Where(p => p is not null)!);
+        }
+
+        if (data.Plan is not null)
+        {
+            using var w = new StreamWriter(Path.Combine(folder, safe + ".plan.csv"));
+            ProfileExport.WritePlanCsv(w, run.ComponentId, data.Plan);
+        }
+
+        return ComponentStudy.Row(run.Context, run.Request, run.Outcome, run.Plan, safe + ".html");
     }
 
     /// <summary>What a report without --schedule says of the life-cycle schedule: not requested, and how to request it.</summary>

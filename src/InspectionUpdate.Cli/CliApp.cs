@@ -48,6 +48,9 @@ public static class CliApp
                     .WithExample("register", "assess", "--shard", "0/4", "-r", "plant.register");
                 Add<RegisterMergeCommand>(b, "register merge").WithDescription("Fold shard results files into the register, refusing results whose keys no longer match.")
                     .WithExample("register", "merge", "plant.register.shard-0-of-4.results", "plant.register.shard-1-of-4.results", "-r", "plant.register");
+                Add<RegisterReportCommand>(b, "register report").WithDescription("Write the register report from stored results (ranking, due dates, distributions, due inspections per year and site); component pages only on request.")
+                    .WithExample("register", "report", "--as-of", "2025-06-30", "-r", "plant.register", "-o", "reports")
+                    .WithExample("register", "report", "--as-of", "2025-06-30", "-r", "plant.register", "--above", "1e-4");
                 Add<RegisterInventCommand>(b, "register invent").WithDescription("Create a register of invented components (benchmarks and trials).")
                     .WithExample("register", "invent", "trial.register", "--components", "1000");
             });

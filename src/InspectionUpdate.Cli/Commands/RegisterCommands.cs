@@ -309,3 +309,91 @@ public sealed class RegisterInventCommand(CliHost host) : CliCommand<RegisterInv
 
 /// <summary>--json of <c>register invent</c>.</summary>
 public sealed record RegisterInvented(string Register, int Components, int Seed, DateOnly Recorded, string Note);
+
+/// <summary>Settings of <c>register report</c>.</summary>
+public sealed class RegisterReportSettings : SampledSettings
+{
+    /// <summary>Evidence date.</summary>
+    [CommandOption("--as-of <DATE>")]
+    [Description("Evidence date of the stored results to report (as given to register assess). " + AssessSettings.AsOfHelp)]
+    public string? AsOf { get; init; }
+
+    /// <summary>Target.</summary>
+    [CommandOption("--target-annual-pf <P>")]
+    [Description("Target annual failure probability the results were stored with.")]
+    [DefaultValue(1e-4)]
+    public double TargetAnnualPf { get; init; } = 1e-4;
+
+    /// <summary>Updating route.</summary>
+    [CommandOption("--route <ROUTE>")]
+    [Description("Updating route the results were stored with: auto, first-order or simulation.")]
+    [DefaultValue("auto")]
+    public string Route { get; init; } = "auto";
+
+    /// <summary>Output folder.</summary>
+    [CommandOption("-o|--out <DIR>")]
+    [Description("Folder for index.html, register-results.csv and any component pages (created if missing).")]
+    [DefaultValue("reports")]
+    public string Out { get; init; } = "reports";
+
+    /// <summary>Top rows.</summary>
+    [CommandOption("--top <N>")]
+    [Description("Rows shown at the top of the ranking and due-date tables (the CSV has every row).")]
+    [DefaultValue(100)]
+    public int Top { get; init; } = 100;
+
+    /// <summary>Pages for these components.</summary>
+    [CommandOption("--components <CODES>")]
+    [Description("Also write the own pages of these components (comma-separated codes); recomputed with the same options.")]
+    public string? Components { get; init; }
+
+    /// <summary>Pages for a site.</summary>
+    [CommandOption("--site <SITE>")]
+    [Description("Also write the own pages of every component of this site.")]
+    public string? Site { get; init; }
+
+    /// <summary>Pages above a threshold.</summary>
+    [CommandOption("--above <P>")]
+    [Description("Also write the own pages of every component whose stored annual Pf is above P.")]
+    public double? Above { get; init; }
+}
+
+/// <summary>Writes the register report from stored results.</summary>
+public sealed class RegisterReportCommand(CliHost host) : CliCommand<RegisterReportSettings>(host)
+{
+    /// <inheritdoc />
+    protected override int Run(RegisterReportSettings settings, CancellationToken cancellation)
+    {
+        if (!(settings.TargetAnnualPf > 0 && settings.TargetAnnualPf < 1)) throw CliException.BadInput("--target-annual-pf", settings.TargetAnnualPf, "must be a probability strictly between 0 and 1.");
+        if (settings.Top < 1) throw CliException.BadInput("--top", settings.Top, "must be at least 1.");
+        if (settings.Above is { } a && !(a >= 0 && a < 1)) throw CliException.BadInput("--above", a, "must be a probability in [0, 1).");
+        var asOf = settings.AsOf is null ? Host.Today() : RegisterAccess.Date("--as-of", settings.AsOf);
+        var codes = settings.Components is null ? [] : settings.Components.Split(',', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries);
+        var options = new RegisterReportOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), Study.Route(settings.Route))
+        {
+            Top = settings.Top,
+            PagesFor = codes,
+            PagesForSite = settings.Site,
+            PagesAboveAnnualPf = settings.Above,
+            Sampling = settings.Sampling(),
+        };
+        var registerPath = settings.RegisterPath(Host);
+        using var store = RegisterAccess.Open(Host, registerPath, RegisterOpenMode.OpenExistingToRead);
+        var summary = RegisterReport.Write(store, Host.Resolve(settings.Out), Path.GetFileNameWithoutExtension(registerPath), options);
+        var doc = new RegisterReported(summary.Index, summary.Csv, asOf, options.OptionsKey, summary.Results, summary.Missing.Count, summary.Stale.Count, summary.Pages,
+            Math.Round(summary.Elapsed.TotalSeconds, 2), Reporting.Cautions.Line);
+        if (settings.Json) WriteJson(doc);
+        else
+        {
+            Line(string.Create(CultureInfo.InvariantCulture,
+                $"Register report of {doc.Results} stored result(s) ({doc.Stale} stale, {doc.Missing} component(s) in service without one), {doc.Pages.Count} component page(s): {doc.Report}"));
+            Caution();
+        }
+
+        return ExitCodes.Ok;
+    }
+}
+
+/// <summary>--json of <c>register report</c>.</summary>
+public sealed record RegisterReported(string Report, string Csv, DateOnly AsOf, string OptionsKey, int Results, int Missing, int Stale, IReadOnlyList<string> Pages,
+    double ElapsedSeconds, string Caution);

@@ -15,7 +15,7 @@ namespace InspectionUpdate.Reporting.Html;
 /// Sections carry stable ids (<see cref="ComponentSections"/>, <see cref="PortfolioSections"/>) so that tests and
 /// users can link to them.
 /// </remarks>
-public static class HtmlReportWriter
+public static partial class HtmlReportWriter
 {
     /// <summary>Ids of the sections of a component report, in page order.</summary>
     public static IReadOnlyList<string> ComponentSections { get; } =
