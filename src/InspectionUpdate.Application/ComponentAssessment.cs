@@ -18,7 +18,7 @@ namespace InspectionUpdate.Application;
 /// <param name="Evidence">Findings and repairs up to <paramref name="AsOf"/>, in time order.</param>
 /// <param name="HorizonYears">Profile horizon and end of service life, years since entry into service.</param>
 /// <param name="StepsPerYear">Grid steps per year (1 gives annual failure probabilities).</param>
-/// <param name="Route">Updating route: automatic (first order, simulation where first order is unreliable), first order only, or simulation only.</param>
+/// <param name="Route">Route: automatic (one weighted sample set per component, first order below its resolution and as a cross-check), first order only, or the sample set only.</param>
 public sealed record AssessmentRequest(string ComponentId, IDegradationModel Model, DateOnly InServiceDate, DateOnly AsOf,
     IReadOnlyList<InspectionOutcome> Evidence, double HorizonYears, int StepsPerYear, UpdatingRoute Route = UpdatingRoute.Auto)
 {

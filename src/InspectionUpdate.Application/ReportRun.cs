@@ -78,7 +78,7 @@ public static class ReportRun
                 {
                     UpdatingRoute.FirstOrder => "first order only (linearized events); numbers the updater flags as unreliable are noted per step — check them with --route auto",
                     UpdatingRoute.Simulation => "simulation only (one weighted sample set per component; numbers it cannot resolve are flagged, not replaced)",
-                    _ => "automatic: first order, with simulation where first order is flagged unreliable",
+                    _ => "automatic: one weighted sample set per component (every Pf, annual Pf and due date with its standard error); first order below the sampling resolution and as a cross-check of every step",
                 }) + ".",
             ],
             NotAvailable = notAvailable,
