@@ -3,6 +3,11 @@ using InspectionUpdate.Reliability;
 namespace InspectionUpdate.Updating;
 
 /// <summary>Which route computes an updated failure probability.</summary>
+/// <remarks>
+/// For <see cref="ReliabilityUpdater"/> (per-time estimates) the members mean what their docs say. The application layer
+/// maps <see cref="Auto"/> and <see cref="Simulation"/> to the sample-set route (<see cref="Sampling.SampleSetUpdater"/>,
+/// with and without first order below its resolution) and <see cref="FirstOrder"/> to this updater's first order.
+/// </remarks>
 public enum UpdatingRoute
 {
     /// <summary>First order; falls back to simulation where the first-order result is flagged unreliable.</summary>
