@@ -27,13 +27,16 @@ public static class ComponentContexts
         return (parsed.Definition!.Build(), parsed.Definition!);
     }
 
-    /// <summary>One component of the register as known on <paramref name="asOf"/>.</summary>
+    /// <summary>
+    /// One component of the register as recorded on <paramref name="knownOn"/> (default: <paramref name="asOf"/>),
+    /// with evidence up to <paramref name="asOf"/> (the evidence cut is made by the request).
+    /// </summary>
     /// <remarks>Hashes the whole register for the report's fingerprint: for many components use the overload that takes a <see cref="RegisterSnapshot"/>.</remarks>
-    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf) =>
-        FromRegister(new RegisterSnapshot(store, asOf), component);
+    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf, DateOnly? knownOn = null) =>
+        FromRegister(new RegisterSnapshot(store, asOf, knownOn), component);
 
     /// <summary>
-    /// One component of the register as known on the snapshot's date. The register fingerprint, the sites and the
+    /// One component of the register as recorded on the snapshot's known-on date. The register fingerprint, the sites and the
     /// methods are read once per snapshot; this reads only the component's own rows, so it costs the same whatever the
     /// register size.
     /// </summary>

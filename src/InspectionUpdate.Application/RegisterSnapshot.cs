@@ -12,13 +12,17 @@ public sealed class RegisterSnapshot
     private readonly Lazy<IReadOnlyList<Site>> _sites;
     private readonly Lazy<IReadOnlyList<StoredMethod>> _methods;
 
-    /// <summary>Creates the snapshot of <paramref name="store"/> as known at the end of <paramref name="asOf"/>.</summary>
-    public RegisterSnapshot(RegisterStore store, DateOnly asOf)
+    /// <summary>
+    /// Creates the snapshot of <paramref name="store"/> as recorded at the end of <paramref name="knownOn"/> (default:
+    /// <paramref name="asOf"/>), for evidence up to <paramref name="asOf"/>.
+    /// </summary>
+    public RegisterSnapshot(RegisterStore store, DateOnly asOf, DateOnly? knownOn = null)
     {
         ArgumentNullException.ThrowIfNull(store);
         Store = store;
         AsOf = asOf;
-        Known = Registers.AsKnownOn(asOf);
+        KnownOn = knownOn ?? asOf;
+        Known = Registers.AsKnownOn(KnownOn);
         _fingerprint = new Lazy<string>(() => store.Fingerprint(Known));
         _sites = new Lazy<IReadOnlyList<Site>>(() => store.Sites(Known));
         _methods = new Lazy<IReadOnlyList<StoredMethod>>(() => store.Methods(Known));
@@ -30,7 +34,10 @@ public sealed class RegisterSnapshot
     /// <summary>The evidence date.</summary>
     public DateOnly AsOf { get; }
 
-    /// <summary>The recorded instant reads are made at: the end of <see cref="AsOf"/> (UTC).</summary>
+    /// <summary>The date the register is read as recorded on (defaults to <see cref="AsOf"/>).</summary>
+    public DateOnly KnownOn { get; }
+
+    /// <summary>The recorded instant reads are made at: the end of <see cref="KnownOn"/> (UTC).</summary>
     public DateTimeOffset Known { get; }
 
     /// <summary>Fingerprint of the whole register as known then (hashed once).</summary>

@@ -61,10 +61,11 @@ public static class Registers
     }
 
     /// <summary>
-    /// A component by code as known on <paramref name="asOf"/> (the --as-of date). A component recorded after that
-    /// date is bad input naming the component, the as-of date and the recording date; an unknown code names the code.
+    /// A component by code as known on <paramref name="asOf"/> (the date of <paramref name="option"/>). A component
+    /// recorded after that date is bad input naming the option, the component, the date and the recording date; an
+    /// unknown code names the code.
     /// </summary>
-    public static Component Component(RegisterStore store, string code, DateOnly asOf)
+    public static Component Component(RegisterStore store, string code, DateOnly asOf, string option = "--as-of")
     {
         ArgumentNullException.ThrowIfNull(store);
         if (store.FindComponent(code, AsKnownOn(asOf)) is { } known) return known;
@@ -72,7 +73,7 @@ public static class Registers
         var recorded = DateOnly.FromDateTime(later.Recorded.RecordedUtc.UtcDateTime);
         var asOfText = asOf.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
         var recordedText = recorded.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
-        throw ApplicationFailureException.BadInput("--as-of", asOfText,
-            $"is before component '{code}' was recorded in the register on {recordedText}: the register as known on {asOfText} does not hold it. Give --as-of {recordedText} or later.");
+        throw ApplicationFailureException.BadInput(option, asOfText,
+            $"is before component '{code}' was recorded in the register on {recordedText}: the register as known on {asOfText} does not hold it. Give {option} {recordedText} or later.");
     }
 }

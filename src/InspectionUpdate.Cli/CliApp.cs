@@ -19,92 +19,126 @@ public static class CliApp
         registrar.RegisterInstance(typeof(CliHost), host);
         var app = new CommandApp(registrar);
         var verbose = args.Contains("--verbose");
+        var strict = new StrictCommandLine();
         app.Configure(config =>
         {
             config.SetApplicationName("inspection-update");
             config.SetApplicationVersion(Version);
             config.ConfigureConsole(host.Console);
+            // An unknown option or an extra argument is an error, never silently ignored (docs/cli.md).
+            config.UseStrictParsing();
             config.SetExceptionHandler((e, _) =>
             {
                 // Parse and binding errors: one sentence, exit code for bad input.
-                host.Error.WriteLine("error: " + NameTheOption(OneLine(e.Message), args));
+                host.Error.WriteLine("error: " + strict.Sentence(NameTheOption(OneLine(e.Message), args), args));
                 if (verbose) host.Error.WriteLine(e.ToString());
                 return e is CommandAppException ? ExitCodes.BadInput : ExitCodes.InternalError;
             });
 
+            strict.Branch("register");
             config.AddBranch("register", b =>
             {
-                b.SetDescription("Create and check a register (the SQLite file of sites, components, methods, findings, repairs).");
-                b.AddCommand<RegisterCreateCommand>("create").WithDescription("Create an empty register file.")
+                b.SetDescription("Create, check and assess a register (the SQLite file of sites, components, methods, findings, repairs and stored results).");
+                Add<RegisterCreateCommand>(b, "register create").WithDescription("Create an empty register file.")
                     .WithExample("register", "create", "plant.register");
-                b.AddCommand<RegisterCheckCommand>("check").WithDescription("Check the register's integrity and print its fingerprint.")
+                Add<RegisterCheckCommand>(b, "register check").WithDescription("Check the register's integrity and print its fingerprint.")
                     .WithExample("register", "check", "-r", "plant.register");
-                b.AddCommand<RegisterAssessCommand>("assess").WithDescription("Assess and plan every component in service as of a date; store each result under its key (reruns recompute only what changed).")
+                Add<RegisterAssessCommand>(b, "register assess").WithDescription("Assess and plan every component in service as of a date; store each result under its key (reruns recompute only what changed).")
                     .WithExample("register", "assess", "--as-of", "2025-06-30", "-r", "plant.register")
                     .WithExample("register", "assess", "--shard", "0/4", "-r", "plant.register");
-                b.AddCommand<RegisterMergeCommand>("merge").WithDescription("Fold shard results files into the register, refusing results whose keys no longer match.")
+                Add<RegisterMergeCommand>(b, "register merge").WithDescription("Fold shard results files into the register, refusing results whose keys no longer match.")
                     .WithExample("register", "merge", "plant.register.shard-0-of-4.results", "plant.register.shard-1-of-4.results", "-r", "plant.register");
-                b.AddCommand<RegisterReportCommand>("report").WithDescription("Write the register report from stored results (ranking, due dates, distributions, due inspections per year and site); component pages only on request.")
+                Add<RegisterReportCommand>(b, "register report").WithDescription("Write the register report from stored results (ranking, due dates, distributions, due inspections per year and site); component pages only on request.")
                     .WithExample("register", "report", "--as-of", "2025-06-30", "-r", "plant.register", "-o", "reports")
                     .WithExample("register", "report", "--as-of", "2025-06-30", "-r", "plant.register", "--above", "1e-4");
-                b.AddCommand<RegisterInventCommand>("invent").WithDescription("Create a register of invented components (benchmarks and trials).")
+                Add<RegisterInventCommand>(b, "register invent").WithDescription("Create a register of invented components (benchmarks and trials).")
                     .WithExample("register", "invent", "trial.register", "--components", "1000");
             });
+            strict.Branch("site");
             config.AddBranch("site", b =>
             {
                 b.SetDescription("Sites: places that hold components.");
-                b.AddCommand<SiteAddCommand>("add").WithDescription("Add a site.")
+                Add<SiteAddCommand>(b, "site add").WithDescription("Add a site.")
                     .WithExample("site", "add", "NORTH-BAY", "--name", "\"North Bay injection station\"", "-r", "plant.register");
-                b.AddCommand<SiteListCommand>("list").WithDescription("List the sites.").WithExample("site", "list", "-r", "plant.register");
+                Add<SiteListCommand>(b, "site list").WithDescription("List the sites.").WithExample("site", "list", "-r", "plant.register");
             });
+            strict.Branch("component");
             config.AddBranch("component", b =>
             {
                 b.SetDescription("Components and their degradation models.");
-                b.AddCommand<ComponentAddCommand>("add").WithDescription("Add a component with its model file.")
+                Add<ComponentAddCommand>(b, "component add").WithDescription("Add a component with its model file.")
                     .WithExample("component", "add", "WI-03", "--site", "NORTH-BAY", "--name", "\"Injection line spool 3\"", "--model", "wi-03.model.json", "--in-service", "2011-04-01", "-r", "plant.register");
-                b.AddCommand<ComponentListCommand>("list").WithDescription("List the components.").WithExample("component", "list", "-r", "plant.register");
+                Add<ComponentReviseCommand>(b, "component revise").WithDescription("Revise a component's model (a new revision; the old one stays readable).")
+                    .WithExample("component", "revise", "WI-03", "--model", "wi-03.model.json", "--reason", "\"new coating survey\"", "-r", "plant.register");
+                Add<ComponentRetireCommand>(b, "component retire").WithDescription("Retire a component: it leaves reports and runs, and stays readable as of earlier dates.")
+                    .WithExample("component", "retire", "WI-03", "--reason", "\"spool replaced\"", "-r", "plant.register");
+                Add<ComponentReinstateCommand>(b, "component reinstate").WithDescription("Reinstate a retired component.")
+                    .WithExample("component", "reinstate", "WI-03", "--reason", "\"retired in error\"", "-r", "plant.register");
+                Add<ComponentListCommand>(b, "component list").WithDescription("List the components.").WithExample("component", "list", "-r", "plant.register");
             });
+            strict.Branch("method");
             config.AddBranch("method", b =>
             {
                 b.SetDescription("Inspection methods: probability of detection and sizing error.");
-                b.AddCommand<MethodAddCommand>("add").WithDescription("Add a method from a method file.")
+                Add<MethodAddCommand>(b, "method add").WithDescription("Add a method from a method file.")
                     .WithExample("method", "add", "UT-AUTO", "--file", "ut-auto.method.json", "-r", "plant.register");
-                b.AddCommand<MethodFitCommand>("fit").WithDescription("Fit a method's PoD curve from qualification data and add it.")
+                Add<MethodFitCommand>(b, "method fit").WithDescription("Fit a method's PoD curve from qualification data and add it.")
                     .WithExample("method", "fit", "EC-SPLASH", "--data", "ec-trials.csv", "--kind", "hit-miss", "-r", "plant.register");
-                b.AddCommand<MethodListCommand>("list").WithDescription("List the methods.").WithExample("method", "list", "-r", "plant.register");
+                Add<MethodListCommand>(b, "method list").WithDescription("List the methods.").WithExample("method", "list", "-r", "plant.register");
             });
+            strict.Branch("finding");
             config.AddBranch("finding", b =>
             {
                 b.SetDescription("Inspection findings (never overwritten: a correction is a new revision).");
-                b.AddCommand<FindingLogCommand>("log").WithDescription("Log one finding.")
+                Add<FindingLogCommand>(b, "finding log").WithDescription("Log one finding.")
                     .WithExample("finding", "log", "WI-03", "--date", "2024-05-14", "--method", "UT-AUTO", "--outcome", "sized", "--size-mm", "2.4", "--by", "a.engineer", "-r", "plant.register");
-                b.AddCommand<FindingImportCommand>("import").WithDescription("Import findings from a CSV file (all rows or none).")
+                Add<FindingImportCommand>(b, "finding import").WithDescription("Import findings from a CSV file (all rows or none).")
                     .WithExample("finding", "import", "campaign-2024.csv", "--by", "a.engineer", "-r", "plant.register");
-                b.AddCommand<FindingCorrectCommand>("correct").WithDescription("Correct a finding: records a new revision with who and why.")
+                Add<FindingCorrectCommand>(b, "finding correct").WithDescription("Correct a finding: records a new revision with who and why.")
                     .WithExample("finding", "correct", "7", "--size-mm", "2.1", "--by", "a.engineer", "--reason", "\"transcription error\"", "-r", "plant.register");
-                b.AddCommand<FindingListCommand>("list").WithDescription("List findings.").WithExample("finding", "list", "WI-03", "--all-revisions", "-r", "plant.register");
+                Add<FindingListCommand>(b, "finding list").WithDescription("List findings.").WithExample("finding", "list", "WI-03", "--all-revisions", "-r", "plant.register");
             });
+            strict.Branch("repair");
             config.AddBranch("repair", b =>
             {
                 b.SetDescription("Repairs (the component's degradation restarts).");
-                b.AddCommand<RepairLogCommand>("log").WithDescription("Log a repair.")
+                Add<RepairListCommand>(b, "repair list").WithDescription("List repairs.").WithExample("repair", "list", "WI-03", "--all-revisions", "-r", "plant.register");
+                Add<RepairCorrectCommand>(b, "repair correct").WithDescription("Correct a repair: records a new revision with who and why.")
+                    .WithExample("repair", "correct", "3", "--date", "2023-09-04", "--reason", "\"date from the work order\"", "-r", "plant.register");
+                Add<RepairWithdrawCommand>(b, "repair withdraw").WithDescription("Withdraw a repair logged in error (kept in the history).")
+                    .WithExample("repair", "withdraw", "3", "--reason", "\"logged on the wrong component\"", "-r", "plant.register");
+                Add<RepairLogCommand>(b, "repair log").WithDescription("Log a repair.")
                     .WithExample("repair", "log", "WI-03", "--date", "2023-09-02", "--description", "\"clamp and sleeve fitted\"", "--by", "a.engineer", "-r", "plant.register");
             });
-            config.AddCommand<AssessCommand>("assess").WithDescription("Assess: prior and updated profile Pf(t), ΔPf(t), β(t) of a component.")
+            Top<AssessCommand>(config, "assess").WithDescription("Assess: prior and updated profile Pf(t), ΔPf(t), β(t) of a component.")
                 .WithExample("assess", "WI-03", "-r", "plant.register")
                 .WithExample("assess", "--model", "wi-03.model.json", "--findings", "wi-03.findings.csv");
-            config.AddCommand<PlanCommand>("plan").WithDescription("Plan: the latest date of the next inspection and a schedule over the remaining life.")
+            Top<PlanCommand>(config, "plan").WithDescription("Plan: the latest date of the next inspection and a schedule over the remaining life.")
                 .WithExample("plan", "WI-03", "--target-annual-pf", "1e-4", "-r", "plant.register")
                 .WithExample("plan", "--model", "wi-03.model.json", "--target-annual-pf", "1e-4");
-            config.AddCommand<ReportCommand>("report").WithDescription("Write HTML reports (one per component and one for the register) with CSV and JSON exports.")
+            Top<ReportCommand>(config, "report").WithDescription("Write HTML reports (one per component and one for the register) with CSV and JSON exports.")
                 .WithExample("report", "--out", "reports", "-r", "plant.register");
-            config.AddCommand<VerifyCommand>("verify").WithDescription("Run the verification cases and the benchmark-collection problems on this installation.")
+            Top<VerifyCommand>(config, "verify").WithDescription("Run the verification cases and the benchmark-collection problems on this installation.")
                 .WithExample("verify").WithExample("verify", "--benchmarks", "quick").WithExample("verify", "--write-doc", "docs/verification.md");
-            config.AddCommand<DemoCommand>("demo").WithDescription("Build a demo register from sample-data, assess, plan and report.")
+            Top<DemoCommand>(config, "demo").WithDescription("Build a demo register from sample-data, assess, plan and report.")
                 .WithExample("demo").WithExample("demo", "--out", "demo-output");
         });
 
         return app.Run(args);
+
+        ICommandConfigurator Add<TCommand>(IConfigurator<CommandSettings> branch, string path)
+            where TCommand : class, ICommandLimiter<CommandSettings>
+        {
+            strict.Command<TCommand>(path);
+            return branch.AddCommand<TCommand>(path[(path.LastIndexOf(' ') + 1)..]);
+        }
+
+        ICommandConfigurator Top<TCommand>(IConfigurator configurator, string name)
+            where TCommand : class, ICommand
+        {
+            strict.Command<TCommand>(name);
+            return configurator.AddCommand<TCommand>(name);
+        }
     }
 
     private static string OneLine(string s) => s.ReplaceLineEndings(" ").Trim();

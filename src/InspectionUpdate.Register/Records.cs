@@ -252,8 +252,20 @@ public sealed record ImportResult(long? ImportBatchId, IReadOnlyList<FindingRevi
 /// <param name="IntegrityCheck">Lines of PRAGMA integrity_check ("ok" when sound).</param>
 /// <param name="ForeignKeyViolations">One line per row of PRAGMA foreign_key_check.</param>
 /// <param name="InvariantViolations">Register invariants broken (revision chains, journal mode, missing triggers).</param>
-public sealed record RegisterCheckResult(int SchemaVersion, IReadOnlyList<string> IntegrityCheck, IReadOnlyList<string> ForeignKeyViolations, IReadOnlyList<string> InvariantViolations)
+/// <param name="InvalidModels">Components whose current model does not pass the model check an assessment runs (one
+/// line each: component, revision, every problem); stored before the register checked models at the door. They do
+/// not make the file unhealthy: revise the model ('component revise') to assess the component again.</param>
+public sealed record RegisterCheckResult(int SchemaVersion, IReadOnlyList<string> IntegrityCheck, IReadOnlyList<string> ForeignKeyViolations, IReadOnlyList<string> InvariantViolations,
+    IReadOnlyList<string> InvalidModels)
 {
     /// <summary>True when every check passed.</summary>
     public bool IsHealthy => IntegrityCheck is ["ok"] && ForeignKeyViolations.Count == 0 && InvariantViolations.Count == 0;
 }
+
+/// <summary>A component retired or reinstated, with who, when and why.</summary>
+/// <param name="StatusId">Row id.</param>
+/// <param name="ComponentId">Component id.</param>
+/// <param name="ComponentCode">Component code.</param>
+/// <param name="Status">"retired" or "in-service".</param>
+/// <param name="Recorded">Who, when (UTC) and why.</param>
+public sealed record ComponentStatusChange(long StatusId, long ComponentId, string ComponentCode, string Status, Provenance Recorded);

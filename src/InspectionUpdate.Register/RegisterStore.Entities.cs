@@ -1,5 +1,4 @@
 using System.Globalization;
-using System.Text.Json;
 using InspectionUpdate.Inspection;
 using Microsoft.Data.Sqlite;
 
@@ -66,9 +65,16 @@ public sealed partial class RegisterStore
                 problems.Add(new("site_code", component.SiteCode, "no site with this code"));
             }
 
-            if (!string.IsNullOrWhiteSpace(component.Code) && Sql.Scalar(c, t, "SELECT 1 FROM component WHERE code = $code", ("$code", component.Code)) is not null)
+            if (!string.IsNullOrWhiteSpace(component.Code) && Sql.Scalar(c, t, "SELECT code FROM component WHERE lower(code) = lower($code)", ("$code", component.Code)) is string taken)
             {
-                problems.Add(new("code", component.Code, "a component with this code already exists"));
+                problems.Add(new("code", component.Code, taken == component.Code
+                    ? "a component with this code already exists"
+                    : $"component '{taken}' differs only in upper and lower case: their report files would collide"));
+            }
+
+            if (!string.IsNullOrWhiteSpace(component.Code) && CodeProblem(component.Code) is { } codeProblem)
+            {
+                problems.Add(new("code", component.Code.Length > 80 ? component.Code[..77] + "..." : component.Code, codeProblem));
             }
 
             if (component.InstallDate > Today())
@@ -107,6 +113,31 @@ public sealed partial class RegisterStore
         });
     }
 
+    /// <summary>The longest component code accepted (it names the component's report files).</summary>
+    public const int MaximumCodeLength = 64;
+
+    private static readonly HashSet<string> ReservedCodes = new(StringComparer.OrdinalIgnoreCase)
+    {
+        // The register report's own files, and names some file systems reserve.
+        "index", "register", "con", "prn", "aux", "nul",
+        "com1", "com2", "com3", "com4", "com5", "com6", "com7", "com8", "com9",
+        "lpt1", "lpt2", "lpt3", "lpt4", "lpt5", "lpt6", "lpt7", "lpt8", "lpt9",
+    };
+
+    /// <summary>
+    /// Why a component code cannot be used, or null: at most <see cref="MaximumCodeLength"/> ASCII letters, digits,
+    /// '-', '_' and '.', starting with a letter or digit and not ending with '.', and not a reserved name; so that
+    /// the code is its report's file name on every file system and distinct codes give distinct files.
+    /// </summary>
+    public static string? CodeProblem(string code)
+    {
+        ArgumentNullException.ThrowIfNull(code);
+        if (code.Length > MaximumCodeLength) return FormattableString.Invariant($"a component code has at most {MaximumCodeLength} characters (this one has {code.Length})");
+        if (!char.IsAsciiLetterOrDigit(code[0]) || code[^1] == '.' || !code.All(ch => char.IsAsciiLetterOrDigit(ch) || ch is '-' or '_' or '.'))
+            return "a component code uses only ASCII letters, digits, '-', '_' and '.', starts with a letter or digit and does not end with '.'";
+        return ReservedCodes.Contains(code.Split('.')[0]) ? "is a reserved name (the register report's files or a device name)" : null;
+    }
+
     /// <summary>
     /// Records a new revision of a component's model definition (the old one stays readable for as-of reads).
     /// Refused when the component is unknown, the JSON invalid, the version, actor or reason blank.
@@ -139,6 +170,45 @@ public sealed partial class RegisterStore
             return (WriteResult<ComponentModelRevision>.Ok(new ComponentModelRevision(revisionId, id.Value, latest.Revision + 1, definitionJson, modelVersion,
                 new Provenance(Sql.ParseUtc(now), actor, reason))), true);
         });
+
+    /// <summary>
+    /// Retires a component (it leaves reports and runs from now on, and stays readable as of earlier dates) or
+    /// reinstates it; the change is recorded with who, when and why, never deleted. Refused when the component is
+    /// unknown, already in that state, or the actor or reason is blank.
+    /// </summary>
+    public WriteResult<ComponentStatusChange> SetRetired(string componentCode, bool retired, string actor, string reason) => Write((c, t) =>
+    {
+        var problems = new List<ValidationProblem>();
+        RequireText(problems, "recorded_by", actor);
+        RequireText(problems, "reason", reason);
+        var id = Sql.Scalar(c, t, "SELECT component_id FROM component WHERE code = $code", ("$code", componentCode ?? "")) as long?;
+        if (id is null) problems.Add(new("component_code", componentCode, "no component with this code"));
+        else if (RetiredAsOf(c, t, id.Value, DateTimeOffset.MaxValue) == retired)
+            problems.Add(new("component_code", componentCode, retired ? "the component is already retired" : "the component is in service (not retired)"));
+        if (problems.Count > 0) return (WriteResult<ComponentStatusChange>.Refused(problems), false);
+
+        var previous = Sql.Scalar(c, t, "SELECT MAX(recorded_utc) FROM component_status WHERE component_id = $id", ("$id", id)) as string;
+        var now = previous is null ? NowText() : Monotone(Sql.ParseUtc(previous));
+        var status = retired ? "retired" : "in-service";
+        var statusId = Sql.Insert(c, t, "INSERT INTO component_status (component_id, status, recorded_utc, recorded_by, reason) VALUES ($id, $status, $at, $by, $reason)",
+            ("$id", id), ("$status", status), ("$at", now), ("$by", actor), ("$reason", reason));
+        return (WriteResult<ComponentStatusChange>.Ok(new ComponentStatusChange(statusId, id!.Value, componentCode!, status, new Provenance(Sql.ParseUtc(now), actor, reason))), true);
+    });
+
+    /// <summary>Whether the component was retired as known on <paramref name="asOf"/> (now when null).</summary>
+    public bool IsRetired(long componentId, DateTimeOffset? asOf = null) => Read((c, t) => RetiredAsOf(c, t, componentId, asOf ?? DateTimeOffset.MaxValue));
+
+    /// <summary>Every retire and reinstate of a component, oldest first.</summary>
+    public IReadOnlyList<ComponentStatusChange> StatusHistory(long componentId) => Read((c, t) => Sql.Query(c, t,
+        "SELECT s.status_id, s.component_id, c.code, s.status, s.recorded_utc, s.recorded_by, s.reason FROM component_status s JOIN component c USING (component_id) WHERE s.component_id = $id ORDER BY s.status_id",
+        r => new ComponentStatusChange(r.Long("status_id"), r.Long("component_id"), r.Text("code"), r.Text("status"), r.Provenance(true)), ("$id", componentId)));
+
+    /// <summary>Components in service (not retired) as known on <paramref name="asOf"/>: the ones reports and runs cover.</summary>
+    public IReadOnlyList<Component> ComponentsInService(DateTimeOffset? asOf = null) => Components(asOf).Where(x => !IsRetired(x.Id, asOf)).ToList();
+
+    private static bool RetiredAsOf(SqliteConnection c, SqliteTransaction t, long componentId, DateTimeOffset asOf) =>
+        Sql.Scalar(c, t, "SELECT status FROM component_status WHERE component_id = $id AND recorded_utc <= $asOf ORDER BY recorded_utc DESC, status_id DESC LIMIT 1",
+            ("$id", componentId), ("$asOf", Sql.Utc(asOf))) as string == "retired";
 
     /// <summary>Every revision of a component's model definition, oldest first.</summary>
     public IReadOnlyList<ComponentModelRevision> ModelHistory(long componentId) => Read((c, t) => Sql.Query(c, t,
@@ -260,14 +330,19 @@ public sealed partial class RegisterStore
             return;
         }
 
-        try
-        {
-            using var _ = JsonDocument.Parse(json);
-        }
-        catch (JsonException e)
-        {
-            problems.Add(new("model_definition_json", Abbreviate(json), "the model definition is not valid JSON: " + e.Message));
-        }
+        // The same parse and build as an assessment (ComponentModelDefinition.Parse builds the model and its
+        // transformation): everything the register accepts, an assessment accepts.
+        problems.AddRange(ModelProblems(json));
+    }
+
+    /// <summary>
+    /// Every problem of a model definition as assess would find it (parse, validation, model and transformation
+    /// build), each naming the JSON path ("model $.inputs.rate_mmPerYear.cov") and the value; empty when valid.
+    /// </summary>
+    public static IReadOnlyList<ValidationProblem> ModelProblems(string json)
+    {
+        var parsed = Degradation.Definition.ComponentModelDefinition.Parse(json);
+        return parsed.IsValid ? [] : parsed.Problems.Select(p => new ValidationProblem("model " + p.Path, p.Value, p.Message)).ToList();
     }
 
     private static void ValidatePod(List<ValidationProblem> problems, PodSpec pod)

@@ -171,7 +171,9 @@ public sealed partial class RegisterStore
             invariants.Add(FormattableString.Invariant($"schema version {version}, expected {Schema.Migrations.Current}"));
         }
 
-        var journal = Convert.ToString(Sql.Scalar(c, t, "PRAGMA journal_mode"), CultureInfo.InvariantCulture);
+        // An immutable (read-only) connection reports its own journal mode: the file header tells the file's.
+        var journal = IsReadOnly ? (Schema.RegisterIdentity.IsWalFile(Path) ? "wal" : "delete")
+            : Convert.ToString(Sql.Scalar(c, t, "PRAGMA journal_mode"), CultureInfo.InvariantCulture);
         if (!string.Equals(journal, "wal", StringComparison.OrdinalIgnoreCase))
         {
             invariants.Add($"journal mode is '{journal}', expected 'wal'");
@@ -198,6 +200,20 @@ public sealed partial class RegisterStore
                 r => FormattableString.Invariant($"{logical} {r.GetInt64(0)}: revisions in {table} are not 1..n ({r.GetInt64(1)} rows)")));
         }
 
-        return new RegisterCheckResult(version, integrity, foreign, invariants);
+        // Current models (latest revision of each component) checked as an assessment would; marked ones first.
+        var marked = Sql.Query(c, t, "SELECT model_revision_id FROM model_check WHERE passes = 0", r => r.GetInt64(0)).ToHashSet();
+        var invalidModels = new List<string>();
+        foreach (var (code, revisionId, revision, json) in Sql.Query(c, t,
+            "SELECT c.code, r.model_revision_id, r.revision, r.definition_json FROM component c JOIN component_model_revision r ON r.component_id = c.component_id " +
+            "WHERE r.revision = (SELECT MAX(revision) FROM component_model_revision x WHERE x.component_id = c.component_id) ORDER BY c.code",
+            r => (r.GetString(0), r.GetInt64(1), r.GetInt64(2), r.GetString(3))))
+        {
+            var problems = ModelProblems(json);
+            if (problems.Count == 0) continue;
+            invalidModels.Add(FormattableString.Invariant($"component {code} model revision {revision}{(marked.Contains(revisionId) ? " (marked when the register was migrated)" : "")}: ")
+                + string.Join("; ", problems.Select(p => p.ToString())));
+        }
+
+        return new RegisterCheckResult(version, integrity, foreign, invariants, invalidModels);
     });
 }

@@ -13,12 +13,44 @@ public sealed partial class RegisterStore
 
     private static readonly string[] RequiredCsvColumns = ["component_code", "inspection_date", "kind"];
 
-    /// <summary>Imports findings from a CSV file, all or nothing (see <see cref="ImportFindingsCsv(TextReader, string, string, string, IProgress{int}?)"/>).</summary>
+    /// <summary>
+    /// Imports findings from a CSV file, all or nothing (see <see cref="ImportFindingsCsv(TextReader, string, string, string, IProgress{int}?)"/>).
+    /// The file must be UTF-8, with or without a byte-order mark; anything else (Latin-1, UTF-16) is refused naming the
+    /// line and the byte, never silently changed. The recorded SHA-256 is of the file's bytes as they are.
+    /// </summary>
     /// <exception cref="FileNotFoundException">The file does not exist.</exception>
     public ImportResult ImportFindingsCsv(string filePath, string actor, string reason, IProgress<int>? progress = null)
     {
-        using var reader = new StreamReader(filePath, Encoding.UTF8, detectEncodingFromByteOrderMarks: true);
-        return ImportFindingsCsv(reader, System.IO.Path.GetFileName(filePath), actor, reason, progress);
+        var bytes = File.ReadAllBytes(filePath);
+        var sourceName = System.IO.Path.GetFileName(filePath);
+        var sha = Convert.ToHexStringLower(SHA256.HashData(bytes));
+        if (FirstInvalidUtf8(bytes) is { } bad)
+        {
+            return new ImportResult(null, [], [new("file", sourceName,
+                FormattableString.Invariant($"byte {bad.ByteInLine} of line {bad.Line} (0x{bytes[bad.Index]:X2}) is not UTF-8: save the file as UTF-8 (with or without BOM); nothing was imported"), bad.Line)], sha);
+        }
+
+        var bom = bytes.AsSpan().StartsWith(Encoding.UTF8.Preamble) ? Encoding.UTF8.Preamble.Length : 0;
+        return Import(Encoding.UTF8.GetString(bytes, bom, bytes.Length - bom), sha, sourceName, actor, reason, progress);
+    }
+
+    /// <summary>The first byte that does not begin a valid UTF-8 sequence, with its 1-based line and byte in that line.</summary>
+    internal static (int Index, int Line, int ByteInLine)? FirstInvalidUtf8(ReadOnlySpan<byte> bytes)
+    {
+        var i = 0;
+        while (i < bytes.Length)
+        {
+            if (Rune.DecodeFromUtf8(bytes[i..], out _, out var consumed) != System.Buffers.OperationStatus.Done)
+            {
+                var before = bytes[..i];
+                var lineStart = before.LastIndexOf((byte)'\n') + 1;
+                return (i, before.Count((byte)'\n') + 1, i - lineStart + 1);
+            }
+
+            i += consumed;
+        }
+
+        return null;
     }
 
     /// <summary>
@@ -37,7 +69,11 @@ public sealed partial class RegisterStore
     {
         ArgumentNullException.ThrowIfNull(reader);
         var text = reader.ReadToEnd();
-        var sha = Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(text)));
+        return Import(text, Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(text))), sourceName, actor, reason, progress);
+    }
+
+    private ImportResult Import(string text, string sha, string sourceName, string actor, string reason, IProgress<int>? progress)
+    {
         var problems = new List<ValidationProblem>();
         RequireText(problems, "recorded_by", actor);
         RequireText(problems, "reason", reason);

@@ -7,7 +7,7 @@ namespace InspectionUpdate.Register;
 /// <summary>How <see cref="RegisterStore.Open"/> treats the file.</summary>
 public enum RegisterOpenMode
 {
-    /// <summary>Open the file if it exists, else create it.</summary>
+    /// <summary>Open the file if it exists (it must be a register), else create it.</summary>
     OpenOrCreate,
 
     /// <summary>The file must exist.</summary>
@@ -15,6 +15,13 @@ public enum RegisterOpenMode
 
     /// <summary>The file must not exist; it is created.</summary>
     CreateNew,
+
+    /// <summary>
+    /// The file must exist and the caller only reads: a register that cannot be written (file mode without write
+    /// permission, read-only file system) is opened read-only instead of refused; every write on it then fails with
+    /// <see cref="RegisterFileException"/>.
+    /// </summary>
+    OpenExistingToRead,
 }
 
 /// <summary>Options of a register connection.</summary>
@@ -49,8 +56,9 @@ public sealed partial class RegisterStore : IDisposable
     private readonly TimeProvider _clock;
     private readonly int _busyTimeoutMs;
 
-    private RegisterStore(string path, string connectionString, TimeProvider clock, int busyTimeoutMs, int schemaVersion)
+    private RegisterStore(string path, string connectionString, TimeProvider clock, int busyTimeoutMs, int schemaVersion, bool readOnly = false)
     {
+        IsReadOnly = readOnly;
         Path = path;
         _connectionString = connectionString;
         _clock = clock;
@@ -64,6 +72,9 @@ public sealed partial class RegisterStore : IDisposable
     /// <summary>Full path of the register file.</summary>
     public string Path { get; }
 
+    /// <summary>Whether the register was opened read-only (its file or file system cannot be written).</summary>
+    public bool IsReadOnly { get; }
+
     /// <summary>Schema version of the file after opening (always <see cref="CurrentSchemaVersion"/>).</summary>
     public int SchemaVersion { get; }
 
@@ -71,8 +82,9 @@ public sealed partial class RegisterStore : IDisposable
     /// Opens (and if needed creates) a register, switches it to WAL mode and migrates its schema forward to
     /// <see cref="CurrentSchemaVersion"/>.
     /// </summary>
-    /// <exception cref="RegisterFileException">The file is missing (OpenExisting), exists (CreateNew), is not a SQLite
-    /// database, or has a newer schema than this program.</exception>
+    /// <exception cref="RegisterFileException">The file is missing (OpenExisting), exists (CreateNew), is empty, is not a
+    /// SQLite database, is a SQLite database but not a register (application id and tables), or has a negative or
+    /// newer schema version than this program. A refused file is left as it was: same bytes, no side files.</exception>
     public static RegisterStore Open(string path, RegisterOpenMode mode = RegisterOpenMode.OpenOrCreate, RegisterOptions? options = null) =>
         Open(path, mode, options, Migrations.Current);
 
@@ -82,7 +94,7 @@ public sealed partial class RegisterStore : IDisposable
         ArgumentException.ThrowIfNullOrWhiteSpace(path);
         var full = System.IO.Path.GetFullPath(path);
         var exists = File.Exists(full);
-        if (mode == RegisterOpenMode.OpenExisting && !exists)
+        if (mode is RegisterOpenMode.OpenExisting or RegisterOpenMode.OpenExistingToRead && !exists)
         {
             throw new RegisterFileException($"Register file '{full}' does not exist.");
         }
@@ -92,7 +104,17 @@ public sealed partial class RegisterStore : IDisposable
             throw new RegisterFileException($"Register file '{full}' already exists.");
         }
 
+        // Identity first, from the bytes alone: nothing that is not a register is ever opened for writing.
+        var header = exists ? RegisterIdentity.Require(full) : default;
+        if (exists && header.UserVersion > Migrations.Current) throw Newer(full, header.UserVersion);
+
         options ??= new RegisterOptions();
+        if (exists && !Writable(full))
+        {
+            if (mode == RegisterOpenMode.OpenExistingToRead) return OpenReadOnly(full, options, header.UserVersion);
+            throw ReadOnly(full);
+        }
+
         var busy = (int)(options.BusyTimeout ?? TimeSpan.FromSeconds(30)).TotalMilliseconds;
         var builder = new SqliteConnectionStringBuilder
         {
@@ -118,11 +140,8 @@ public sealed partial class RegisterStore : IDisposable
             }
 
             var version = Migrations.ReadVersion(connection);
-            if (version > Migrations.Current)
-            {
-                throw new RegisterFileException(
-                    FormattableString.Invariant($"Register file '{full}' has schema version {version}, newer than this program's {Migrations.Current}; use a newer program."));
-            }
+            if (version > Migrations.Current) throw Newer(full, version);
+            if (version < 0) throw new RegisterFileException(FormattableString.Invariant($"Register file '{full}' has schema version {version}, which no program writes; it was left as it is."));
 
             Migrations.MigrateTo(connection, targetVersion, () => store.NowText(), Actor);
             return store;
@@ -136,6 +155,64 @@ public sealed partial class RegisterStore : IDisposable
         {
             store.Dispose();
             throw;
+        }
+    }
+
+    private static RegisterFileException ReadOnly(string full) =>
+        new($"Register file '{full}' is read-only (its file mode or file system does not allow writing): nothing was written. Read commands work on it; write where the file can be written.");
+
+    private static RegisterFileException Newer(string full, int version) =>
+        new(FormattableString.Invariant($"Register file '{full}' has schema version {version}, newer than this program's {Migrations.Current}; use a newer program."));
+
+    /// <summary>
+    /// Whether the file may be written: its mode grants the owner write permission (checked from the mode, so that a
+    /// 0444 file is read-only even for a superuser) and it opens for writing (a read-only file system refuses).
+    /// Opening for writing changes neither the bytes nor the times of the file.
+    /// </summary>
+    private static bool Writable(string full)
+    {
+        try
+        {
+            if (OperatingSystem.IsWindows())
+            {
+                if (File.GetAttributes(full).HasFlag(FileAttributes.ReadOnly)) return false;
+            }
+            else if ((File.GetUnixFileMode(full) & UnixFileMode.UserWrite) == 0)
+            {
+                return false;
+            }
+
+            using var probe = new FileStream(full, FileMode.Open, FileAccess.ReadWrite, FileShare.ReadWrite | FileShare.Delete);
+            return true;
+        }
+        catch (Exception e) when (e is UnauthorizedAccessException or IOException)
+        {
+            return false;
+        }
+    }
+
+    /// <summary>A read-only register: immutable reads when no -wal file exists, else read-only reads through it.</summary>
+    private static RegisterStore OpenReadOnly(string full, RegisterOptions options, int version)
+    {
+        if (version != Migrations.Current)
+        {
+            throw new RegisterFileException(FormattableString.Invariant(
+                $"Register file '{full}' is read-only and has schema version {version}; this program reads version {Migrations.Current}. Open it once where it can be written (it is then migrated), or use the program that wrote it."));
+        }
+
+        var connectionString = File.Exists(full + "-wal")
+            ? new SqliteConnectionStringBuilder { DataSource = full, Mode = SqliteOpenMode.ReadOnly, Pooling = false }.ToString()
+            : RegisterIdentity.ImmutableConnectionString(full);
+        var busy = (int)(options.BusyTimeout ?? TimeSpan.FromSeconds(30)).TotalMilliseconds;
+        var store = new RegisterStore(full, connectionString, options.Clock ?? TimeProvider.System, busy, version, readOnly: true);
+        try
+        {
+            using var connection = store.Connect();
+            return store;
+        }
+        catch (SqliteException e)
+        {
+            throw new RegisterFileException($"Register file '{full}' is read-only and cannot be read: {e.Message}", e);
         }
     }
 
@@ -156,7 +233,9 @@ public sealed partial class RegisterStore : IDisposable
         connection.Open();
         using var command = connection.CreateCommand();
         // Integers formatted by the program, not user data.
-        command.CommandText = string.Create(CultureInfo.InvariantCulture, $"PRAGMA busy_timeout = {_busyTimeoutMs}; PRAGMA synchronous = FULL; PRAGMA foreign_keys = ON;");
+        command.CommandText = IsReadOnly
+            ? string.Create(CultureInfo.InvariantCulture, $"PRAGMA busy_timeout = {_busyTimeoutMs};")
+            : string.Create(CultureInfo.InvariantCulture, $"PRAGMA busy_timeout = {_busyTimeoutMs}; PRAGMA synchronous = FULL; PRAGMA foreign_keys = ON;");
         command.ExecuteNonQuery();
         return connection;
     }
@@ -164,6 +243,11 @@ public sealed partial class RegisterStore : IDisposable
     /// <summary>Runs <paramref name="work"/> in one IMMEDIATE write transaction; commits only when it returns a value to keep.</summary>
     internal T Write<T>(Func<SqliteConnection, SqliteTransaction, (T Result, bool Commit)> work)
     {
+        if (IsReadOnly)
+        {
+            throw ReadOnly(Path);
+        }
+
         using var connection = Connect();
         using var transaction = connection.BeginTransaction(deferred: false);
         var (result, commit) = work(connection, transaction);

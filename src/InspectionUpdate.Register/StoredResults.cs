@@ -185,9 +185,9 @@ public sealed partial class RegisterStore : IResultSink
     public IReadOnlyList<StoredResult> Results(DateOnly? asOf = null, string? optionsKey = null, bool withProfiles = false) =>
         Read((c, t) => ResultRows.Read(c, t, asOf, optionsKey, withProfiles));
 
-    /// <summary>Components recorded on or before <paramref name="asOf"/>: id, code and install date only (cheap for large registers), by code.</summary>
+    /// <summary>Components recorded on or before <paramref name="asOf"/> and not retired as known then: id, code and install date only (cheap for large registers), by code.</summary>
     public IReadOnlyList<(long Id, string Code, DateOnly InstallDate)> ComponentIndex(DateTimeOffset asOf) => Read((c, t) => Sql.Query(c, t,
-        "SELECT component_id, code, install_date FROM component WHERE recorded_utc <= $asOf ORDER BY code",
+        "SELECT component_id, code, install_date FROM component c WHERE recorded_utc <= $asOf AND COALESCE((SELECT s.status FROM component_status s WHERE s.component_id = c.component_id AND s.recorded_utc <= $asOf ORDER BY s.recorded_utc DESC, s.status_id DESC LIMIT 1), 'in-service') <> 'retired' ORDER BY code",
         r => (r.GetInt64(0), r.GetString(1), Sql.ParseDate(r.GetString(2))), ("$asOf", Sql.Utc(asOf))));
 }
 
@@ -212,12 +212,29 @@ public sealed class ShardResultsFile : IResultSink, IDisposable
     /// <summary>Full path of the file.</summary>
     public string Path { get; }
 
-    /// <summary>Creates (or replaces) a results file with its header.</summary>
+    /// <summary>The application id of a shard results file: the ASCII letters "IURS" (a register has "IURG").</summary>
+    public const int ApplicationId = 0x49555253;
+
+    /// <summary>
+    /// Creates a results file with its header, replacing an earlier shard results file at <paramref name="path"/>;
+    /// any other existing file (a register, another application's file) is refused and left as it is.
+    /// </summary>
+    /// <exception cref="RegisterFileException">An existing file at <paramref name="path"/> is not a shard results file.</exception>
     public static ShardResultsFile Create(string path, ShardHeader header)
     {
         ArgumentNullException.ThrowIfNull(header);
         var full = System.IO.Path.GetFullPath(path);
         SqliteConnection.ClearAllPools();
+        if (File.Exists(full))
+        {
+            // Only an earlier shard results file is replaced (its header is read first, read-only).
+            using (OpenRead(full))
+            {
+            }
+
+            SqliteConnection.ClearAllPools();
+        }
+
         foreach (var f in new[] { full, full + "-journal" })
         {
             if (File.Exists(f)) File.Delete(f);
@@ -226,7 +243,8 @@ public sealed class ShardResultsFile : IResultSink, IDisposable
         var connection = Open(full, SqliteOpenMode.ReadWriteCreate);
         using var transaction = connection.BeginTransaction(deferred: false);
         using (var create = Sql.Command(connection, transaction, Migrations.ResultTable(inRegister: false) +
-            "\nCREATE TABLE shard_header (format TEXT NOT NULL, register TEXT NOT NULL, as_of TEXT NOT NULL, options_key TEXT NOT NULL, tool_version TEXT NOT NULL, shard INTEGER NOT NULL, shard_count INTEGER NOT NULL, created_utc TEXT NOT NULL) STRICT;"))
+            "\nCREATE TABLE shard_header (format TEXT NOT NULL, register TEXT NOT NULL, as_of TEXT NOT NULL, options_key TEXT NOT NULL, tool_version TEXT NOT NULL, shard INTEGER NOT NULL, shard_count INTEGER NOT NULL, created_utc TEXT NOT NULL) STRICT;" +
+            "\nPRAGMA application_id = " + ApplicationId.ToString(CultureInfo.InvariantCulture) + ";"))
         {
             create.ExecuteNonQuery();
         }
@@ -249,6 +267,7 @@ public sealed class ShardResultsFile : IResultSink, IDisposable
     {
         var full = System.IO.Path.GetFullPath(path);
         if (!File.Exists(full)) throw new RegisterFileException($"Results file '{full}' does not exist.");
+        RequireShardHeader(full);
         try
         {
             var connection = Open(full, SqliteOpenMode.ReadOnly);
@@ -260,6 +279,31 @@ public sealed class ShardResultsFile : IResultSink, IDisposable
         {
             throw new RegisterFileException($"'{full}' is not a shard results file: {e.Message}", e);
         }
+    }
+
+    /// <summary>
+    /// Refuses, from the file's first 100 bytes and before SQLite opens it, a file that cannot be a shard results file:
+    /// not SQLite, a register, another application's database, or a database in WAL mode (a shard results file uses
+    /// a rollback journal). Reads only, so the file is left as it is.
+    /// </summary>
+    private static void RequireShardHeader(string full)
+    {
+        var header = new byte[100];
+        int read;
+        using (var stream = new FileStream(full, FileMode.Open, FileAccess.Read, FileShare.ReadWrite | FileShare.Delete))
+        {
+            read = stream.ReadAtLeast(header, header.Length, throwOnEndOfStream: false);
+        }
+
+        if (read < header.Length || !header.AsSpan(0, 16).SequenceEqual("SQLite format 3\0"u8))
+            throw new RegisterFileException($"'{full}' is not a shard results file (not a SQLite database); it was left as it is.");
+        var applicationId = System.Buffers.Binary.BinaryPrimitives.ReadInt32BigEndian(header.AsSpan(68, 4));
+        if (applicationId == RegisterIdentity.ApplicationId)
+            throw new RegisterFileException($"'{full}' is a register, not a shard results file; it was left as it is.");
+        if (applicationId != ApplicationId && applicationId != 0)
+            throw new RegisterFileException(string.Create(CultureInfo.InvariantCulture, $"'{full}' is a SQLite database of another application (application id 0x{applicationId:X8}), not a shard results file; it was left as it is."));
+        if (header[18] == 2 || header[19] == 2)
+            throw new RegisterFileException($"'{full}' is a SQLite database in WAL mode, not a shard results file; it was left as it is.");
     }
 
     private static SqliteConnection Open(string full, SqliteOpenMode mode)

@@ -2,6 +2,7 @@ using System.Globalization;
 using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
+using InspectionUpdate.Register;
 using InspectionUpdate.Reliability;
 using InspectionUpdate.Reporting.Export;
 using InspectionUpdate.Reporting.Plots;
@@ -26,8 +27,9 @@ internal static class Study
             return ComponentContexts.FromFiles(modelPath, findings, inService, asOf);
         }
 
-        using var store = RegisterAccess.Open(host, s.RegisterPath(host));
-        return ComponentContexts.FromRegister(store, RegisterAccess.Component(store, s.Component!, asOf), asOf);
+        using var store = RegisterAccess.Open(host, s.RegisterPath(host), RegisterOpenMode.OpenExistingToRead);
+        var knownOn = s.KnownOnDate(host);
+        return ComponentContexts.FromRegister(store, RegisterAccess.Component(store, s.Component!, knownOn), asOf, knownOn);
     }
 
     /// <summary>&lt;model&gt;.findings.csv beside a model file (x.model.json → x.findings.csv), when it exists.</summary>
@@ -68,7 +70,8 @@ public sealed class AssessCommand(CliHost host) : CliCommand<AssessSettings>(hos
         else
         {
             Line($"{context.Id} — {context.Name} ({context.Site}); {context.ModelDescription}");
-            Line($"In service {context.InServiceDate:yyyy-MM-dd}; evidence to {asOf:yyyy-MM-dd} ({request.AsOfYears.ToString("0.00", CultureInfo.InvariantCulture)} years): {request.Evidence.Count.ToString(CultureInfo.InvariantCulture)} record(s).");
+            Line($"In service {context.InServiceDate:yyyy-MM-dd}; evidence to {asOf:yyyy-MM-dd} ({request.AsOfYears.ToString("0.00", CultureInfo.InvariantCulture)} years): {request.Evidence.Count.ToString(CultureInfo.InvariantCulture)} record(s)"
+                + (settings.Model is null ? $"; register as known on {settings.KnownOnDate(Host):yyyy-MM-dd}." : "."));
             var prior = outcome.Prior.Points;
             var updated = outcome.Updated?.Points;
             var step = Math.Max(1, prior.Count / 20);

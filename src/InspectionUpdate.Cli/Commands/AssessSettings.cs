@@ -16,7 +16,16 @@ public class AssessSettings : SampledSettings
 
     /// <summary>Help of --as-of (assess, plan, report).</summary>
     public const string AsOfHelp =
-        "The evidence date (ISO 8601, default today). The register is read as known on that date: components, methods, findings, corrections and repairs recorded after it are left out, and so are inspections dated after it. A component recorded after the date is refused. With --model, findings dated after it are left out.";
+        "Evidence up to this date (ISO 8601, default today): inspections and repairs dated after it are left out, and the profile's 'now' is this date. Which records count is set by --known-on.";
+
+    /// <summary>Help of --known-on (assess, plan, report).</summary>
+    public const string KnownOnHelp =
+        "The register as it was recorded on this date (ISO 8601, default today): components, model revisions, methods, findings, corrections and repairs recorded after it are left out, so an earlier result is reproduced. A component recorded after it is refused.";
+
+    /// <summary>Register date.</summary>
+    [CommandOption("--known-on <DATE>")]
+    [Description(KnownOnHelp)]
+    public string? KnownOn { get; init; }
 
     /// <summary>Model file route.</summary>
     [CommandOption("--model <FILE>")]
@@ -72,8 +81,19 @@ public class AssessSettings : SampledSettings
             return ValidationResult.Error($"--as-of '{AsOf}' is not an ISO 8601 date (yyyy-MM-dd).");
         }
 
+        if (KnownOn is not null && !DateOnly.TryParseExact(KnownOn, "yyyy-MM-dd", CultureInfo.InvariantCulture, DateTimeStyles.None, out _))
+        {
+            return ValidationResult.Error($"--known-on '{KnownOn}' is not an ISO 8601 date (yyyy-MM-dd).");
+        }
+
+        if (KnownOn is not null && Model is not null) return ValidationResult.Error($"--known-on '{KnownOn}' reads the register; it does not apply to --model.");
+
         return ValidationResult.Success();
     }
+
+    /// <summary>The date the register is read as recorded on (default today).</summary>
+    public DateOnly KnownOnDate(CliHost host) =>
+        KnownOn is null ? host.Today() : DateOnly.ParseExact(KnownOn, "yyyy-MM-dd", CultureInfo.InvariantCulture);
 
     /// <summary>The evidence date.</summary>
     public DateOnly AsOfDate(CliHost host) =>

@@ -28,7 +28,7 @@ public sealed class ComponentAddSettings : RegisterSettings
 
     /// <summary>Model file.</summary>
     [CommandOption("--model <FILE>")]
-    [Description("Component model file (JSON, see docs/formats.md).")]
+    [Description("Component model file (JSON, see docs/models.md §5); checked as assess checks it.")]
     public string? Model { get; init; }
 
     /// <summary>Model version.</summary>
@@ -100,7 +100,7 @@ public sealed class ComponentListCommand(CliHost host) : CliCommand<ComponentLis
     /// <inheritdoc />
     protected override int Run(ComponentListSettings settings, CancellationToken cancellation)
     {
-        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExistingToRead);
         var sites = store.Sites();
         if (settings.Site is not null && sites.All(s => s.Code != settings.Site)) throw CliException.BadInput("--site", settings.Site, "is not in the register.");
         var rows = store.Components().Select(c => ComponentRow.From(c, sites)).Where(r => settings.Site is null || r.Site == settings.Site).ToArray();

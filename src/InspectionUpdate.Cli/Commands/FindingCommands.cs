@@ -112,7 +112,7 @@ public sealed class FindingImportSettings : RegisterSettings
 {
     /// <summary>CSV file.</summary>
     [CommandArgument(0, "<CSV>")]
-    [Description("Findings file (CSV, see docs/formats.md).")]
+    [Description("Findings file (CSV, UTF-8, see docs/register.md, \"CSV import of findings\").")]
     public string File { get; init; } = string.Empty;
 
     /// <summary>Who imports.</summary>
@@ -244,7 +244,7 @@ public sealed class FindingListCommand(CliHost host) : CliCommand<FindingListSet
     /// <inheritdoc />
     protected override int Run(FindingListSettings settings, CancellationToken cancellation)
     {
-        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExistingToRead);
         var components = settings.Component is null ? store.Components() : [RegisterAccess.Component(store, settings.Component)];
         var rows = new List<FindingRow>();
         foreach (var c in components)
@@ -295,7 +295,7 @@ public sealed class RepairLogSettings : RegisterSettings
 
     /// <summary>Post-repair prior.</summary>
     [CommandOption("--post-repair-prior <FILE>")]
-    [Description("JSON file with the distributions of the inputs the repair renews (docs/formats.md); default: the renewed inputs restart with their original prior.")]
+    [Description("JSON file with the distributions of the inputs the repair renews (docs/register.md, section Post-repair prior); default: the renewed inputs restart with their original prior.")]
     public string? PostRepairPrior { get; init; }
 
     /// <summary>Who.</summary>
@@ -332,4 +332,11 @@ public sealed class RepairLogCommand(CliHost host) : CliCommand<RepairLogSetting
 }
 
 /// <summary>A repair in --json output.</summary>
-public sealed record RepairRow(long RepairId, int Revision, string Component, DateOnly RepairDate, string Description, string PostRepairPriorJson, DateTimeOffset RecordedUtc, string RecordedBy);
+public sealed record RepairRow(long RepairId, int Revision, string Component, DateOnly RepairDate, string Description, string PostRepairPriorJson, DateTimeOffset RecordedUtc, string RecordedBy)
+{
+    /// <summary>Whether this revision withdraws the repair.</summary>
+    public bool Withdrawn { get; init; }
+
+    /// <summary>Why this revision was recorded.</summary>
+    public string Reason { get; init; } = string.Empty;
+}

@@ -3,6 +3,7 @@ using System.Globalization;
 using System.Text.Json;
 using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
+using InspectionUpdate.Degradation.Definition;
 using InspectionUpdate.Inspection;
 using InspectionUpdate.Register;
 using InspectionUpdate.Reporting.Export;
@@ -244,7 +245,7 @@ public sealed class MethodListCommand(CliHost host) : CliCommand<MethodListSetti
     /// <inheritdoc />
     protected override int Run(MethodListSettings settings, CancellationToken cancellation)
     {
-        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExistingToRead);
         var rows = store.Methods().Select(MethodRow.From).ToArray();
         if (settings.Json) WriteJson(new MethodList(rows));
         else

@@ -47,12 +47,12 @@ public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterChec
     /// <inheritdoc />
     protected override int Run(RegisterCheckSettings settings, CancellationToken cancellation)
     {
-        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExistingToRead);
         var check = store.Check();
         var now = Host.Clock.GetUtcNow();
         var results = StoredResults.Check(store);
         var result = new RegisterChecked(store.Path, check.SchemaVersion, check.IsHealthy, check.IntegrityCheck, check.ForeignKeyViolations,
-            check.InvariantViolations, store.Fingerprint(now), store.Sites().Count, store.Components().Count, store.Methods().Count)
+            check.InvariantViolations, check.InvalidModels, store.Fingerprint(now), store.Sites().Count, store.Components().Count, store.Methods().Count)
         {
             StoredResults = results.Stored,
             StaleResults = results.Stale,
@@ -66,10 +66,13 @@ public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterChec
                 ["SQLite integrity", string.Join("; ", check.IntegrityCheck)],
                 ["foreign keys", check.ForeignKeyViolations.Count == 0 ? "ok" : string.Join("; ", check.ForeignKeyViolations)],
                 ["register invariants", check.InvariantViolations.Count == 0 ? "ok" : string.Join("; ", check.InvariantViolations)],
+                ["component models", check.InvalidModels.Count == 0 ? "ok" : $"{check.InvalidModels.Count.ToString(System.Globalization.CultureInfo.InvariantCulture)} do not pass (listed below)"],
                 ["sites / components / methods", $"{result.Sites} / {result.Components} / {result.Methods}"],
                 ["fingerprint", result.Fingerprint],
                 ["stored results", results.Stored.ToString(CultureInfo.InvariantCulture) + (results.Stale.Count == 0 ? ", every key matches" : $", {results.Stale.Count.ToString(CultureInfo.InvariantCulture)} stale (recomputed by the next register assess)")],
             ]);
+            foreach (var m in check.InvalidModels) Line("model does not pass: " + m);
+            if (check.InvalidModels.Count > 0) Line("Components with these models cannot be assessed until their model is revised (component revise).");
             if (results.Stale.Count > 0)
             {
                 Table(["component", "as of", "options", "stale because"], results.Stale.Select(r => (IReadOnlyList<string>)
@@ -84,7 +87,7 @@ public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterChec
 
 /// <summary>--json of <c>register check</c>.</summary>
 public sealed record RegisterChecked(string Register, int SchemaVersion, bool Healthy, IReadOnlyList<string> IntegrityCheck,
-    IReadOnlyList<string> ForeignKeyViolations, IReadOnlyList<string> InvariantViolations, string Fingerprint, int Sites, int Components, int Methods)
+    IReadOnlyList<string> ForeignKeyViolations, IReadOnlyList<string> InvariantViolations, IReadOnlyList<string> InvalidModels, string Fingerprint, int Sites, int Components, int Methods)
 {
     /// <summary>Stored results of whole-register runs.</summary>
     public int StoredResults { get; init; }
@@ -153,7 +156,8 @@ public sealed class RegisterAssessCommand(CliHost host) : CliCommand<RegisterAss
             Sampling = settings.Sampling(),
         };
         var registerPath = settings.RegisterPath(Host);
-        using var store = RegisterAccess.Open(Host, registerPath);
+        // A shard only reads the register (its results go to their own file): a read-only register can be sharded.
+        using var store = RegisterAccess.Open(Host, registerPath, shard is null ? RegisterOpenMode.OpenExisting : RegisterOpenMode.OpenExistingToRead);
         string? resultsPath = null;
         PortfolioSummary summary;
         if (shard is { } s)
@@ -242,7 +246,7 @@ public sealed class RegisterMergeCommand(CliHost host) : CliCommand<RegisterMerg
     /// <inheritdoc />
     protected override int Run(RegisterMergeSettings settings, CancellationToken cancellation)
     {
-        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExisting);
         var merged = StoredResults.Merge(store, settings.Files.Select(Host.Resolve).ToArray());
         if (settings.Json) WriteJson(merged);
         else
@@ -374,7 +378,7 @@ public sealed class RegisterReportCommand(CliHost host) : CliCommand<RegisterRep
             Sampling = settings.Sampling(),
         };
         var registerPath = settings.RegisterPath(Host);
-        using var store = RegisterAccess.Open(Host, registerPath);
+        using var store = RegisterAccess.Open(Host, registerPath, RegisterOpenMode.OpenExistingToRead);
         var summary = RegisterReport.Write(store, Host.Resolve(settings.Out), Path.GetFileNameWithoutExtension(registerPath), options);
         var doc = new RegisterReported(summary.Index, summary.Csv, asOf, options.OptionsKey, summary.Results, summary.Missing.Count, summary.Stale.Count, summary.Pages,
             Math.Round(summary.Elapsed.TotalSeconds, 2), Reporting.Cautions.Line);

@@ -3,6 +3,7 @@ using System.Globalization;
 using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
+using InspectionUpdate.Register;
 using InspectionUpdate.Time;
 using Spectre.Console.Cli;
 
@@ -26,6 +27,11 @@ public sealed class ReportSettings : SampledSettings
     [CommandOption("--as-of <DATE>")]
     [Description(AssessSettings.AsOfHelp)]
     public string? AsOf { get; init; }
+
+    /// <summary>Register date.</summary>
+    [CommandOption("--known-on <DATE>")]
+    [Description(AssessSettings.KnownOnHelp)]
+    public string? KnownOn { get; init; }
 
     /// <summary>Target.</summary>
     [CommandOption("--target-annual-pf <P>")]
@@ -55,11 +61,13 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         var asOf = settings.AsOf is null ? Host.Today() : RegisterAccess.Date("--as-of", settings.AsOf);
         var registerPath = settings.RegisterPath(Host);
         var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null) { Sampling = settings.Sampling() };
-        var result = Produce(Host, registerPath, settings.Component, Host.Resolve(settings.Out), options, settings.Json, Path.GetFileNameWithoutExtension(registerPath));
+        var knownOn = settings.KnownOn is null ? Host.Today() : RegisterAccess.Date("--known-on", settings.KnownOn);
+        var result = Produce(Host, registerPath, settings.Component, Host.Resolve(settings.Out), options, settings.Json, Path.GetFileNameWithoutExtension(registerPath), knownOn);
         if (settings.Json) WriteJson(result.Document);
         else
         {
             Summary(result.Document);
+            Line($"Evidence up to {result.Document.AsOf:yyyy-MM-dd}; register as known on {result.Document.KnownOn:yyyy-MM-dd}; fingerprint {result.Document.Fingerprint[..12]}….");
             Line($"Report: {result.Document.PortfolioReport}");
             Caution();
         }
@@ -68,18 +76,21 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
     }
 
     /// <summary>Runs the report over a register; shared with demo.</summary>
-    internal static (ReportDocument Document, int ExitCode) Produce(CliHost host, string registerPath, string? only, string folder, ReportRunOptions options, bool quiet, string title)
+    internal static (ReportDocument Document, int ExitCode) Produce(CliHost host, string registerPath, string? only, string folder, ReportRunOptions options, bool quiet, string title, DateOnly? knownOn = null)
     {
-        using var store = RegisterAccess.Open(host, registerPath);
-        var snapshot = new RegisterSnapshot(store, options.AsOf);
-        var components = only is null ? store.Components(snapshot.Known) : [RegisterAccess.Component(store, only, options.AsOf)];
+        // Evidence up to options.AsOf; the register as recorded on knownOn (the demo passes none: the same date).
+        var registerDate = knownOn ?? options.AsOf;
+        using var store = RegisterAccess.Open(host, registerPath, RegisterOpenMode.OpenExistingToRead);
+        var snapshot = new RegisterSnapshot(store, options.AsOf, registerDate);
+        // Retired components leave reports (as known on the date); naming one still reports it.
+        var components = only is null ? store.ComponentsInService(snapshot.Known) : [RegisterAccess.Component(store, only, registerDate)];
         var fingerprint = snapshot.Fingerprint;
         var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(snapshot, c))).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
         var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, []);
         var rows = runs.Select(r => Row(r, folder)).ToArray();
         var code = runs.Any(r => r.Error is not null) ? ExitCodes.BadInput : runs.All(r => r.AllConverged) ? ExitCodes.Ok : ExitCodes.NotConverged;
-        return (new ReportDocument(folder, index, fingerprint, options.AsOf, options.Target.AnnualPf, rows, Reporting.Cautions.Line), code);
+        return (new ReportDocument(folder, index, fingerprint, options.AsOf, options.Target.AnnualPf, rows, Reporting.Cautions.Line) { KnownOn = registerDate }, code);
     }
 
     /// <summary>One component's row: the annual Pf is the ΔPf of the grid year ending at the first grid time at or after the as-of date.</summary>
@@ -135,4 +146,8 @@ public sealed record ReportRow(string ComponentId, double? AnnualPfNow, DateOnly
 }
 
 /// <summary>--json of <c>report</c>.</summary>
-public sealed record ReportDocument(string OutputFolder, string PortfolioReport, string Fingerprint, DateOnly AsOf, double TargetAnnualPf, IReadOnlyList<ReportRow> Components, string Caution);
+public sealed record ReportDocument(string OutputFolder, string PortfolioReport, string Fingerprint, DateOnly AsOf, double TargetAnnualPf, IReadOnlyList<ReportRow> Components, string Caution)
+{
+    /// <summary>The date the register was read as recorded on (--known-on).</summary>
+    public DateOnly KnownOn { get; init; }
+}

@@ -56,7 +56,7 @@ public sealed class SiteListCommand(CliHost host) : CliCommand<SiteListSettings>
     /// <inheritdoc />
     protected override int Run(SiteListSettings settings, CancellationToken cancellation)
     {
-        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExistingToRead);
         var sites = store.Sites();
         var components = store.Components();
         if (settings.Json) WriteJson(new SiteList(sites.Select(SiteRow.From).ToArray()));

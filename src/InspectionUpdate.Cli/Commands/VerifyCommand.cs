@@ -79,7 +79,7 @@ public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(hos
                     }
                     else if (r.Method.Contains("Breitung", StringComparison.Ordinal) && c.BreitungPf is { } b)
                     {
-                        list.Add(new(c.Name, "REFERENCES.md: Breitung (1984) formula value [derived]", "Pf (SORM formula)", b, r.FailureProbability, 1e-3, r.Method, r.Note));
+                        list.Add(new(c.Name, "docs/references.md: Breitung (1984) formula value [derived]", "Pf (SORM formula)", b, r.FailureProbability, 1e-3, r.Method, r.Note));
                     }
                     else if (r.Route == ComputationRoute.SecondOrder && c.Sorm is { } s && PublishedValue(s, r.Method) is { } published)
                     {
@@ -163,12 +163,12 @@ public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(hos
             new LimitState("R − S", x => x[0] - x[1]));
         var cornell = 100 / Math.Sqrt(1300);
 
-        // 2. g = X1·X2 − X3 (REFERENCES.md, non-trivial FORM case, derived): β_FORM = 3.049073, exact Pf = 1.176882e−3.
+        // 2. g = X1·X2 − X3 (docs/references.md, non-trivial FORM case, derived): β_FORM = 3.049073, exact Pf = 1.176882e−3.
         var product = new ReliabilityProblem(new StochasticModel(
             [new NormalVariable("X1", 40, 5), new NormalVariable("X2", 50, 2.5), new NormalVariable("X3", 1000, 200)]),
             new LimitState("X1·X2 − X3", x => x[0] * x[1] - x[2]));
 
-        // 3. Paraboloid in standard normal space, failure if u2 ≥ β + (κ/2)u1², β = 3, κ = 0.1 (REFERENCES.md, SORM exact
+        // 3. Paraboloid in standard normal space, failure if u2 ≥ β + (κ/2)u1², β = 3, κ = 0.1 (docs/references.md, SORM exact
         //    paraboloid, derived by integration over χ²): exact 1.168962e−3, Breitung (1984) 1.183939e−3, β_FORM = 3.
         var parabola = new ReliabilityProblem(new StochasticModel([new NormalVariable("U1", 0, 1), new NormalVariable("U2", 0, 1)]),
             new LimitState("3 + 0.05·U1² − U2", x => 3 + 0.05 * x[0] * x[0] - x[1]));
@@ -185,8 +185,8 @@ public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(hos
         return
         [
             new("linear R − S, normal", "Cornell (1969)", linear, cornell, "Cornell (1969), closed form", StandardNormal.Ccdf(cornell), "closed form Φ(−β), exact for a linear normal margin"),
-            new("X1·X2 − X3, normal", "REFERENCES.md (derived)", product, 3.049073, "REFERENCES.md: FORM check value [derived]", 1.176882e-3, "REFERENCES.md: exact Pf [derived]"),
-            new("paraboloid β = 3, κ = 0.1", "REFERENCES.md (derived)", parabola, 3.0, "distance to the apex, exact", 1.168962e-3, "exact by integration over χ² (REFERENCES.md, derived)", 1.183939e-3),
+            new("X1·X2 − X3, normal", "docs/references.md (derived)", product, 3.049073, "docs/references.md: FORM check value [derived]", 1.176882e-3, "docs/references.md: exact Pf [derived]"),
+            new("paraboloid β = 3, κ = 0.1", "docs/references.md (derived)", parabola, 3.0, "distance to the apex, exact", 1.168962e-3, "exact by integration over χ² (docs/references.md, derived)", 1.183939e-3),
             new("deflection F·L³/(3EI) > 1.5, normal", "OpenTURNS t_SORM_std", deflection, 0.115943, "OpenTURNS test t_SORM_std.expout (6 decimals)", null, "no exact value published",
                 Sorm: new("OpenTURNS test t_SORM_std.expout (6 decimals)", 0.451173, 0.435230, 0.433548, 1e-5)),
         ];

@@ -10,7 +10,7 @@ namespace InspectionUpdate.Cli.Infrastructure;
 /// Base of every command: runs <see cref="Run"/>, turns expected failures into one sentence and an exit code,
 /// and writes JSON errors when --json is given.
 /// </summary>
-public abstract class CliCommand<TSettings> : Command<TSettings>
+public abstract partial class CliCommand<TSettings> : Command<TSettings>
     where TSettings : CommonSettings
 {
     /// <summary>Creates the command on a host.</summary>
@@ -37,6 +37,10 @@ public abstract class CliCommand<TSettings> : Command<TSettings>
         catch (ApplicationFailureException e)
         {
             return Fail(settings, ExitCodes.Of(e.Kind), e.Message, e, e.Problems);
+        }
+        catch (Register.RegisterFileException e)
+        {
+            return Fail(settings, ExitCodes.RegisterError, e.Message, e);
         }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
         {
@@ -74,13 +78,18 @@ public abstract class CliCommand<TSettings> : Command<TSettings>
 
     private int Fail(TSettings settings, int code, string message, Exception e, IReadOnlyList<string>? problems = null)
     {
-        problems ??= [];
+        // .NET's "(Parameter 'x')" names an internal parameter, not the user's field: never shown.
+        message = NetParameter().Replace(message, string.Empty);
+        problems = (problems ?? []).Select(p => NetParameter().Replace(p, string.Empty)).ToArray();
         Host.Error.WriteLine("error: " + message);
         foreach (var p in problems) Host.Error.WriteLine("  " + p);
         if (settings.Verbose) Host.Error.WriteLine(e.ToString());
         if (settings.Json) WriteJson(new ErrorDocument(new ErrorDetail(code, ExitCodes.Name(code), message, problems)));
         return code;
     }
+
+    [System.Text.RegularExpressions.GeneratedRegex(@" ?\(Parameter '[^']*'\)")]
+    private static partial System.Text.RegularExpressions.Regex NetParameter();
 
     private sealed record ErrorDocument(ErrorDetail Error);
 

@@ -24,8 +24,11 @@ internal static class RegisterAccess
     /// <summary>A component by code, or bad input naming the code.</summary>
     public static Component Component(RegisterStore store, string code) => Registers.Component(store, code);
 
-    /// <summary>A component by code as known on <paramref name="asOf"/> (see <see cref="Registers.Component(RegisterStore, string, DateOnly)"/>).</summary>
-    public static Component Component(RegisterStore store, string code, DateOnly asOf) => Registers.Component(store, code, asOf);
+    /// <summary>
+    /// A component by code as known on <paramref name="knownOn"/> (the --known-on date); a component recorded after that
+    /// date is bad input naming --known-on (see <see cref="Registers.Component(RegisterStore, string, DateOnly, string)"/>).
+    /// </summary>
+    public static Component Component(RegisterStore store, string code, DateOnly knownOn) => Registers.Component(store, code, knownOn, "--known-on");
 
     /// <summary>Parses an ISO 8601 date option, or bad input naming the option.</summary>
     public static DateOnly Date(string option, string? value)

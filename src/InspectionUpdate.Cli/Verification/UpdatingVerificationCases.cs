@@ -5,11 +5,12 @@ using InspectionUpdate.Inspection;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Reliability;
 using InspectionUpdate.Updating;
+using InspectionUpdate.Updating.Sampling;
 
 namespace InspectionUpdate.Cli.Verification;
 
 /// <summary>
-/// Verification of the main job, updating and planning, on the worked case of REFERENCES.md: ln a(t) = X₁ + X₂t,
+/// Verification of the main job, updating and planning, on the worked case of docs/references.md: ln a(t) = X₁ + X₂t,
 /// X₁ ~ N(ln 0.5, 0.5), X₂ ~ N(0.10, 0.02), failure at a = 20 mm; probability of detection Φ((ln a − ln 2)/0.5);
 /// sizing error ln ε ~ N(0, 0.25). Every event surface is a hyperplane in standard normal space, so the expected
 /// values are exact (derived there by bivariate normal and Gaussian conditioning) and first order must reproduce
@@ -18,7 +19,7 @@ namespace InspectionUpdate.Cli.Verification;
 /// <remarks>The model is written in the component-model file format, so the check also runs the definition parser.</remarks>
 internal static class UpdatingVerificationCases
 {
-    private const string Source = "REFERENCES.md worked updating case [derived, exact]";
+    private const string Source = "docs/references.md worked updating case [derived, exact]";
 
     private static readonly string ModelJson = """
         {
@@ -67,6 +68,23 @@ internal static class UpdatingVerificationCases
         rows.Add(FirstOrderRow(name + ", 3.2 mm sized at 10 y", "Pf(20 y) updated", 2.628171e-3, firstOrder.Estimate(model, sized, 20), 2e-3));
         rows.Add(SimulationRow(name + ", 3.2 mm sized at 10 y", "Pf(20 y) updated", 2.628171e-3, simulation.Estimate(model, sized, 20)));
 
+        // The sample-set route (the automatic route's numbers): one weighted set per set of findings, read at 20 y.
+        var sampleSet = new SampleSetUpdater(SampleSetOptions.Default with { FirstOrderBelowResolution = false, HorizonYears = 40 });
+        rows.Add(SimulationRow(name + ", prior", "Pf(20 y)", 4.174915e-3, sampleSet.Estimate(model, [], 20), "sample-set route"));
+        rows.Add(SimulationRow(name + ", no indication at 10 y", "Pf(20 y) updated", 1.071037e-4, sampleSet.Estimate(model, none, 20), "sample-set route"));
+        rows.Add(SimulationRow(name + ", 3.2 mm sized at 10 y", "Pf(20 y) updated", 2.628171e-3, sampleSet.Estimate(model, sized, 20), "sample-set route"));
+        var nextSampled = new InspectionPlanner(sampleSet).NextInspection(new PlanningRequest
+        {
+            Model = model,
+            Evidence = none,
+            InServiceDate = new DateOnly(2000, 1, 1),
+            Target = AnnualTarget.FromAnnualPf(1e-4, AnnualMeasure.IntervalPf, "verification"),
+            EndOfServiceYears = 40,
+        });
+        rows.Add(new VerificationTableRow(name + ", no indication at 10 y", Source, "year in which annual ΔPf first exceeds 1e-4",
+            21, Math.Ceiling(nextSampled.TimeYears), 0, "planner (sample-set route)",
+            "crossing at " + nextSampled.TimeYears.ToString("0.000", CultureInfo.InvariantCulture) + " y" + (nextSampled.Computation.AllConverged ? "" : "; not converged")));
+
         // Planning: the annual ΔPf first exceeds 1e-4 in year 21 after the no indication (16 without it); the planner's
         // continuous-time crossing must fall inside that year.
         var next = new InspectionPlanner(firstOrder).NextInspection(new PlanningRequest
@@ -87,10 +105,10 @@ internal static class UpdatingVerificationCases
         new(name, Source, quantity, expected, e.Converged && e.Route == ComputationRoute.FirstOrder ? obtained ?? e.CumulativePf : double.NaN, tolerance,
             "first-order updating", e.Converged ? null : "not converged: " + e.Note);
 
-    private static VerificationTableRow SimulationRow(string name, string quantity, double expected, UpdatedEstimate e)
+    private static VerificationTableRow SimulationRow(string name, string quantity, double expected, UpdatedEstimate e, string route = "importance-sampling updating")
     {
         var cov = e.CoefficientOfVariation ?? double.NaN;
-        return new(name, Source, quantity, expected, e.Converged ? e.CumulativePf : double.NaN, 3 * cov, "importance-sampling updating",
+        return new(name, Source, quantity, expected, e.Converged ? e.CumulativePf : double.NaN, 3 * cov, route,
             "CoV " + cov.ToString("0.000", CultureInfo.InvariantCulture));
     }
 }

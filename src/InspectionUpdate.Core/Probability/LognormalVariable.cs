@@ -63,6 +63,13 @@ public sealed class LognormalVariable : RandomVariable
     public override double Ccdf(double x) => x <= 0 ? 1 : StandardNormal.Ccdf((Math.Log(x) - Lambda) / Zeta);
 
     /// <inheritdoc />
+    /// <remarks>
+    /// x = exp(λ + ζu) directly where Φ(u) is representable (|u| ≤ 37); beyond, the base map's saturation to the
+    /// distribution's ends is kept, so a search that runs far out behaves as before.
+    /// </remarks>
+    public override double FromStandardNormal(double u) => Math.Abs(u) <= 37 ? Math.Exp(Lambda + Zeta * u) : base.FromStandardNormal(u);
+
+    /// <inheritdoc />
     public override double InverseCdf(double p) => Math.Exp(Lambda + Zeta * StandardNormal.InverseCdf(p));
 
     /// <inheritdoc />

@@ -42,6 +42,13 @@ public sealed class NormalVariable : RandomVariable
     public override double Ccdf(double x) => StandardNormal.Ccdf((x - Mean) / StandardDeviation);
 
     /// <inheritdoc />
+    /// <remarks>
+    /// x = μ + σu directly where Φ(u) is representable (|u| ≤ 37); beyond, the base map's saturation to the
+    /// distribution's ends is kept, so a search that runs far out behaves as before.
+    /// </remarks>
+    public override double FromStandardNormal(double u) => Math.Abs(u) <= 37 ? Mean + StandardDeviation * u : base.FromStandardNormal(u);
+
+    /// <inheritdoc />
     public override double InverseCdf(double p) => Mean + StandardDeviation * StandardNormal.InverseCdf(p);
 
     /// <inheritdoc />

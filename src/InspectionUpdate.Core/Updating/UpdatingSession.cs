@@ -115,31 +115,13 @@ public sealed class UpdatingSession
         lock (_gate)
         {
             var samples = _sampler.Evidence();
-            var model = Model.InputModel;
-            var inputs = new List<InputPosterior>();
-            var w = samples.Weights;
-            var total = w.Sum();
-            foreach (var i in model.RandomIndices)
-            {
-                var v = model.Variables[i];
-                var values = samples.X.Select(x => x[i]).ToArray();
-                var mean = 0.0;
-                for (var k = 0; k < values.Length; k++) mean += w[k] * values[k];
-                mean /= total;
-                var var2 = 0.0;
-                for (var k = 0; k < values.Length; k++) var2 += w[k] * (values[k] - mean) * (values[k] - mean);
-                var sd = Math.Sqrt(var2 / total);
-                var order = Enumerable.Range(0, values.Length).OrderBy(k => values[k]).ToArray();
-                inputs.Add(new InputPosterior(v.Name, v.Mean, v.StandardDeviation, mean, sd,
-                    Quantile(order, values, w, total, 0.05), Quantile(order, values, w, total, 0.50), Quantile(order, values, w, total, 0.95)));
-            }
-
+            var inputs = WeightedInputSamples.Summaries(Model.InputModel, samples.X.Length, (k, i) => samples.X[k][i], samples.Weights);
             var ev = samples.Evidence;
             return new PosteriorSummary
             {
                 Inputs = inputs,
                 EffectiveSampleSize = samples.EffectiveSampleSize,
-                Samples = w.Length,
+                Samples = samples.Weights.Length,
                 Route = ComputationRoute.ImportanceSampling,
                 Converged = ev.Converged && samples.EffectiveSampleSize >= 200,
                 Note = ev.Note,
@@ -161,55 +143,8 @@ public sealed class UpdatingSession
         lock (_gate)
         {
             var samples = _sampler.Evidence();
-            var model = Model.InputModel;
-            var transformation = new NatafTransformation(model);
-            var rng = new Random(unchecked(_options.Seed * 31 + 7));
-            var u = new double[transformation.StandardDimension];
-            var x = new double[transformation.PhysicalDimension];
-            var prior = new double[count][];
-            for (var k = 0; k < count; k++)
-            {
-                for (var i = 0; i < u.Length; i++) u[i] = StandardNormal.InverseCdf(1 - rng.NextDouble());
-                transformation.ToPhysical(u, x);
-                prior[k] = (double[])x.Clone();
-            }
-
-            var w = samples.Weights;
-            var total = w.Sum();
-            var picks = new int[count];
-            var step = total / count;
-            var next = rng.NextDouble() * step;
-            var cumulative = 0.0;
-            var j = 0;
-            for (var k = 0; k < count; k++)
-            {
-                while (j < w.Length - 1 && cumulative + w[j] < next)
-                {
-                    cumulative += w[j];
-                    j++;
-                }
-
-                picks[k] = j;
-                next += step;
-            }
-
-            return model.RandomIndices
-                .Select(i => new InputSamples(model.Variables[i].Name, prior.Select(p => p[i]).ToArray(), picks.Select(k => samples.X[k][i]).ToArray()))
-                .ToArray();
+            return WeightedInputSamples.Draws(Model.InputModel, (k, i) => samples.X[k][i], samples.Weights, count, _options.Seed);
         }
-    }
-
-    private static double Quantile(int[] order, double[] values, double[] w, double total, double p)
-    {
-        var target = p * total;
-        var cum = 0.0;
-        foreach (var k in order)
-        {
-            cum += w[k];
-            if (cum >= target) return values[k];
-        }
-
-        return values[order[^1]];
     }
 
     internal (UpdatedEstimate Estimate, IReadOnlyList<double>? Alpha, IReadOnlyList<double>? X, int Evaluations) EstimateDetailed(string componentId, double timeYears)

@@ -18,11 +18,20 @@ internal static class Migrations
     public static IReadOnlyList<string> AppendOnlyTables { get; } =
     [
         "site", "component", "component_model_revision", "inspection_method", "finding", "finding_revision",
-        "repair", "repair_revision", "audit_log", "import_batch",
+        "repair", "repair_revision", "audit_log", "import_batch", "model_check", "component_status",
     ];
 
+    /// <summary>Tables added after version 1 (their append-only triggers come with their own migration).</summary>
+    private static readonly string[] LaterTables = ["import_batch", "model_check", "component_status"];
+
+    /// <summary>
+    /// The migration that adds <c>model_check</c>; after its SQL, every stored model revision is checked in C# in the
+    /// same transaction. Found by reference, so the migration keeps its step when it is renumbered.
+    /// </summary>
+    private static readonly string ModelCheckScript = ModelChecks();
+
     /// <summary>Migration scripts; index i takes the schema from version i to i + 1.</summary>
-    public static IReadOnlyList<string> Scripts { get; } = [Version1(), Version2(), StoredResults()];
+    public static IReadOnlyList<string> Scripts { get; } = [Version1(), Version2(), StoredResults(), ModelCheckScript];
 
     /// <summary>The schema version this code writes and reads.</summary>
     public static int Current => Scripts.Count;
@@ -186,7 +195,7 @@ internal static class Migrations
         {Audit("finding_revision", "finding", "finding_id", "CASE WHEN NEW.revision = 1 THEN 'create' WHEN NEW.withdrawn = 1 THEN 'withdraw' ELSE 'revise' END", "json_object('revision', NEW.revision, 'reason', NEW.reason)")}
         {Audit("repair_revision", "repair", "repair_id", "CASE WHEN NEW.revision = 1 THEN 'create' WHEN NEW.withdrawn = 1 THEN 'withdraw' ELSE 'revise' END", "json_object('revision', NEW.revision, 'reason', NEW.reason)")}
 
-        {string.Join("\n", AppendOnlyTables.Where(t => t != "import_batch").Select(AppendOnly))}
+        {string.Join("\n", AppendOnlyTables.Where(t => !LaterTables.Contains(t)).Select(AppendOnly))}
         """;
 
     // Version 2: import batches (which file, its SHA-256, how many rows) and indexes for the as-of reads.
@@ -211,7 +220,7 @@ internal static class Migrations
         {AppendOnly("import_batch")}
         """;
 
-    // Stored results of whole-register runs (results, not evidence: a rerun replaces a row; findings never change).
+    // Version 3: stored results of whole-register runs (results, not evidence: a rerun replaces a row; findings never change).
     // Self-contained so that it can be renumbered when migrations from other branches land first.
     private static string StoredResults() => ResultTable(inRegister: true);
 
@@ -252,6 +261,50 @@ internal static class Migrations
         ) STRICT;
         """;
 
+    // Version 4 (two parts, one migration). Component status: retire and reinstate, with who, when and why.
+    // Model checks: the register refuses a model that an assessment would refuse (since this version). Models stored
+    // before are checked once when the file is migrated; those that do not pass are marked, listed by 'register check',
+    // and stay readable: a new revision ('component revise') replaces them. One row per model revision, never updated.
+    private static string ModelChecks() =>
+        $"""
+        CREATE TABLE model_check (
+          model_revision_id INTEGER PRIMARY KEY REFERENCES component_model_revision (model_revision_id),
+          passes INTEGER NOT NULL CHECK (passes IN (0, 1)),
+          problems_json TEXT NOT NULL CHECK (json_valid(problems_json) AND json_type(problems_json) = 'array'),
+          checked_utc TEXT NOT NULL {F(Utc, "checked_utc")},
+          checked_by TEXT NOT NULL {F(NonBlank, "checked_by")}
+        ) STRICT;
+
+        {AppendOnly("model_check")}
+
+        CREATE TABLE component_status (
+          status_id INTEGER PRIMARY KEY,
+          component_id INTEGER NOT NULL REFERENCES component (component_id),
+          status TEXT NOT NULL CHECK (status IN ('retired', 'in-service')),
+        {Recorded(true)}
+        ) STRICT;
+        CREATE INDEX component_status_by_component ON component_status (component_id, recorded_utc);
+
+        {Audit("component_status", "component", "component_id", "CASE WHEN NEW.status = 'retired' THEN 'withdraw' ELSE 'revise' END", "json_object('status', NEW.status, 'reason', NEW.reason)")}
+        {AppendOnly("component_status")}
+        """;
+
+    /// <summary>Checks every model revision that has no check row yet (within the migration's transaction).</summary>
+    private static void CheckStoredModels(SqliteConnection connection, SqliteTransaction transaction, string at, string actor)
+    {
+        var revisions = Sql.Query(connection, transaction,
+            "SELECT r.model_revision_id, r.definition_json FROM component_model_revision r LEFT JOIN model_check m ON m.model_revision_id = r.model_revision_id WHERE m.model_revision_id IS NULL",
+            r => (Id: r.GetInt64(0), Json: r.GetString(1)));
+        foreach (var (id, json) in revisions)
+        {
+            var problems = RegisterStore.ModelProblems(json);
+            Sql.Insert(connection, transaction,
+                "INSERT INTO model_check (model_revision_id, passes, problems_json, checked_utc, checked_by) VALUES ($id, $passes, $problems, $at, $by)",
+                ("$id", id), ("$passes", problems.Count == 0 ? 1 : 0),
+                ("$problems", System.Text.Json.JsonSerializer.Serialize(problems.Select(p => p.ToString()).ToArray())), ("$at", at), ("$by", actor));
+        }
+    }
+
     /// <summary>Reads PRAGMA user_version.</summary>
     public static int ReadVersion(SqliteConnection connection, SqliteTransaction? transaction = null)
     {
@@ -280,9 +333,13 @@ internal static class Migrations
             {
                 command.Transaction = transaction;
                 // The script is a constant of this assembly and the version an integer: no user data is built into SQL.
-                command.CommandText = Scripts[version] + string.Create(CultureInfo.InvariantCulture, $"\nPRAGMA user_version = {version + 1};");
+                // Every migrated file carries the register's application id (registers of schema 1, 2 and 3 had none).
+                command.CommandText = Scripts[version] + string.Create(CultureInfo.InvariantCulture,
+                    $"\nPRAGMA user_version = {version + 1};\nPRAGMA application_id = {RegisterIdentity.ApplicationId};");
                 command.ExecuteNonQuery();
             }
+
+            if (ReferenceEquals(Scripts[version], ModelCheckScript)) CheckStoredModels(connection, transaction, utcNow(), actor);
 
             using (var audit = connection.CreateCommand())
             {

@@ -25,7 +25,7 @@ public static class ProfileExport
         WriteIndented = true,
         DefaultIgnoreCondition = JsonIgnoreCondition.Never,
         NumberHandling = JsonNumberHandling.AllowNamedFloatingPointLiterals,
-        Converters = { new JsonStringEnumConverter(JsonNamingPolicy.SnakeCaseLower) },
+        Converters = { new JsonStringEnumConverter(JsonNamingPolicy.SnakeCaseLower), new UtcTimeConverter() },
     };
 
     /// <summary>Writes the profiles of a component as CSV, one row per time step (invariant culture, RFC 4180 quoting).</summary>
@@ -92,7 +92,11 @@ public static class ProfileExport
         ArgumentNullException.ThrowIfNull(profile);
         return new ProfileExportDocument(profile.Label, profile.AllConverged, profile.VariableNames,
             profile.Points.Select(p => new PointExport(p.TimeYears, Finite(p.Beta), p.CumulativePf, p.IntervalPf, p.Hazard,
-                RouteKey(p.Route), p.Converged, p.CoefficientOfVariation, p.Evaluations, p.Alpha, p.Note)).ToArray());
+                RouteKey(p.Route), p.Converged, p.CoefficientOfVariation, p.Evaluations, p.Alpha, p.Note)
+            {
+                AnnualPfCov = p.IntervalCoefficientOfVariation,
+                UpperBound = p.UpperBound,
+            }).ToArray());
     }
 
     /// <summary>Stable key of a route in exports: first_order, second_order, monte_carlo, importance_sampling, subset_simulation, exact.</summary>
@@ -135,4 +139,11 @@ public sealed record ProfileExportDocument(string Label, bool AllConverged, IRea
 /// <param name="Alpha">Direction cosines (first order).</param>
 /// <param name="Note">Note.</param>
 public sealed record PointExport(double TimeYears, double Beta, double CumulativePf, double AnnualPf, double Hazard, string Route,
-    bool Converged, double? Cov, int Evaluations, IReadOnlyList<double>? Alpha, string? Note);
+    bool Converged, double? Cov, int Evaluations, IReadOnlyList<double>? Alpha, string? Note)
+{
+    /// <summary>CoV of the annual Pf where the sample set estimated it directly (not as a difference); null otherwise.</summary>
+    public double? AnnualPfCov { get; init; }
+
+    /// <summary>Set where the cumulative Pf is only bounded from above (with three standard errors); null otherwise.</summary>
+    public double? UpperBound { get; init; }
+}

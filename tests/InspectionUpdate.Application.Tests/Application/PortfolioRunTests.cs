@@ -141,7 +141,21 @@ public sealed class PortfolioRunTests
     public void A_component_whose_model_cannot_be_built_fails_alone_with_its_reason()
     {
         using var r = new PortfolioRegister(2);
-        r.Store.AddComponent(new NewComponent("INV-S001", "INV-BROKEN", "model of an unknown kind", new DateOnly(2010, 1, 1), 12.7, """{"schemaVersion":1,"name":"x","mechanism":{"type":"no-such-mechanism"}}""", "bad-1"), "tester").Require();
+        // The register refuses such a model since schema 4; one stored by an earlier program stays readable (marked by
+        // the migration), so it is written here as that program wrote it: rows inserted directly.
+        using (var connection = new Microsoft.Data.Sqlite.SqliteConnection($"Data Source={r.Path};Pooling=False;Foreign Keys=True"))
+        {
+            connection.Open();
+            using var command = connection.CreateCommand();
+            command.CommandText = """
+                INSERT INTO component (site_id, code, description, install_date, wall_thickness_mm, recorded_utc, recorded_by)
+                  VALUES ((SELECT site_id FROM site WHERE code = 'INV-S001'), 'INV-BROKEN', 'model of an unknown kind', '2010-01-01', 12.7, '2025-01-01T00:00:00.0000000Z', 'earlier program');
+                INSERT INTO component_model_revision (component_id, revision, definition_json, model_version, recorded_utc, recorded_by, reason)
+                  VALUES ((SELECT component_id FROM component WHERE code = 'INV-BROKEN'), 1, '{"schemaVersion":1,"name":"x","mechanism":{"type":"no-such-mechanism"}}', 'bad-1', '2025-01-01T00:00:00.0000000Z', 'earlier program', 'initial');
+                """;
+            command.ExecuteNonQuery();
+        }
+
         var summary = PortfolioRun.Run(r.Store, r.Store, PortfolioRegister.Options);
         Assert.Equal(3, summary.Components);
         Assert.Equal(1, summary.Failed);

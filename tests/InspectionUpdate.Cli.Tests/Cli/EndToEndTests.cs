@@ -87,7 +87,7 @@ public sealed class EndToEndTests
     }
 
     [Fact]
-    public void An_as_of_date_before_the_component_was_recorded_names_the_component_and_both_dates()
+    public void A_known_on_date_before_the_component_was_recorded_names_the_component_and_both_dates()
     {
         using var cli = Prepared(out var register);
         var recorded = cli.Run("component", "list", "-r", register, "--json").Json().GetProperty("components")[0].GetProperty("recorded_utc").GetDateTimeOffset();
@@ -95,11 +95,12 @@ public sealed class EndToEndTests
         var asOf = DateOnly.FromDateTime(recorded.UtcDateTime).AddYears(-3).ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture);
         foreach (var command in new[] { "assess", "plan", "report" })
         {
-            var run = cli.Run(command, "IL3-KP42", "-r", register, "--as-of", asOf, "--out", "rep");
+            string[] args = [command, "IL3-KP42", "-r", register, "--known-on", asOf];
+            var run = cli.Run(command == "report" ? [.. args, "--out", "rep"] : args);
             Assert.Equal(ExitCodes.BadInput, run.ExitCode);
             Assert.DoesNotContain("is not in the register", run.Error, StringComparison.Ordinal);
             Assert.Contains("IL3-KP42", run.Error, StringComparison.Ordinal);
-            Assert.Contains("--as-of '" + asOf + "'", run.Error, StringComparison.Ordinal);
+            Assert.Contains("--known-on '" + asOf + "'", run.Error, StringComparison.Ordinal);
             Assert.Contains("recorded in the register on " + recordedText, run.Error, StringComparison.Ordinal);
         }
 
@@ -110,16 +111,22 @@ public sealed class EndToEndTests
     [InlineData("assess")]
     [InlineData("plan")]
     [InlineData("report")]
-    public void As_of_help_says_the_register_is_read_as_known_on_that_date(string command)
+    public void As_of_help_says_evidence_up_to_and_known_on_help_says_the_register_as_recorded(string command)
     {
         using var cli = new CliRunner();
         var help = cli.Run(command, "--help").Output;
-        // The option's description: its own row and the wrapped rows under it, up to the next option.
-        var rows = help.Split('\n').SkipWhile(l => !l.Contains("--as-of", StringComparison.Ordinal)).ToArray();
-        var own = rows.Take(1).Concat(rows.Skip(1).TakeWhile(l => !l.TrimStart().StartsWith('-') && l.Trim().Length > 0));
-        var line = System.Text.RegularExpressions.Regex.Replace(string.Join(' ', own), @"\s+", " ");
-        Assert.Contains("as known on that date", line, StringComparison.Ordinal);
-        foreach (var what in new[] { "components", "methods", "findings" }) Assert.Contains(what, line, StringComparison.Ordinal);
+        string Own(string option)
+        {
+            // The option's description: its own row and the wrapped rows under it, up to the next option.
+            var rows = help.Split('\n').SkipWhile(l => !l.TrimStart().StartsWith(option, StringComparison.Ordinal)).ToArray();
+            var own = rows.Take(1).Concat(rows.Skip(1).TakeWhile(l => !l.TrimStart().StartsWith('-') && l.Trim().Length > 0));
+            return System.Text.RegularExpressions.Regex.Replace(string.Join(' ', own), @"\s+", " ");
+        }
+
+        Assert.Contains("Evidence up to this date", Own("--as-of"), StringComparison.Ordinal);
+        var knownOn = Own("--known-on");
+        Assert.Contains("as it was recorded on this date", knownOn, StringComparison.Ordinal);
+        foreach (var what in new[] { "components", "methods", "findings" }) Assert.Contains(what, knownOn, StringComparison.Ordinal);
     }
 
     [Fact]
@@ -161,7 +168,7 @@ public sealed class EndToEndTests
         Assert.Equal(0, doc.GetProperty("failed").GetInt32());
         Assert.True(doc.GetProperty("passed").GetInt32() >= 6);
         Assert.Contains("| case | source |", File.ReadAllText(cli.PathOf("v.md")), StringComparison.Ordinal);
-        // The main job is verified too: updating by both routes and the planner on the REFERENCES.md worked case.
+        // The main job is verified too: updating by both routes and the planner on the docs/references.md worked case.
         var methods = doc.GetProperty("rows").EnumerateArray().Select(r => r.GetProperty("method").GetString()).ToHashSet();
         Assert.Contains("first-order updating", methods);
         Assert.Contains("importance-sampling updating", methods);
@@ -226,5 +233,22 @@ public sealed class EndToEndTests
         var fit = run.Json();
         Assert.Equal(JsonValueKind.Null, fit.GetProperty("id").ValueKind);
         Assert.True(fit.GetProperty("a90_at95_mm").GetDouble() > fit.GetProperty("a90_mm").GetDouble());
+    }
+
+    [Fact]
+    public void Evidence_as_of_an_earlier_date_is_read_from_the_register_as_known_today()
+    {
+        // History logged today (the register's clock) about an inspection in 2019, assessed with evidence up to
+        // 2020-01-01: an auditor's question. Before --known-on, --as-of 2020-01-01 refused the component.
+        using var cli = Prepared(out var register);
+        Assert.Equal(ExitCodes.Ok, cli.Run("finding", "log", "IL3-KP42", "--date", "2019-06-18", "--method", "MFL-ILI", "--outcome", "sized", "--size-mm", "1.6", "-r", register).ExitCode);
+        Assert.Equal(ExitCodes.Ok, cli.Run("finding", "log", "IL3-KP42", "--date", "2023-06-18", "--method", "MFL-ILI", "--outcome", "none", "-r", register).ExitCode);
+        var run = cli.Run("assess", "IL3-KP42", "--as-of", "2020-01-01", "--route", "first-order", "-r", register, "--json");
+        Assert.True(run.ExitCode is ExitCodes.Ok or ExitCodes.NotConverged, run.Error);
+        Assert.Equal("2020-01-01", run.Json().GetProperty("as_of").GetString());
+        var text = cli.Run("assess", "IL3-KP42", "--as-of", "2020-01-01", "--route", "first-order", "-r", register);
+        // Only the 2019 inspection is evidence up to 2020-01-01.
+        Assert.Contains("evidence to 2020-01-01 (11.67 years): 1 record(s)", text.Output, StringComparison.Ordinal);
+        Assert.Contains("register as known on " + CliRunner.Today.ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture), text.Output, StringComparison.Ordinal);
     }
 }

@@ -32,4 +32,65 @@ public sealed class RegisterAssessTests
         Assert.Equal(2, run.ExitCode);
         Assert.Contains("--shard '4'", run.Error, StringComparison.Ordinal);
     }
+
+    [Fact]
+    [Reference("Register identity rule (docs/register.md): a file that is not of its kind is refused and left as it is")]
+    public void A_shard_results_file_never_replaces_the_register()
+    {
+        using var cli = new CliRunner();
+        Assert.Equal(0, cli.Run("register", "invent", "t.register", "--components", "1").ExitCode);
+        var path = cli.PathOf("t.register");
+        Microsoft.Data.Sqlite.SqliteConnection.ClearAllPools();
+        var before = File.ReadAllBytes(path);
+        var run = cli.Run("register", "assess", "-r", path, "--shard", "0/2", "--results", path);
+        Assert.Equal(4, run.ExitCode);
+        Assert.Contains("is a register, not a shard results file", run.Error, StringComparison.Ordinal);
+        Microsoft.Data.Sqlite.SqliteConnection.ClearAllPools();
+        Assert.Equal(before, File.ReadAllBytes(path));
+    }
+
+    [Fact]
+    [Reference("Register identity rule (docs/register.md): a file that is not of its kind is refused and left as it is")]
+    public void Merge_refuses_a_file_that_is_not_a_shard_results_file_and_leaves_it_as_it_is()
+    {
+        using var cli = new CliRunner();
+        Assert.Equal(0, cli.Run("register", "invent", "t.register", "--components", "1").ExitCode);
+        var notes = cli.PathOf("notes.results");
+        File.WriteAllText(notes, "field notes, not results");
+        var run = cli.Run("register", "merge", notes, "-r", "t.register");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("not a shard results file", run.Error, StringComparison.Ordinal);
+        Assert.Equal("field notes, not results", File.ReadAllText(notes));
+        var self = cli.Run("register", "merge", cli.PathOf("t.register"), "-r", "t.register");
+        Assert.Equal(2, self.ExitCode);
+        Assert.Contains("is a register", self.Error, StringComparison.Ordinal);
+    }
+
+    [Theory]
+    [Reference("docs/cli.md: the command line is strict; a misspelt option names the nearest one")]
+    [InlineData("assess", "--frce", "--force")]
+    [InlineData("assess", "--target-cv", "--target-cov")]
+    [InlineData("invent", "--component", "--components")]
+    public void A_misspelt_option_of_the_register_commands_is_refused_with_the_nearest_one(string verb, string given, string nearest)
+    {
+        using var cli = new CliRunner();
+        string[] args = verb == "invent" ? ["register", verb, "x.register", given, "3"] : ["register", verb, given, "-r", "x.register"];
+        var run = cli.Run(args);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains($"Did you mean '{nearest}'?", run.Error, StringComparison.Ordinal);
+        Assert.False(File.Exists(cli.PathOf("x.register")));
+    }
+
+    [Fact]
+    [Reference("docs/cli.md: a retired component leaves reports and runs from then on")]
+    public void A_retired_component_leaves_register_assess()
+    {
+        using var cli = new CliRunner();
+        Assert.Equal(0, cli.Run("register", "invent", "t.register", "--components", "2", "--recorded", "2025-01-01").ExitCode);
+        var code = cli.Run("component", "list", "-r", "t.register", "--json").Json().GetProperty("components")[0].GetProperty("code").GetString()!;
+        Assert.Equal(0, cli.Run("component", "retire", code, "--reason", "replaced (invented)", "-r", "t.register").ExitCode);
+        var run = cli.Run("register", "assess", "-r", "t.register", "--route", "first-order", "--json");
+        Assert.Contains(run.ExitCode, new[] { 0, 3 });
+        Assert.Equal(1, run.Json().GetProperty("components").GetInt32());
+    }
 }

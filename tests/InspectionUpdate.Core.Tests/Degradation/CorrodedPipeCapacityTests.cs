@@ -4,11 +4,11 @@ namespace InspectionUpdate.Tests.Degradation;
 
 public class CorrodedPipeCapacityTests
 {
-    // REFERENCES.md check case (derived): D = 508, t = 12.7, SMYS 358, SMTS 455 MPa, d = 5.08, L = 200 mm.
+    // docs/references.md check case (derived): D = 508, t = 12.7, SMYS 358, SMTS 455 MPa, d = 5.08, L = 200 mm.
     private const double D = 508, T = 12.7, Smys = 358, Smts = 455, Depth = 5.08, L = 200;
 
     [Fact]
-    [Reference("DNV-RP-F101 single-defect equation (from memory, REFERENCES.md); check value 18.2768 MPa (derived), formula recomputed here")]
+    [Reference("DNV-RP-F101 single-defect equation (from memory, docs/references.md); check value 18.2768 MPa (derived), formula recomputed here")]
     public void Dnv_rp_f101_matches_the_check_value_and_the_formula_written_out()
     {
         var q = Math.Sqrt(1 + 0.31 * Math.Pow(L / Math.Sqrt(D * T), 2));

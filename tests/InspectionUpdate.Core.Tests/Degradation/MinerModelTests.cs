@@ -22,7 +22,7 @@ public class MinerModelTests
     }
 
     [Fact]
-    [Reference("DNV-RP-C203 D curve (from memory, REFERENCES.md): 52.63 MPa at 10^7 cycles")]
+    [Reference("DNV-RP-C203 D curve (from memory, docs/references.md): 52.63 MPa at 10^7 cycles")]
     public void Curve_d_gives_its_fatigue_limit_at_ten_million_cycles()
     {
         // The rounded constants put the two segments 0.02 MPa apart at 10^7 (52.64 and 52.62).

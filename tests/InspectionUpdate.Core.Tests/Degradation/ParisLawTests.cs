@@ -12,7 +12,7 @@ public class ParisLawTests
         (1 / Math.Sqrt(a0) - 1 / Math.Sqrt(a1)) / (0.5 * C * Math.Pow(Y, 3) * Math.Pow(Math.PI, 1.5) * Math.Pow(S, 3));
 
     [Fact]
-    [Reference("REFERENCES.md Paris check value (derived): N(0.5 → 20 mm) = 5.842272e5 cycles; closed form recomputed in the test")]
+    [Reference("docs/references.md Paris check value (derived): N(0.5 → 20 mm) = 5.842272e5 cycles; closed form recomputed in the test")]
     public void Cycles_from_half_a_millimetre_to_twenty_match_the_check_value_and_the_hand_closed_form()
     {
         var n = ParisLaw.CyclesToGrow(0.5, 20, C, M, Y, S);
@@ -21,7 +21,7 @@ public class ParisLawTests
     }
 
     [Fact]
-    [Reference("REFERENCES.md Paris check value (derived): a(1e5) = 0.682538 mm; closed form recomputed in the test")]
+    [Reference("docs/references.md Paris check value (derived): a(1e5) = 0.682538 mm; closed form recomputed in the test")]
     public void Depth_after_one_hundred_thousand_cycles_matches_the_check_value_and_the_hand_closed_form()
     {
         var a = ParisLaw.DepthAfterCycles(0.5, C, M, Y, S, 1e5);
@@ -52,7 +52,7 @@ public class ParisLawTests
     [InlineData(1e5)]
     [InlineData(4e5)]
     [InlineData(5.8e5)]
-    [Reference("Closed form of Paris' law (REFERENCES.md) against the adaptive Dormand–Prince integration of da/dN")]
+    [Reference("Closed form of Paris' law (docs/references.md) against the adaptive Dormand–Prince integration of da/dN")]
     public void Ode_integration_reproduces_the_closed_form(double cycles)
     {
         var model = new CrackGrowthModel(Model(D("initialDepth_mm", 0.5), D("thickness_mm", 1000), D("geometryFactor", Y),
@@ -65,7 +65,7 @@ public class ParisLawTests
     }
 
     [Fact]
-    [Reference("A table with the same Y everywhere must give the constant-Y closed form N(0.5 → 20 mm) (REFERENCES.md check value)")]
+    [Reference("A table with the same Y everywhere must give the constant-Y closed form N(0.5 → 20 mm) (docs/references.md check value)")]
     public void Quadrature_with_a_flat_geometry_table_reproduces_the_closed_form_cycles()
     {
         var flat = GeometryFunction.Tabulated([0.0, 0.3, 1.0], [Y, Y, Y]);

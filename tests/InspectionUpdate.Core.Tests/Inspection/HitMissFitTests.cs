@@ -7,7 +7,7 @@ namespace InspectionUpdate.Tests.Inspection;
 
 public class HitMissFitTests
 {
-    // REFERENCES.md, "PoD" [derived]: the hit/miss fit check.
+    // docs/references.md, "PoD" [derived]: the hit/miss fit check.
     private static readonly double[] CheckSizesMm = [0.5, 0.7, 1.0, 1.2, 1.5, 2.0, 2.5, 3.0, 4.0, 5.0];
     private static readonly bool[] CheckHits = [false, false, false, true, false, true, false, true, true, true];
 
@@ -55,7 +55,7 @@ public class HitMissFitTests
     }
 
     [Fact]
-    [Reference("REFERENCES.md, PoD fit check [derived]: logit in ln a gives β₀ = −1.509965, β₁ = 2.792681, a₉₀ = 3.771475 mm")]
+    [Reference("docs/references.md, PoD fit check [derived]: logit in ln a gives β₀ = −1.509965, β₁ = 2.792681, a₉₀ = 3.771475 mm")]
     [Reference("Independent computation in the test: BFGS (MathNet) on the logit log-likelihood")]
     public void Logit_fit_of_the_check_data_matches_the_derived_values_and_an_independent_optimizer()
     {

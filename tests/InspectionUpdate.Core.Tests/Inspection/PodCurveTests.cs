@@ -125,7 +125,7 @@ public class PodCurveTests
     }
 
     [Fact]
-    [Reference("Abramowitz & Stegun (1964) Table 26.1; Q(8) = 6.22096057427178e−16 in REFERENCES.md [derived]")]
+    [Reference("Abramowitz & Stegun (1964) Table 26.1; Q(8) = 6.22096057427178e−16 in docs/references.md [derived]")]
     public void Cumulative_lognormal_detectable_size_is_accurate_in_both_tails()
     {
         var ad = new CumulativeLognormalPod(0, 1).DetectableSize("Ad");
@@ -202,7 +202,7 @@ public class PodCurveTests
     }
 
     [Fact]
-    [Reference("Closed form: a_p = exp(μ + σ Φ⁻¹(p)); Φ⁻¹(0.9) = 1.281551565544601 (REFERENCES.md, A&S Table 26.1 [derived])")]
+    [Reference("Closed form: a_p = exp(μ + σ Φ⁻¹(p)); Φ⁻¹(0.9) = 1.281551565544601 (docs/references.md, A&S Table 26.1 [derived])")]
     public void Size_at_pod_inverts_the_curve()
     {
         var pod = new CumulativeLognormalPod(Math.Log(2.0), 0.5);

@@ -36,7 +36,7 @@ public class AnnualTargetTests
     }
 
     [Fact]
-    [Reference("REFERENCES.md, normal distribution [derived]: β for Pf = 1e-4 is 3.719016")]
+    [Reference("docs/references.md, normal distribution [derived]: β for Pf = 1e-4 is 3.719016")]
     public void Beta_and_pf_are_the_two_faces_of_one_target()
     {
         var fromPf = AnnualTarget.FromAnnualPf(1e-4, AnnualMeasure.IntervalPf);

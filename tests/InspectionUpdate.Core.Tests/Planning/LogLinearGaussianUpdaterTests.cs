@@ -9,7 +9,7 @@ public class LogLinearGaussianUpdaterTests
     private static readonly LogLinearGrowthModel Model = LogLinearGrowthModel.WorkedCase();
 
     [Fact]
-    [Reference("Drezner & Wesolowsky (1990) check values in REFERENCES.md [derived]: Φ₂(−1,−1;0.5) = 0.06251409470966383, Φ₂(−2,−2;0.9) = 0.01336125612701929")]
+    [Reference("Drezner & Wesolowsky (1990) check values in docs/references.md [derived]: Φ₂(−1,−1;0.5) = 0.06251409470966383, Φ₂(−2,−2;0.9) = 0.01336125612701929")]
     public void Independent_bivariate_normal_reproduces_the_check_values()
     {
         Assert.Equal(0.06251409470966383, IndependentGaussian.BivariateCdf(-1, -1, 0.5), 1e-13);
@@ -17,7 +17,7 @@ public class LogLinearGaussianUpdaterTests
     }
 
     [Fact]
-    [Reference("REFERENCES.md worked updating case [derived]: prior Pf(20) = 4.174915e-3")]
+    [Reference("docs/references.md worked updating case [derived]: prior Pf(20) = 4.174915e-3")]
     public void Prior_matches_the_worked_case()
     {
         var e = new LogLinearGaussianUpdater().Estimate(Model, [], 20);
@@ -25,7 +25,7 @@ public class LogLinearGaussianUpdaterTests
     }
 
     [Fact]
-    [Reference("REFERENCES.md worked updating case [derived]: no detection at year 10, PoD Φ((ln a − ln 2)/0.5): P(no detection) = 0.700445, posterior Pf(20) = 1.071037e-4")]
+    [Reference("docs/references.md worked updating case [derived]: no detection at year 10, PoD Φ((ln a − ln 2)/0.5): P(no detection) = 0.700445, posterior Pf(20) = 1.071037e-4")]
     public void One_no_indication_matches_the_worked_case_and_the_bivariate_normal()
     {
         var method = ProbitLogPod.Method("probit", 2, 0.5);

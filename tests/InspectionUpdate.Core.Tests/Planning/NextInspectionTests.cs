@@ -16,7 +16,7 @@ public class NextInspectionTests
     private static InspectionPlanner Planner() => new(new LogLinearGaussianUpdater());
 
     [Fact]
-    [Reference("Closed form ΔPf(t) = Φ(h(t)) − Φ(h(t − 1)), h(t) = (ln 0.5 + 0.1t − ln 20)/√(0.25 + 0.0004t²), root by MathNet Brent in the test; REFERENCES.md worked case [derived]: first year with ΔPf > 1e-4 is 16")]
+    [Reference("Closed form ΔPf(t) = Φ(h(t)) − Φ(h(t − 1)), h(t) = (ln 0.5 + 0.1t − ln 20)/√(0.25 + 0.0004t²), root by MathNet Brent in the test; docs/references.md worked case [derived]: first year with ΔPf > 1e-4 is 16")]
     public void Due_date_equals_the_analytical_root_of_the_annual_pf()
     {
         var root = IndependentGaussian.FirstRoot(t => WorkedPriorIntervalPf(t) - 1e-4, 1, 40);
@@ -52,7 +52,7 @@ public class NextInspectionTests
     }
 
     [Fact]
-    [Reference("Exact bivariate normal (Plackett integral, MathNet quadrature) for one no indication at year 10; REFERENCES.md worked case [derived]: first year with ΔPf > 1e-4 becomes 21")]
+    [Reference("Exact bivariate normal (Plackett integral, MathNet quadrature) for one no indication at year 10; docs/references.md worked case [derived]: first year with ΔPf > 1e-4 becomes 21")]
     public void After_a_no_indication_the_due_date_equals_the_bivariate_normal_root()
     {
         double Posterior(double t) => IndependentGaussian.PosteriorAfterOneNoIndication(Model, 10, Math.Log(2), 0.5, t).Pf;

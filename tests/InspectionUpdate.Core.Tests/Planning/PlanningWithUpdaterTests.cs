@@ -31,7 +31,7 @@ public class PlanningWithUpdaterTests
     ]));
 
     [Fact]
-    [Reference("Exact bivariate normal (Plackett integral) for one no indication at year 10 of the REFERENCES.md worked case; first order is exact here because every event surface is a hyperplane in u")]
+    [Reference("Exact bivariate normal (Plackett integral) for one no indication at year 10 of the docs/references.md worked case; first order is exact here because every event surface is a hyperplane in u")]
     public void With_the_first_order_updater_the_due_date_equals_the_exact_root()
     {
         double Posterior(double t) => IndependentGaussian.PosteriorAfterOneNoIndication(Worked, 10, Math.Log(2), 0.5, t).Pf;

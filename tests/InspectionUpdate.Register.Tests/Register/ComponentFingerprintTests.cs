@@ -33,7 +33,7 @@ public sealed class ComponentFingerprintTests
         Assert.NotEqual(own1, own2);
 
         r.Clock.Advance(TimeSpan.FromHours(1));
-        r.Store.ReviseModel(TestRegister.Component, """{"kind":"corrosion","rate_mm_per_year":0.2}""", "corrosion-2", "engineer B", "new rate data").Require();
+        r.Store.ReviseModel(TestRegister.Component, TestRegister.ModelJson.Replace("\"mean\":0.1", "\"mean\":0.2", StringComparison.Ordinal), "corrosion-2", "engineer B", "new rate data").Require();
         Assert.NotEqual(own2, r.Store.ComponentFingerprint(r.ComponentId, DateTimeOffset.MaxValue));
         Assert.Equal(sister0, r.Store.ComponentFingerprint(sisterId, DateTimeOffset.MaxValue));
     }

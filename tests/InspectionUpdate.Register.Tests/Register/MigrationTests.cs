@@ -14,20 +14,13 @@ public class MigrationTests
         return command.ExecuteScalar();
     }
 
-    [Theory]
-    [InlineData(false)]
-    [InlineData(true)]
+    [Fact]
     [Reference("Design rule (DESIGN.md §5): versioned schema migrated forward, PRAGMA user_version, WAL mode")]
-    public void A_missing_or_zero_byte_file_is_migrated_to_the_current_schema(bool zeroByteFile)
+    public void A_missing_file_is_created_at_the_current_schema()
     {
         var path = TestRegister.TempPath();
         try
         {
-            if (zeroByteFile)
-            {
-                File.WriteAllBytes(path, []);
-            }
-
             using (var store = RegisterStore.Open(path))
             {
                 Assert.Equal(RegisterStore.CurrentSchemaVersion, store.SchemaVersion);
@@ -87,6 +80,44 @@ public class MigrationTests
     }
 
     [Fact]
+    [Reference("docs/register.md: version 3 adds component_result, version 4 adds component_status and model_check")]
+    public void Version_3_holds_stored_results_and_version_4_adds_the_model_checks_and_statuses()
+    {
+        var path = TestRegister.TempPath();
+        try
+        {
+            Assert.Equal(4, RegisterStore.CurrentSchemaVersion);
+            using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: 3))
+            {
+            }
+
+            string[] Tables()
+            {
+                using var connection = new SqliteConnection($"Data Source={path};Pooling=False");
+                connection.Open();
+                using var command = connection.CreateCommand();
+                command.CommandText = "SELECT name FROM sqlite_schema WHERE type = 'table' AND name IN ('component_result', 'model_check', 'component_status') ORDER BY name";
+                using var reader = command.ExecuteReader();
+                var names = new List<string>();
+                while (reader.Read()) names.Add(reader.GetString(0));
+                return names.ToArray();
+            }
+
+            Assert.Equal(["component_result"], Tables());
+            using (RegisterStore.Open(path, RegisterOpenMode.OpenExisting))
+            {
+            }
+
+            Assert.Equal(4L, Pragma(path, "user_version"));
+            Assert.Equal(["component_result", "component_status", "model_check"], Tables());
+        }
+        finally
+        {
+            TestRegister.Delete(path);
+        }
+    }
+
+    [Fact]
     [Reference("Design rule: a program never writes into a schema newer than it knows")]
     public void A_file_with_a_newer_schema_is_refused()
     {
@@ -138,6 +169,64 @@ public class MigrationTests
             File.WriteAllText(path, "component_code,inspection_date\nthis is a CSV, not a register\n");
             var e = Assert.Throws<RegisterFileException>(() => RegisterStore.Open(path));
             Assert.Contains(path, e.Message, StringComparison.Ordinal);
+        }
+        finally
+        {
+            TestRegister.Delete(path);
+        }
+    }
+}
+
+public class ModelCheckMigrationTests
+{
+    [Theory]
+    [Reference("Design rule: a model stored before the register checked models is marked by the migration (version 4) and listed by the check")]
+    [InlineData(2)]
+    [InlineData(3)]
+    public void Migrating_marks_stored_models_that_no_longer_pass_and_the_check_lists_them(int version)
+    {
+        var path = TestRegister.TempPath();
+        try
+        {
+            using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: version))
+            {
+            }
+
+            // Rows as an earlier program wrote them: it checked only that the model was JSON.
+            using (var connection = new SqliteConnection($"Data Source={path};Pooling=False;Foreign Keys=True"))
+            {
+                connection.Open();
+                using var command = connection.CreateCommand();
+                command.CommandText = """
+                    INSERT INTO site (code, name, recorded_utc, recorded_by) VALUES ('S', 'Site', '2024-01-01T00:00:00.0000000Z', 'v2');
+                    INSERT INTO component (site_id, code, install_date, recorded_utc, recorded_by) VALUES (1, 'GOOD', '2015-01-01', '2024-01-01T00:00:00.0000000Z', 'v2');
+                    INSERT INTO component (site_id, code, install_date, recorded_utc, recorded_by) VALUES (1, 'BAD', '2015-01-01', '2024-01-01T00:00:00.0000000Z', 'v2');
+                    INSERT INTO component_model_revision (component_id, revision, definition_json, model_version, recorded_utc, recorded_by, reason) VALUES (1, 1, $good, 'm1', '2024-01-01T00:00:00.0000000Z', 'v2', 'initial');
+                    INSERT INTO component_model_revision (component_id, revision, definition_json, model_version, recorded_utc, recorded_by, reason) VALUES (2, 1, $bad, 'm1', '2024-01-01T00:00:00.0000000Z', 'v2', 'initial');
+                    """;
+                command.Parameters.AddWithValue("$good", TestRegister.ModelJson);
+                command.Parameters.AddWithValue("$bad", TestRegister.ModelJson.Replace("serviceLife_years", "serviceLife_year", StringComparison.Ordinal));
+                command.ExecuteNonQuery();
+            }
+
+            using var store = RegisterStore.Open(path, RegisterOpenMode.OpenExisting);
+            using (var connection = new SqliteConnection($"Data Source={path};Pooling=False"))
+            {
+                connection.Open();
+                using var command = connection.CreateCommand();
+                command.CommandText = "SELECT c.code, m.passes FROM model_check m JOIN component_model_revision r USING (model_revision_id) JOIN component c USING (component_id) ORDER BY c.code";
+                using var reader = command.ExecuteReader();
+                var rows = new List<(string, long)>();
+                while (reader.Read()) rows.Add((reader.GetString(0), reader.GetInt64(1)));
+                Assert.Equal([("BAD", 0L), ("GOOD", 1L)], rows);
+            }
+
+            var check = store.Check();
+            Assert.True(check.IsHealthy, string.Join("; ", check.InvariantViolations));
+            var line = Assert.Single(check.InvalidModels);
+            Assert.Contains("component BAD", line, StringComparison.Ordinal);
+            Assert.Contains("serviceLife_year", line, StringComparison.Ordinal);
+            Assert.Contains("marked", line, StringComparison.Ordinal);
         }
         finally
         {

@@ -121,7 +121,7 @@ public class RevisionTests
         r.Clock.Advance(TimeSpan.FromDays(1));
         r.Store.ReviseFinding(f.FindingId, Sized(3.0), "engineer B", "re-read").Require();
         r.Store.AddFinding(Sized(1.0, "12 o'clock"), "inspector A", "report IR-2").Require();
-        r.Store.ReviseModel(TestRegister.Component, """{"kind":"corrosion","rate_mm_per_year":0.2}""", "corrosion-2", "engineer B", "new rate data").Require();
+        r.Store.ReviseModel(TestRegister.Component, TestRegister.ModelJson.Replace("\"mean\":0.1", "\"mean\":0.2", StringComparison.Ordinal), "corrosion-2", "engineer B", "new rate data").Require();
 
         Assert.Equal(fingerprint, r.Store.Fingerprint(asOf));
         Assert.NotEqual(fingerprint, r.Store.Fingerprint(r.Clock.UtcNow));
@@ -159,5 +159,38 @@ public class RevisionTests
         var second = r.Store.ReviseFinding(f.FindingId, Sized(2.4), "engineer B", "re-read").Require();
         Assert.Equal(f.Recorded.RecordedUtc, second.Recorded.RecordedUtc);
         Assert.Equal(2, r.Store.GetFinding(f.FindingId, f.Recorded.RecordedUtc)!.Revision);
+    }
+}
+
+public class ComponentStatusTests
+{
+    [Fact]
+    [Reference("Design rule: a retired component leaves runs from its retirement on and stays readable as known on earlier dates")]
+    public void A_retired_component_is_in_service_as_known_before_and_retired_after()
+    {
+        using var r = new TestRegister();
+        var before = r.Clock.UtcNow;
+        r.Clock.Advance(TimeSpan.FromDays(1));
+        r.Store.SetRetired(TestRegister.Component, retired: true, "engineer B", "spool replaced").Require();
+        Assert.Contains(r.Store.ComponentsInService(before), c => c.Code == TestRegister.Component);
+        Assert.DoesNotContain(r.Store.ComponentsInService(r.Clock.UtcNow), c => c.Code == TestRegister.Component);
+        Assert.NotNull(r.Store.FindComponent(TestRegister.Component));
+        r.Clock.Advance(TimeSpan.FromDays(1));
+        r.Store.SetRetired(TestRegister.Component, retired: false, "engineer B", "retired in error").Require();
+        Assert.Contains(r.Store.ComponentsInService(), c => c.Code == TestRegister.Component);
+        var history = r.Store.StatusHistory(r.ComponentId);
+        Assert.Equal(["retired", "in-service"], history.Select(h => h.Status));
+        Assert.Equal(["spool replaced", "retired in error"], history.Select(h => h.Recorded.Reason));
+        Assert.Throws<SqliteException>(() => Exec(r.Path, "DELETE FROM component_status"));
+        Assert.True(r.Store.Check().IsHealthy);
+    }
+
+    private static void Exec(string path, string sql)
+    {
+        using var connection = new SqliteConnection($"Data Source={path};Pooling=False");
+        connection.Open();
+        using var command = connection.CreateCommand();
+        command.CommandText = sql;
+        command.ExecuteNonQuery();
     }
 }

@@ -22,7 +22,15 @@ internal sealed class TestRegister : IDisposable
     public const string Mpi = "MPI-WET";
     public static readonly DateOnly InstallDate = new(2010, 6, 1);
     public const double WallMm = 12.7;
-    public const string ModelJson = """{"kind":"corrosion","rate_mm_per_year":{"distribution":"lognormal","mean":0.1,"cov":0.5}}""";
+    // A small valid corrosion model (docs/models.md): the register refuses what an assessment would refuse.
+    public const string ModelJson = """
+        {"schemaVersion":1,"name":"line 101 weld corrosion (invented)","serviceLife_years":30,
+         "mechanism":{"type":"corrosion","growthLaw":"linear","failureMode":"burstDnvRpF101","lengthGrows":false,"capacityFactor":1.0},
+         "inputs":{"wallThickness_mm":12.7,"diameter_mm":273.1,"initiationTime_years":0,
+           "rate_mmPerYear":{"family":"Lognormal","mean":0.1,"cov":0.5},"defectLength_mm":{"family":"Lognormal","mean":50,"cov":0.4},
+           "tensileStrength_MPa":{"family":"Lognormal","mean":530,"cov":0.04},"modelFactor":{"family":"Lognormal","mean":1.0,"cov":0.1},
+           "pressure_MPa":{"family":"Normal","mean":10,"sd":0.5}}}
+        """;
 
     public TestRegister(bool seed = true)
     {

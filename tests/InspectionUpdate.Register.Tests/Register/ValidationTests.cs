@@ -64,7 +64,7 @@ public class ValidationTests
     public void A_wall_reading_on_a_component_without_a_nominal_wall_is_refused()
     {
         using var r = new TestRegister();
-        r.Store.AddComponent(new NewComponent("NORTH", "SUPPORT-7", "Pipe support", TestRegister.InstallDate, null, "{}", "none"), "tester").Require();
+        r.Store.AddComponent(new NewComponent("NORTH", "SUPPORT-7", "Pipe support", TestRegister.InstallDate, null, TestRegister.ModelJson, "none"), "tester").Require();
         var result = r.Store.AddFinding(new NewFinding("SUPPORT-7", Date, FindingKind.WallThickness, TestRegister.Ut, RemainingWallMm: 8.0), "A", "r");
         Assert.Contains(result.Problems, p => p.Field == "remaining_wall_mm" && p.Message.Contains("no nominal wall", StringComparison.Ordinal));
     }
@@ -87,7 +87,7 @@ public class ValidationTests
     {
         using var r = new TestRegister();
         var component = r.Store.AddComponent(new NewComponent("SOUTH", TestRegister.Component, "", new DateOnly(2030, 1, 1), -3, "{not json", " "), "tester");
-        Assert.Equal(["code", "install_date", "model_definition_json", "model_version", "site_code", "wall_thickness_mm"], component.Problems.Select(p => p.Field).Order(StringComparer.Ordinal));
+        Assert.Equal(["code", "install_date", "model $", "model_version", "site_code", "wall_thickness_mm"], component.Problems.Select(p => p.Field).Order(StringComparer.Ordinal));
 
         var method = r.Store.AddMethod(new NewMethod(TestRegister.Ut, "", new PodSpec(PodForms.CumulativeLognormal, 0.0, -1.0, null),
             new SizingError(SizingErrorKind.AdditiveNormal, 0, 0)), "tester");

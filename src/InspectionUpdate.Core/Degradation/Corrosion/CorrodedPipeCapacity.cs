@@ -33,7 +33,7 @@ public static class CorrodedPipeCapacity
     /// <param name="depthMm">Defect depth d (mm), ≥ 0.</param>
     /// <param name="lengthMm">Defect length l (mm), ≥ 0.</param>
     /// <param name="capacityFactor">Factor c in front of the equation (1 by default; some editions print 1.05).</param>
-    /// <remarks>DNV-RP-F101, capacity equation of a single longitudinal defect (equation recalled from memory, confirmed by the check value in REFERENCES.md).</remarks>
+    /// <remarks>DNV-RP-F101, capacity equation of a single longitudinal defect (equation recalled from memory, confirmed by the check value in docs/references.md).</remarks>
     public static double DnvRpF101(double diameterMm, double wallThicknessMm, double tensileStrengthMPa, double depthMm,
         double lengthMm, double capacityFactor = 1.0)
     {

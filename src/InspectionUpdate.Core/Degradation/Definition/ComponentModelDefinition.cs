@@ -118,6 +118,10 @@ public sealed class ComponentModelDefinition
 
         using (doc)
         {
+            // Text the reader could not take (a lone surrogate, a duplicate key, a number beyond double range) and
+            // sizes beyond the bounds are refused before reading, each with its path.
+            JsonInputBounds.Check(doc.RootElement, "$", problems);
+            if (problems.Count > 0) return new(null, problems);
             var reader = new Reader(problems);
             var definition = reader.Read(doc.RootElement, json);
             if (problems.Count > 0 || definition is null) return new(null, problems);
@@ -126,6 +130,7 @@ public sealed class ComponentModelDefinition
                 var model = definition.Build();
                 // The transformation is where fictive correlations are computed: build it once to surface its errors here.
                 _ = new NatafTransformation(model.Inputs);
+                ProbeTails(model.Inputs, definition.Inputs, problems);
             }
             catch (ExpressionParseException e)
             {
@@ -133,11 +138,43 @@ public sealed class ComponentModelDefinition
             }
             catch (Exception e) when (e is ArgumentException or NotSupportedException or InvalidOperationException)
             {
-                problems.Add(new(e is DistributionParameterException { VariableName: "correlation" or "fictive correlation" } ? "$.correlations" : "$", null, e.Message));
+                problems.Add(new(e is DistributionParameterException { VariableName: "correlation" or "fictive correlation" } ? "$.correlations" : "$", null, WithoutParameterSuffix(e.Message)));
             }
 
             return problems.Count > 0 ? new(null, problems) : new(definition, problems);
         }
+    }
+
+    /// <summary>
+    /// Evaluates every random input's quantiles as far into the tails as the solvers go (probabilities 1e-12 and
+    /// 1 − 1e-12): parameters a family accepts but cannot evaluate (e.g. a gamma shape of 1e-320) are refused here,
+    /// naming the input, instead of failing in the middle of an assessment.
+    /// </summary>
+    private static void ProbeTails(Probability.StochasticModel inputs, IReadOnlyList<InputSpec> specs, List<DefinitionProblem> problems)
+    {
+        foreach (var v in inputs.Variables.Where(v => !v.IsDeterministic))
+        {
+            var spec = specs.FirstOrDefault(s => s.Name == v.Name);
+            var given = spec is null ? v.Family
+                : $"{spec.Family} with " + string.Join(", ", spec.Parameters.Select(p => $"{p.Key} = {p.Value.ToString("R", CultureInfo.InvariantCulture).ToLowerInvariant()}"));
+            try
+            {
+                var values = new[] { v.InverseCdf(1e-12), v.InverseCdf(0.5), v.InverseCcdf(1e-12), v.Mean, v.StandardDeviation };
+                if (values.All(double.IsFinite) && v.StandardDeviation > 0) continue;
+                problems.Add(new($"$.inputs.{v.Name}", given, "the distribution's parameters give no finite quantiles, mean or spread (parameters at the edge of the family's range)"));
+            }
+            catch (Exception e) when (e is ArgumentException or InvalidOperationException or ArithmeticException or AggregateException)
+            {
+                var message = e is AggregateException a ? a.InnerExceptions[0].Message : e.Message;
+                problems.Add(new($"$.inputs.{v.Name}", given, "the distribution cannot be evaluated with these parameters: " + WithoutParameterSuffix(message)));
+            }
+        }
+    }
+
+    private static string WithoutParameterSuffix(string m)
+    {
+        var i = m.LastIndexOf(" (Parameter '", StringComparison.Ordinal);
+        return (i > 0 ? m[..i] : m).ReplaceLineEndings(" ");
     }
 
     /// <summary>Builds the degradation model.</summary>
@@ -248,7 +285,7 @@ public sealed class ComponentModelDefinition
             if (name is { Length: 0 } || name is not null && string.IsNullOrWhiteSpace(name)) Add("$.name", root.GetProperty("name"), "must not be empty");
             var description = String(root, "description", "$", false);
             var life = Number(root, "serviceLife_years", "$", true);
-            if (life is { } l && !(l > 0 && l <= 500)) Add("$.serviceLife_years", root.GetProperty("serviceLife_years"), "must lie in (0, 500] years");
+            if (life is { } l && !(l >= 1 && l <= 500)) Add("$.serviceLife_years", root.GetProperty("serviceLife_years"), "must lie in [1, 500] years (profiles step at most monthly over the life)");
 
             var mech = Object(root, "mechanism", "$", true);
             MechanismKind? kind = null;
@@ -282,8 +319,23 @@ public sealed class ComponentModelDefinition
             }
 
             var inputs = ReadInputs(root, preset);
+            if (inputs is { Count: > 0 } && inputs.All(i => i.Family == "Deterministic"))
+            {
+                Add("$.inputs", null, "every input is a fixed value: at least one must be random (a family with its parameters) for a probability of failure");
+            }
+
             var correlations = ReadCorrelations(root, inputs);
             if (kind is { } k && inputs is not null) CheckInputsFitMechanism(k, inputs, corrosion, crack, sn, exprSettings);
+            if (kind == MechanismKind.Expression && limitState is not null && inputs is not null)
+            {
+                // An input no expression names is most often a misspelling of one that is named.
+                var used = ExpressionCompiler.InputsUsed(limitState + " " + size, inputs.Select(i => i.Name).ToArray()).ToHashSet(StringComparer.Ordinal);
+                foreach (var unused in inputs.Where(i => !used.Contains(i.Name)))
+                {
+                    Add($"$.inputs.{unused.Name}", null, "the limit state and size expressions never use this input; remove it or use it");
+                }
+            }
+
             if (problems.Count > 0 || kind is null || inputs is null) return null;
 
             return new ComponentModelDefinition
@@ -619,6 +671,11 @@ public sealed class ComponentModelDefinition
                 MechanismKind.SnFatigue when sn is not null => MinerModel.ExpectedInputs(sn),
                 _ => null,
             };
+            if (corrosion is { PressureIsAnnualMaximum: true } && inputs.Any(i => i.Name == "pressure_MPa" && i.Family == "Deterministic"))
+            {
+                Add("$.mechanism.pressureIsAnnualMaximum", "true", "the pressure input pressure_MPa is a fixed value: an annual maximum must be a random input");
+            }
+
             if (expected is not null)
             {
                 foreach (var e in expected.Where(e => e.Required && !_declared.Contains(e.Name)))
@@ -639,6 +696,11 @@ public sealed class ComponentModelDefinition
                 if (_declared.Count == 0) Add("$.inputs", null, "an expression model needs at least one input");
                 foreach (var r in expr.RenewedOnRepair.Where(r => !_declared.Contains(r))) Add("$.mechanism.renewedOnRepair", r, "is not one of the inputs");
                 if (expr.AnnualMaximumInput is { } am && !_declared.Contains(am)) Add("$.mechanism.annualMaximumInput", am, "is not one of the inputs");
+                else if (expr.AnnualMaximumInput is { } fixedAm && inputs.Any(i => i.Name == fixedAm && i.Family == "Deterministic"))
+                {
+                    Add("$.mechanism.annualMaximumInput", fixedAm, "is a fixed value: the annual maximum must be a random input (a family with its parameters)");
+                }
+
             }
         }
 
@@ -686,6 +748,12 @@ public sealed class ComponentModelDefinition
 
         private string? Enum(JsonElement o, string key, string path, bool required, string[] allowed)
         {
+            if (o.TryGetProperty(key, out var given) && given.ValueKind == JsonValueKind.Null)
+            {
+                Add($"{path}.{key}", "null", $"null is not a value here; give one of: {string.Join(", ", allowed)}");
+                return null;
+            }
+
             var s = String(o, key, path, false);
             if (s is null)
             {
@@ -764,9 +832,10 @@ public sealed class ComponentModelDefinition
         }
 
         private void Add(string path, JsonElement value, string message) =>
-            problems.Add(new DefinitionProblem(path, Render(value), message));
+            problems.Add(new DefinitionProblem(path, Render(value), ComponentModelDefinition.WithoutParameterSuffix(message)));
 
-        private void Add(string path, string? value, string message) => problems.Add(new DefinitionProblem(path, value, message));
+        private void Add(string path, string? value, string message) =>
+            problems.Add(new DefinitionProblem(path, value, ComponentModelDefinition.WithoutParameterSuffix(message)));
 
         private static string WithoutParameterSuffix(ArgumentException e)
         {

@@ -41,6 +41,12 @@ public static partial class ExpressionCompiler
         ("phi", (Func<double, double>)Probability.StandardNormal.Cdf),
     ];
 
+    /// <summary>The longest expression accepted, in characters (a bound on the parser's and compiler's work).</summary>
+    public const int MaximumLength = 2000;
+
+    /// <summary>The deepest nesting of brackets accepted (the parser recurses once per level).</summary>
+    public const int MaximumNesting = 32;
+
     /// <summary>Reserved words that may not be input names.</summary>
     public static IReadOnlyCollection<string> ReservedNames { get; } =
         Functions.Select(f => f.Name).Concat([TimeName, "pi", "true", "false", "null"]).ToHashSet(StringComparer.Ordinal);
@@ -59,6 +65,7 @@ public static partial class ExpressionCompiler
             throw new ExpressionParseException(expression ?? "", 0, "", "the expression is empty", field);
         }
 
+        CheckBounds(expression, field);
         foreach (var name in inputNames)
         {
             if (!IdentifierPattern().IsMatch(name))
@@ -123,6 +130,43 @@ public static partial class ExpressionCompiler
         var rewritten = new ParameterRewriter(map).Visit(body);
         if (rewritten.Type != typeof(double)) rewritten = Expression.Convert(rewritten, typeof(double));
         return Expression.Lambda<CompiledExpression>(rewritten, x, t).Compile();
+    }
+
+    /// <summary>
+    /// Refuses, before parsing, what would make the recursive parser run out of stack: text longer than
+    /// <see cref="MaximumLength"/>, brackets nested deeper than <see cref="MaximumNesting"/>, unbalanced brackets
+    /// (with the position of the first unmatched one), and more than three signs in a row.
+    /// </summary>
+    private static void CheckBounds(string expression, string field)
+    {
+        if (expression.Length > MaximumLength)
+        {
+            throw new ExpressionParseException(expression[..40] + "…", 0, TokenAt(expression, 0), $"the expression has {expression.Length} characters; at most {MaximumLength} are accepted", field);
+        }
+
+        var depth = 0;
+        var open = new Stack<int>();
+        var signs = 0;
+        for (var i = 0; i < expression.Length; i++)
+        {
+            var c = expression[i];
+            if (char.IsWhiteSpace(c)) continue;
+            signs = c is '-' or '+' or '!' ? signs + 1 : 0;
+            if (signs > 3) throw new ExpressionParseException(expression, i, c.ToString(), "more than three signs in a row", field);
+            if (c == '(')
+            {
+                open.Push(i);
+                if (++depth > MaximumNesting) throw new ExpressionParseException(expression, i, "(", $"brackets nested deeper than {MaximumNesting} levels", field);
+            }
+            else if (c == ')')
+            {
+                if (depth == 0) throw new ExpressionParseException(expression, i, ")", "a closing bracket without an opening one", field);
+                depth--;
+                open.Pop();
+            }
+        }
+
+        if (open.Count > 0) throw new ExpressionParseException(expression, open.Peek(), "(", "an opening bracket is never closed", field);
     }
 
     /// <summary>Names used by an expression that are inputs (for validation messages).</summary>

@@ -19,6 +19,9 @@ public sealed class ExpressionParseException : ArgumentException
         Reason = reason;
     }
 
+    /// <summary>The sentence, without .NET's "(Parameter '...')" suffix: it names the expression field itself.</summary>
+    public override string Message => Format(Expression, Position, Token, Reason, ParamName ?? "expression");
+
     /// <summary>The expression text.</summary>
     public string Expression { get; }
 

@@ -21,7 +21,7 @@ public sealed record SnCurve(string Name, double M1, double Log10A1, double M2, 
     /// <summary>DNV-RP-C203 curve C in air (from memory).</summary>
     public static SnCurve DnvC { get; } = new("DNV-RP-C203 C (air)", 3, 12.592, 5, 16.320, 1e7, 0.05, 25, DnvSource);
 
-    /// <summary>DNV-RP-C203 curve D in air (from memory, REFERENCES.md).</summary>
+    /// <summary>DNV-RP-C203 curve D in air (from memory, docs/references.md).</summary>
     public static SnCurve DnvD { get; } = new("DNV-RP-C203 D (air)", 3, 12.164, 5, 15.606, 1e7, 0.20, 25, DnvSource);
 
     /// <summary>DNV-RP-C203 curve E in air (from memory).</summary>

@@ -152,30 +152,12 @@ internal sealed class ComponentSampleSet
     /// <summary>Weighted posterior summary of every random input (mean, sd, 5/50/95 % quantiles).</summary>
     public PosteriorSummary Posterior(WeightedFailureTimes weighted)
     {
-        var w = WeightsOf(weighted);
-        var total = w.Sum();
-        var model = Model.InputModel;
-        var inputs = new List<InputPosterior>();
-        foreach (var i in model.RandomIndices)
-        {
-            var v = model.Variables[i];
-            var values = new double[w.Length];
-            for (var k = 0; k < w.Length; k++) values[k] = _x[k * _m + i];
-            double mean = 0, second = 0;
-            for (var k = 0; k < w.Length; k++) mean += w[k] * values[k];
-            mean /= total;
-            for (var k = 0; k < w.Length; k++) second += w[k] * (values[k] - mean) * (values[k] - mean);
-            var order = Enumerable.Range(0, w.Length).OrderBy(k => values[k]).ToArray();
-            inputs.Add(new InputPosterior(v.Name, v.Mean, v.StandardDeviation, mean, Math.Sqrt(second / total),
-                Quantile(order, values, w, total, 0.05), Quantile(order, values, w, total, 0.50), Quantile(order, values, w, total, 0.95)));
-        }
-
         var ess = weighted.EffectiveSampleSize;
         return new PosteriorSummary
         {
-            Inputs = inputs,
+            Inputs = WeightedInputSamples.Summaries(Model.InputModel, weighted.Count, (k, i) => _x[k * _m + i], weighted.Weights),
             EffectiveSampleSize = ess,
-            Samples = w.Length,
+            Samples = weighted.Count,
             Route = ComputationRoute.ImportanceSampling,
             Converged = ess >= 200,
             Note = Description,
@@ -183,55 +165,8 @@ internal sealed class ComponentSampleSet
     }
 
     /// <summary>Draws from the prior (transformation of standard normals) and the posterior (systematic resampling of the weights).</summary>
-    public IReadOnlyList<InputSamples> Draws(WeightedFailureTimes weighted, int count, int seed)
-    {
-        var w = WeightsOf(weighted);
-        var rng = new Random(unchecked(seed * 31 + 7));
-        var u = new double[_d];
-        var x = new double[_m];
-        var prior = new double[count][];
-        for (var k = 0; k < count; k++)
-        {
-            for (var i = 0; i < _d; i++) u[i] = StandardNormal.InverseCdf(1 - rng.NextDouble());
-            _t.ToPhysical(u, x);
-            prior[k] = (double[])x.Clone();
-        }
-
-        var total = w.Sum();
-        var picks = new int[count];
-        var step = total / count;
-        var next = rng.NextDouble() * step;
-        var cumulative = 0.0;
-        var j = 0;
-        for (var k = 0; k < count; k++)
-        {
-            while (j < w.Length - 1 && cumulative + w[j] < next)
-            {
-                cumulative += w[j];
-                j++;
-            }
-
-            picks[k] = j;
-            next += step;
-        }
-
-        return Model.InputModel.RandomIndices
-            .Select(i => new InputSamples(Model.InputModel.Variables[i].Name, prior.Select(p => p[i]).ToArray(), picks.Select(k => _x[k * _m + i]).ToArray()))
-            .ToArray();
-    }
-
-    private static double Quantile(int[] order, double[] values, double[] w, double total, double p)
-    {
-        var target = p * total;
-        var cum = 0.0;
-        foreach (var k in order)
-        {
-            cum += w[k];
-            if (cum >= target) return values[k];
-        }
-
-        return values[order[^1]];
-    }
+    public IReadOnlyList<InputSamples> Draws(WeightedFailureTimes weighted, int count, int seed) =>
+        WeightedInputSamples.Draws(Model.InputModel, (k, i) => _x[k * _m + i], weighted.Weights, count, seed);
 
     /// <summary>Outcomes of <paramref name="extended"/> beyond this set's evidence, or null when it is not an extension without repairs.</summary>
     private List<InspectionOutcome>? Extra(IReadOnlyList<InspectionOutcome> extended)
@@ -598,8 +533,6 @@ internal sealed class ComponentSampleSet
             }
         }
     }
-
-    private static double[] WeightsOf(WeightedFailureTimes weighted) => weighted.Weights;
 
     private WeightedFailureTimes Weigh(double[] logW)
     {

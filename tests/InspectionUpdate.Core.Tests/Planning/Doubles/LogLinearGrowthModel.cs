@@ -24,7 +24,7 @@ internal sealed class LogLinearGrowthModel : IDegradationModel
         ]);
     }
 
-    /// <summary>The worked updating case of REFERENCES.md: X₁ ~ N(ln 0.5, 0.5), X₂ ~ N(0.10, 0.02), a_c = 20 mm.</summary>
+    /// <summary>The worked updating case of docs/references.md: X₁ ~ N(ln 0.5, 0.5), X₂ ~ N(0.10, 0.02), a_c = 20 mm.</summary>
     public static LogLinearGrowthModel WorkedCase() => new(Math.Log(0.5), 0.5, 0.10, 0.02, 20);
 
     public double MeanLogInitialDepth { get; }

@@ -79,7 +79,7 @@ public class FormSolverClosedFormTests
     // ln R, ln S are jointly normal with corr(ln R, ln S) = ρ₀ = ln(1 + ρ·V_R·V_S)/(ζ_R·ζ_S) (the exact Nataf fictive
     // correlation of a lognormal pair), so β = (λR − λS)/√(ζR² + ζS² − 2ρ₀ζRζS) and FORM is exact (the surface is a plane).
     [Theory]
-    [Reference("Liu & Der Kiureghian (1986), lognormal–lognormal fictive correlation (REFERENCES.md [memory, verified numerically]); exact β in log space")]
+    [Reference("Liu & Der Kiureghian (1986), lognormal–lognormal fictive correlation (docs/references.md [memory, verified numerically]); exact β in log space")]
     [InlineData(0.5)]
     [InlineData(-0.4)]
     [InlineData(0.9)]

@@ -5,13 +5,13 @@ using InspectionUpdate.Reliability.Simulation;
 namespace InspectionUpdate.Tests.Reliability.Form;
 
 /// <summary>
-/// FORM on nonlinear limit states with non-normal inputs, each checked against the value in REFERENCES.md and an
+/// FORM on nonlinear limit states with non-normal inputs, each checked against the value in docs/references.md and an
 /// independent computation done here (direct minimization for β and u*, numerical integration for the exact Pf).
 /// </summary>
 public class FormSolverNonlinearTests
 {
     [Fact]
-    [Reference("REFERENCES.md, non-trivial FORM cases [derived]: g = X1·X2 − X3, β = 3.049073, x* = (28.55035, 48.30831, 1379.2192)")]
+    [Reference("docs/references.md, non-trivial FORM cases [derived]: g = X1·X2 − X3, β = 3.049073, x* = (28.55035, 48.30831, 1379.2192)")]
     [Reference("Independent computation in the test: Nelder–Mead minimization of ‖u‖² on the surface (MathNet)")]
     public void Product_of_normals_minus_normal_matches_the_reference_design_point()
     {
@@ -39,7 +39,7 @@ public class FormSolverNonlinearTests
     }
 
     [Fact]
-    [Reference("REFERENCES.md [derived]: R ~ LN(300, CoV 0.1), S ~ Gumbel(150, CoV 0.3): β_FORM = 2.296501")]
+    [Reference("docs/references.md [derived]: R ~ LN(300, CoV 0.1), S ~ Gumbel(150, CoV 0.3): β_FORM = 2.296501")]
     [Reference("Independent computation in the test: 1-D minimization of uR² + uS(uR)² on R = S (MathNet golden section)")]
     public void Lognormal_resistance_minus_Gumbel_load_matches_the_reference_beta()
     {
@@ -55,7 +55,7 @@ public class FormSolverNonlinearTests
     }
 
     [Fact]
-    [Reference("REFERENCES.md [derived]: exact Pf = 1.083727e-2 for R ~ LN(300, 0.1) − S ~ Gumbel(150, 0.3)")]
+    [Reference("docs/references.md [derived]: exact Pf = 1.083727e-2 for R ~ LN(300, 0.1) − S ~ Gumbel(150, 0.3)")]
     [Reference("Independent computation in the test: Pf = ∫ φ(t)·Q_S(exp(λ + ζt)) dt, Gauss–Legendre (MathNet)")]
     public void Lognormal_minus_Gumbel_exact_pf_by_integration_matches_the_reference()
     {
@@ -84,7 +84,7 @@ public class FormSolverNonlinearTests
 
     [Fact]
     [Trait("Category", "Statistical")]
-    [Reference("REFERENCES.md [derived]: exact Pf = 1.176882e-3 for g = X1·X2 − X3")]
+    [Reference("docs/references.md [derived]: exact Pf = 1.176882e-3 for g = X1·X2 − X3")]
     [Reference("Independent computation in the test: 2-D Gauss–Legendre integration (MathNet) and importance sampling at u* within 3 standard errors")]
     public void Product_of_normals_exact_pf_agrees_with_integration_and_importance_sampling()
     {

@@ -12,7 +12,7 @@ public class FormSolverRobustnessTests
     public class Warm_start
     {
         [Fact]
-        [Reference("REFERENCES.md [derived]: g = X1·X2 − X3, β = 3.049073 (the same answer from any start)")]
+        [Reference("docs/references.md [derived]: g = X1·X2 − X3, β = 3.049073 (the same answer from any start)")]
         public void Gives_the_same_answer_with_fewer_evaluations()
         {
             var problem = FormTestModels.ProductOfNormals();
@@ -63,7 +63,7 @@ public class FormSolverRobustnessTests
     public class Gradients
     {
         [Theory]
-        [Reference("REFERENCES.md [derived]: g = X1·X2 − X3, β = 3.049073")]
+        [Reference("docs/references.md [derived]: g = X1·X2 − X3, β = 3.049073")]
         [InlineData(GradientMethod.Automatic, true)]
         [InlineData(GradientMethod.Analytic, true)]
         [InlineData(GradientMethod.ForwardDifference, false)]
@@ -182,7 +182,7 @@ public class FormSolverRobustnessTests
         }
 
         [Fact]
-        [Reference("REFERENCES.md [derived]: g = X1·X2 − X3 needs several iHL-RF steps")]
+        [Reference("docs/references.md [derived]: g = X1·X2 − X3 needs several iHL-RF steps")]
         public void Iteration_cap_is_reported_with_the_residuals()
         {
             var result = FormSolver.Solve(FormTestModels.ProductOfNormals(), new FormOptions { MaxIterations = 1 });
@@ -239,7 +239,7 @@ public class FormSolverRobustnessTests
     public class Scale_invariance
     {
         [Theory]
-        [Reference("REFERENCES.md [derived]: g = X1·X2 − X3, β = 3.049073; k·g has the same failure domain")]
+        [Reference("docs/references.md [derived]: g = X1·X2 − X3, β = 3.049073; k·g has the same failure domain")]
         [InlineData(1e-6)]
         [InlineData(1e6)]
         public void Rescaling_the_limit_state_changes_neither_beta_nor_the_path(double k)

@@ -80,7 +80,7 @@ internal static class FormTestModels
     public static double InvPhi(double p) => Normal.InvCDF(0, 1, p);
 
     /// <summary>
-    /// g = X1·X2 − X3, X1 ~ N(40, 5), X2 ~ N(50, 2.5), X3 ~ N(1000, 200) (REFERENCES.md, non-trivial FORM cases).
+    /// g = X1·X2 − X3, X1 ~ N(40, 5), X2 ~ N(50, 2.5), X3 ~ N(1000, 200) (docs/references.md, non-trivial FORM cases).
     /// </summary>
     public static ReliabilityProblem ProductOfNormals(bool analyticGradient = false)
     {
@@ -108,7 +108,7 @@ internal static class FormTestModels
             (a, b) => Normal.PDF(0, 1, a) * Normal.PDF(0, 1, b) * (1 - Normal.CDF(0, 1, ((40 + 5 * a) * (50 + 2.5 * b) - 1000) / 200)),
             -9, 9, -9, 9, 256);
 
-    /// <summary>R ~ LN(mean 300, CoV 0.1), S ~ Gumbel-max(mean 150, CoV 0.3), g = R − S (REFERENCES.md).</summary>
+    /// <summary>R ~ LN(mean 300, CoV 0.1), S ~ Gumbel-max(mean 150, CoV 0.3), g = R − S (docs/references.md).</summary>
     public static ReliabilityProblem LognormalMinusGumbel(out LognormalVariable r, out GumbelClosedForm s)
     {
         r = LognormalVariable.FromMeanCov("R", 300, 0.1);

@@ -117,7 +117,7 @@ public class BivariateNormalTests
     }
 
     [Theory]
-    [Reference("REFERENCES.md derived values (Drezner & Wesolowsky 1990 integral), recomputed here by the Plackett integral with MathNet double-exponential quadrature")]
+    [Reference("docs/references.md derived values (Drezner & Wesolowsky 1990 integral), recomputed here by the Plackett integral with MathNet double-exponential quadrature")]
     [InlineData(-1.0, -1.0, 0.5, 0.06251409470966383)]
     [InlineData(-2.0, -2.0, 0.9, 0.01336125612701929)]
     [InlineData(-3.0, -3.0, 0.99, 1.101519998620623e-3)]

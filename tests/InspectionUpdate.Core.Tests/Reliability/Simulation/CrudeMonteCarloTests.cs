@@ -31,7 +31,7 @@ public class CrudeMonteCarloTests
 
     [Fact]
     [Trait("Category", "Statistical")]
-    [Reference("REFERENCES.md [derived]: exact Pf = 1.083727e-2 for R ~ LN(300, 0.1) − S ~ Gumbel(150, 0.3), recomputed by integration in the test")]
+    [Reference("docs/references.md [derived]: exact Pf = 1.083727e-2 for R ~ LN(300, 0.1) − S ~ Gumbel(150, 0.3), recomputed by integration in the test")]
     public void Non_normal_inputs_are_sampled_through_the_transformation()
     {
         var problem = FormTestModels.LognormalMinusGumbel(out var r, out var s);

@@ -10,7 +10,7 @@ public class ImportanceSamplingTests
 {
     [Fact]
     [Trait("Category", "Statistical")]
-    [Reference("REFERENCES.md [derived]: exact Pf = 1.083727e-2, recomputed by 1-D integration in the test; within 3 standard errors")]
+    [Reference("docs/references.md [derived]: exact Pf = 1.083727e-2, recomputed by 1-D integration in the test; within 3 standard errors")]
     public void Lognormal_minus_Gumbel_estimate_lies_within_three_standard_errors_of_the_exact_value()
     {
         var problem = FormTestModels.LognormalMinusGumbel(out var r, out var s);

@@ -30,7 +30,7 @@ public class SormSolverTests
     }
 
     [Theory]
-    [Reference("Exact paraboloid probability by a 1-D χ² integral computed in the test; Breitung (1984) and Hohenbichler et al. (1987) closed forms written out; REFERENCES.md derived values")]
+    [Reference("Exact paraboloid probability by a 1-D χ² integral computed in the test; Breitung (1984) and Hohenbichler et al. (1987) closed forms written out; docs/references.md derived values")]
     [InlineData(3.0, 0.1, 2, 1.168962e-3, 1.183939e-3, 1.171254e-3, 0.02)]
     [InlineData(3.0, 0.2, 5, 4.730416e-4, 5.273039e-4, double.NaN, 0.02)]
     [InlineData(4.0, 0.05, 10, 1.310400e-5, double.NaN, double.NaN, 0.02)]
@@ -84,7 +84,7 @@ public class SormSolverTests
     }
 
     [Fact]
-    [Reference("REFERENCES.md derived case g = X1·X2 − X3 (β_FORM = 3.049073); exact Pf recomputed here by 2-D Gauss–Legendre integration of Φ((x1·x2 − 1000)/200) over the normal densities")]
+    [Reference("docs/references.md derived case g = X1·X2 − X3 (β_FORM = 3.049073); exact Pf recomputed here by 2-D Gauss–Legendre integration of Φ((x1·x2 − 1000)/200) over the normal densities")]
     public void Nonlinear_product_limit_state_is_corrected_towards_the_exact_probability()
     {
         var model = new StochasticModel([new NormalVariable("X1", 40, 5), new NormalVariable("X2", 50, 2.5), new NormalVariable("X3", 1000, 200)]);

@@ -14,7 +14,7 @@ public class ReliabilityVerificationTests
 
     [Fact]
     [Trait("Category", "Statistical")]
-    [Reference("REFERENCES.md derived case g = X1·X2 − X3; exact Pf recomputed in the test by 2-D Gauss–Legendre integration; simulations within 3 estimated standard errors")]
+    [Reference("docs/references.md derived case g = X1·X2 − X3; exact Pf recomputed in the test by 2-D Gauss–Legendre integration; simulations within 3 estimated standard errors")]
     public void Rows_come_side_by_side_and_simulations_bracket_the_exact_value()
     {
         var exact = Integrate.OnRectangle(
