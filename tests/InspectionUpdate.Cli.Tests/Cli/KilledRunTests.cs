@@ -48,9 +48,12 @@ public sealed class KilledRunTests
 
             var random = new Random(20261203);
             int killed = 0, endedFirst = 0, rounds = 0, partial = 0;
+            // The machine's speed changes under load: a run that ends before its kill shortens the later delays, a kill
+            // lengthens them again, so the trials keep falling inside runs whatever the load.
+            var scale = 1.0;
             while (killed < Kills)
             {
-                Assert.True(killed + endedFirst < 4 * Kills, $"only {killed} of {Kills} runs were killed while running ({endedFirst} ended before the kill)");
+                Assert.True(killed + endedFirst < 10 * Kills, $"only {killed} of {Kills} runs were killed while running ({endedFirst} ended before the kill)");
 
                 // A round: a fresh copy, killed up to ten times (each run going further), then completed by a rerun.
                 rounds++;
@@ -65,16 +68,18 @@ public sealed class KilledRunTests
                     using var run = CliProcess.Start(round, Assess);
                     _ = run.StandardOutput.ReadToEndAsync();
                     _ = run.StandardError.ReadToEndAsync();
-                    var delay = TimeSpan.FromMilliseconds(random.NextDouble() * (startup + compute * (Components - stored) / Components));
+                    var delay = TimeSpan.FromMilliseconds(scale * random.NextDouble() * (startup + compute * (Components - stored) / Components));
                     if (run.WaitForExit(delay))
                     {
                         endedFirst++;
+                        scale *= 0.6;
                         break; // Ended before the kill: the round is complete.
                     }
 
                     run.Kill(); // SIGKILL
                     run.WaitForExit();
                     killed++;
+                    scale = Math.Min(1, scale * 1.1);
                     stored = AssertConsistent(register, evidence);
                     if (stored > 0 && stored < Components) partial++;
                 }
