@@ -11,7 +11,7 @@ namespace InspectionUpdate.Tests.Cli;
 /// </summary>
 public sealed class KilledRunTests
 {
-    private const int Components = 6;
+    private const int Components = 12;
     private const int Kills = 50;
     private const int KillsPerRound = 10;
     private const string AsOf = "2025-06-30";
@@ -68,7 +68,9 @@ public sealed class KilledRunTests
                     using var run = CliProcess.Start(round, Assess);
                     _ = run.StandardOutput.ReadToEndAsync();
                     _ = run.StandardError.ReadToEndAsync();
-                    var delay = TimeSpan.FromMilliseconds(scale * random.NextDouble() * (startup + compute * (Components - stored) / Components));
+                    // Half the trials fall anywhere in the run, half after the start-up, inside the computing phase.
+                    var from = random.NextDouble() < 0.5 ? 0 : startup;
+                    var delay = TimeSpan.FromMilliseconds(scale * (from + random.NextDouble() * (startup - from + compute * (Components - stored) / Components)));
                     if (run.WaitForExit(delay))
                     {
                         endedFirst++;
