@@ -73,32 +73,27 @@ internal static class UpdatingVerificationCases
         rows.Add(SimulationRow(name + ", prior", "Pf(20 y)", 4.174915e-3, sampleSet.Estimate(model, [], 20), "sample-set route"));
         rows.Add(SimulationRow(name + ", no indication at 10 y", "Pf(20 y) updated", 1.071037e-4, sampleSet.Estimate(model, none, 20), "sample-set route"));
         rows.Add(SimulationRow(name + ", 3.2 mm sized at 10 y", "Pf(20 y) updated", 2.628171e-3, sampleSet.Estimate(model, sized, 20), "sample-set route"));
-        var nextSampled = new InspectionPlanner(sampleSet).NextInspection(new PlanningRequest
-        {
-            Model = model,
-            Evidence = none,
-            InServiceDate = new DateOnly(2000, 1, 1),
-            Target = AnnualTarget.FromAnnualPf(1e-4, AnnualMeasure.IntervalPf, "verification"),
-            EndOfServiceYears = 40,
-        });
-        rows.Add(new VerificationTableRow(name + ", no indication at 10 y", Source, "year in which annual ΔPf first exceeds 1e-4",
-            21, Math.Ceiling(nextSampled.TimeYears), 0, "planner (sample-set route)",
-            "crossing at " + nextSampled.TimeYears.ToString("0.000", CultureInfo.InvariantCulture) + " y" + (nextSampled.Computation.AllConverged ? "" : "; not converged")));
+        rows.Add(DueYearRow(name, model, none, sampleSet, "planner (sample-set route)"));
 
         // Planning: the annual ΔPf first exceeds 1e-4 in year 21 after the no indication (16 without it); the planner's
         // continuous-time crossing must fall inside that year.
-        var next = new InspectionPlanner(firstOrder).NextInspection(new PlanningRequest
+        rows.Add(DueYearRow(name, model, none, firstOrder, "planner (first order)"));
+        return rows;
+    }
+
+    private static VerificationTableRow DueYearRow(string name, IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, IReliabilityUpdater updater, string route)
+    {
+        var next = new InspectionPlanner(updater).NextInspection(new PlanningRequest
         {
             Model = model,
-            Evidence = none,
+            Evidence = evidence,
             InServiceDate = new DateOnly(2000, 1, 1),
             Target = AnnualTarget.FromAnnualPf(1e-4, AnnualMeasure.IntervalPf, "verification"),
             EndOfServiceYears = 40,
         });
-        rows.Add(new VerificationTableRow(name + ", no indication at 10 y", Source, "year in which annual ΔPf first exceeds 1e-4",
-            21, Math.Ceiling(next.TimeYears), 0, "planner (first order)",
-            "crossing at " + next.TimeYears.ToString("0.000", CultureInfo.InvariantCulture) + " y" + (next.Computation.AllConverged ? "" : "; not converged")));
-        return rows;
+        return new VerificationTableRow(name + ", no indication at 10 y", Source, "year in which annual ΔPf first exceeds 1e-4",
+            21, Math.Ceiling(next.TimeYears), 0, route,
+            "crossing at " + next.TimeYears.ToString("0.000", CultureInfo.InvariantCulture) + " y" + (next.Computation.AllConverged ? "" : "; not converged"));
     }
 
     private static VerificationTableRow FirstOrderRow(string name, string quantity, double expected, UpdatedEstimate e, double tolerance, double? obtained = null) =>
