@@ -224,19 +224,22 @@ public sealed class FindingCorrectCommand(CliHost host) : CliCommand<FindingCorr
     }
 }
 
-/// <summary>Settings of <c>finding list</c>.</summary>
-public sealed class FindingListSettings : RegisterSettings
+/// <summary>Settings of the list commands of revised records (findings, repairs): a component filter and the history switch.</summary>
+public abstract class RevisedListSettings : RegisterSettings
 {
     /// <summary>Component filter.</summary>
     [CommandArgument(0, "[COMPONENT]")]
-    [Description("Only this component.")]
+    [Description("Only this component (default: every component).")]
     public string? Component { get; init; }
 
     /// <summary>Show superseded revisions.</summary>
     [CommandOption("--all-revisions")]
-    [Description("Also show superseded revisions.")]
+    [Description("Also show superseded revisions (corrections and withdrawals), not only the current one.")]
     public bool AllRevisions { get; init; }
 }
+
+/// <summary>Settings of <c>finding list</c>.</summary>
+public sealed class FindingListSettings : RevisedListSettings;
 
 /// <summary>Lists findings.</summary>
 public sealed class FindingListCommand(CliHost host) : CliCommand<FindingListSettings>(host)

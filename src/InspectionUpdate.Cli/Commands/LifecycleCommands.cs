@@ -124,18 +124,7 @@ internal static class Lifecycle
 }
 
 /// <summary>Settings of <c>repair list</c>.</summary>
-public sealed class RepairListSettings : RegisterSettings
-{
-    /// <summary>Component.</summary>
-    [CommandArgument(0, "[COMPONENT]")]
-    [Description("Only the repairs of this component (default: every component).")]
-    public string? Component { get; init; }
-
-    /// <summary>History.</summary>
-    [CommandOption("--all-revisions")]
-    [Description("Show every revision (corrections and withdrawals), not only the current one.")]
-    public bool AllRevisions { get; init; }
-}
+public sealed class RepairListSettings : RevisedListSettings;
 
 /// <summary>Lists repairs.</summary>
 public sealed class RepairListCommand(CliHost host) : CliCommand<RepairListSettings>(host)
