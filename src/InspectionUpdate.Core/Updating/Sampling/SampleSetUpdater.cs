@@ -198,6 +198,23 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             };
         }
 
+        var (period, local) = set.Locate(t);
+        if (local <= set.SurvivedUntil(period))
+        {
+            // Not an estimate: the findings record the component in service at a later time of this renewal period.
+            return new UpdatedEstimate
+            {
+                CumulativePf = 0,
+                Beta = double.PositiveInfinity,
+                EvidenceProbability = evidenceProbability,
+                Route = ComputationRoute.ImportanceSampling,
+                Converged = true,
+                CoefficientOfVariation = null,
+                Note = Append(note, string.Create(CultureInfo.InvariantCulture,
+                    $"exactly 0: the findings record the component in service at {set.PeriodStart(period) + set.SurvivedUntil(period):0.###} y")),
+            };
+        }
+
         var covered = p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples;
         // Converged: the target CoV is met, or (with the failure region covered) the value is shown below the level
         // at which no planning decision depends on more digits.
