@@ -1,6 +1,7 @@
 using System.Globalization;
 using InspectionUpdate.Degradation;
 using InspectionUpdate.Probability;
+using InspectionUpdate.Probability.Numerics;
 using InspectionUpdate.Reliability;
 using InspectionUpdate.Updating.Simulation;
 
@@ -46,6 +47,9 @@ internal sealed class ComponentSampleSet
     private int _posterior = -1;
     private readonly List<double>[] _times;
     private readonly double[] _survivedLocal;
+    private readonly AnnualMaxima? _annual;
+    private readonly int[] _years;
+    private readonly List<double>[] _logSurvival;
     private readonly Random _rng;
     private SamplingMixture _mixture = null!;
     private int[][]? _order;
@@ -60,7 +64,10 @@ internal sealed class ComponentSampleSet
         _m = _t.PhysicalDimension;
         _component = model.ComponentModel(Id);
         _localDimension = _component.Inputs.Variables.Count;
-        _events = model.Events.ToArray();
+        _annual = AnnualMaxima.Of(model, _component, _t);
+        // With an annual maximum the in-service records enter as T_f > τ only (below): their events see one value of
+        // the load, not the yearly maxima.
+        _events = model.Events.Where(e => _annual is null || e.Outcome is not SurvivedInService).ToArray();
         var periods = model.RenewalPeriods(Id);
         _periodStart = new double[periods];
         _periodLength = new double[periods];
@@ -77,6 +84,13 @@ internal sealed class ComponentSampleSet
         }
 
         _times = Enumerable.Range(0, periods).Select(_ => new List<double>()).ToArray();
+        _logSurvival = Enumerable.Range(0, periods).Select(_ => new List<double>()).ToArray();
+        // Whole years of service ending in each period (yearly failure events of an annual-maximum load).
+        _years = new int[periods];
+        for (var e = 0; e < periods; e++)
+        {
+            _years[e] = Math.Max(0, (int)Math.Floor(_periodStart[e] + _periodLength[e] + 1e-9) - (int)Math.Floor(_periodStart[e] + 1e-9));
+        }
         _rng = new Random(options.Seed);
     }
 
@@ -119,7 +133,7 @@ internal sealed class ComponentSampleSet
     /// <summary>Builds the set for one component's findings.</summary>
     public static ComponentSampleSet Build(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears)
     {
-        var evidenceModel = EvidenceModel.Build(UpdatingCase.Single(model, evidence));
+        var evidenceModel = EvidenceModel.Build(UpdatingCase.Single(model, evidence), annualMaximumAsInput: true);
         var set = new ComponentSampleSet(evidenceModel, evidence, options, horizonYears);
         set.Construct();
         return set;
@@ -142,7 +156,7 @@ internal sealed class ComponentSampleSet
         var extra = Extra(extended);
         if (extra is null) return null;
         if (extra.Count == 0) return Weighted;
-        var extendedModel = EvidenceModel.Build(UpdatingCase.Single(_component, extended));
+        var extendedModel = EvidenceModel.Build(UpdatingCase.Single(_component, extended), annualMaximumAsInput: true);
         if (extendedModel.InputModel.Variables.Count != _m) return null;
         var extraEvents = extendedModel.Events.Where(ev => extra.Contains(ev.Outcome)).ToArray();
         var n = _logW.Count;
@@ -265,7 +279,7 @@ internal sealed class ComponentSampleSet
         Reweigh();
         Weighted = Weigh(_logW.ToArray());
         var refinements = 0;
-        while (_logW.Count < _options.MaxSamples && Unresolved() is { } missed)
+        while (_logW.Count < _options.MaxSamples && Unresolved(Weighted) is { } missed)
         {
             // Refinement: a batch aimed at the earliest unresolved time, drawn mostly from a centre at the weighted
             // mean of the failures by that time (a new component, or the nearest existing one). All samples are then
@@ -276,7 +290,7 @@ internal sealed class ComponentSampleSet
             {
                 // Too few failures by that time to aim at it: one cross-entropy rung instead, the mean of the earliest
                 // fifth (by weight) of the failures by the next covered time, a step towards the earlier, rarer failures.
-                centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(missed.Period, missed.Local), 0.2, out effective);
+                centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(Weighted, missed.Period, missed.Local), 0.2, out effective);
             }
 
             var count = Math.Min(Math.Max(_options.Samples / 2, _logW.Count / 2), _options.MaxSamples - _logW.Count);
@@ -318,6 +332,7 @@ internal sealed class ComponentSampleSet
         _failureCentres.Clear();
         _order = null;
         foreach (var list in _times) list.Clear();
+        foreach (var list in _logSurvival) list.Clear();
         _mixture = new SamplingMixture(lower, logDet);
         _logPhi.Add([]);
         _posterior = posteriorMean is null ? -1 : AddComponent(posteriorMean);
@@ -335,6 +350,13 @@ internal sealed class ComponentSampleSet
     /// <summary>Adds a component and its log density at every sample drawn so far; returns its index.</summary>
     private int AddComponent(double[] centre)
     {
+        // The yearly maxima are drawn from their own law, not from the mixture: its coordinate stays at the prior.
+        if (_annual is not null)
+        {
+            centre = (double[])centre.Clone();
+            centre[_annual.StandardIndex] = 0;
+        }
+
         var j = _mixture.Add(centre);
         var column = new List<double>(Math.Max(_logW.Count, 16));
         var u = new double[_d];
@@ -473,35 +495,41 @@ internal sealed class ComponentSampleSet
     {
         effective = 0;
         var top = double.NegativeInfinity;
-        var times = _times[period];
-        for (var i = 0; i < _logW.Count; i++)
+        var n = _logW.Count;
+        var shares = new double[n];
+        for (var i = 0; i < n; i++)
         {
-            if (times[i] <= local && _logW[i] > top) top = _logW[i];
+            shares[i] = double.IsNegativeInfinity(_logW[i]) ? 0 : Share(period, local, i);
+            if (shares[i] > 0 && _logW[i] > top) top = _logW[i];
         }
 
         if (!double.IsFinite(top)) return null;
         var mean = new double[_d];
         double total = 0, total2 = 0;
-        var x = new double[_m];
-        var u = new double[_d];
-        for (var i = 0; i < _logW.Count; i++)
+        for (var i = 0; i < n; i++)
         {
-            if (!(times[i] <= local)) continue;
-            var w = Math.Exp(_logW[i] - top);
+            if (!(shares[i] > 0)) continue;
+            var w = Math.Exp(_logW[i] - top) * shares[i];
             if (w == 0) continue;
-            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
             total += w;
             total2 += w * w;
-            for (var k = 0; k < _d; k++) mean[k] += w * u[k];
+            for (var k = 0; k < _d; k++) mean[k] += w * _u[i * _d + k];
         }
 
+        if (!(total > 0)) return null;
         for (var k = 0; k < _d; k++) mean[k] /= total;
         effective = total * total / total2;
         return mean;
     }
 
+    /// <summary>
+    /// True when, under the given weights (this set's, or a reweighting for planned findings), every yearly Pf that may
+    /// lie at or above the decision floor meets the target CoV with the minimum effective failure samples.
+    /// </summary>
+    public bool Resolves(WeightedFailureTimes weighted) => Unresolved(weighted) is null;
+
     /// <summary>The earliest yearly time of some period whose Pf, possibly at or above the decision floor, misses the target CoV or the minimum failure samples; null when none.</summary>
-    private (int Period, double Local)? Unresolved()
+    private (int Period, double Local)? Unresolved(WeightedFailureTimes weighted)
     {
         for (var e = 0; e < Periods; e++)
         {
@@ -510,9 +538,9 @@ internal sealed class ComponentSampleSet
             {
                 var local = Math.Min(k, _periodLength[e]);
                 if (local <= _survivedLocal[e]) continue;
-                var p = Weighted.Cumulative(e, local);
+                var p = weighted.Cumulative(e, local);
                 // Where the failures drawn are too few to judge, the next covered value bounds this one (Pf never falls).
-                var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(e, local);
+                var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(weighted, e, local);
                 if (!(bound >= _options.DecisionFloor)) continue;
                 if (p.CoefficientOfVariation > _options.TargetCoefficientOfVariation || p.EffectiveEvents < _options.MinimumFailureSamples) return (e, local);
             }
@@ -522,20 +550,20 @@ internal sealed class ComponentSampleSet
     }
 
     /// <summary>p + 3·se at the first later yearly time of the period with enough effective failure samples; 1 when none.</summary>
-    private double CoveredBoundAfter(int period, double local)
+    private double CoveredBoundAfter(WeightedFailureTimes weighted, int period, double local)
     {
-        var at = CoveredTimeAfter(period, local);
-        var p = Weighted.Cumulative(period, at);
+        var at = CoveredTimeAfter(weighted, period, local);
+        var p = weighted.Cumulative(period, at);
         return p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : 1;
     }
 
     /// <summary>The first later yearly time of the period with enough effective failure samples, else the period's end.</summary>
-    private double CoveredTimeAfter(int period, double local)
+    private double CoveredTimeAfter(WeightedFailureTimes weighted, int period, double local)
     {
         for (var later = Math.Floor(local) + 1; ; later += 1)
         {
             var at = Math.Min(later, _periodLength[period]);
-            if (at >= _periodLength[period] || Weighted.Cumulative(period, at).EffectiveEvents >= _options.MinimumFailureSamples) return at;
+            if (at >= _periodLength[period] || weighted.Cumulative(period, at).EffectiveEvents >= _options.MinimumFailureSamples) return at;
         }
     }
 
@@ -543,6 +571,8 @@ internal sealed class ComponentSampleSet
     private double[]? EarliestFailuresMean(int period, double byLocal, double share, out double effective)
     {
         effective = 0;
+        // With an annual-maximum load every sample has a share in every year's failures: no order of failure times.
+        if (_annual is not null) return null;
         var times = _times[period];
         var order = _order![period];
         var top = double.NegativeInfinity;
@@ -624,6 +654,7 @@ internal sealed class ComponentSampleSet
         var u = new double[_d];
         var x = new double[_m];
         var local = new double[_localDimension];
+        var curve = new double[_years.Length == 0 ? 0 : _years.Max()];
         for (var s = 0; s < count; s++)
         {
             _mixture.Draw(_rng, cumulative, u);
@@ -641,6 +672,12 @@ internal sealed class ComponentSampleSet
             for (var k = 0; k < _m; k++) _x.Add(x[k]);
             for (var e = 0; e < Periods; e++)
             {
+                if (_annual is not null)
+                {
+                    logTarget += DrawSurvival(e, x, local, double.IsNegativeInfinity(logTarget), curve);
+                    continue;
+                }
+
                 if (double.IsNegativeInfinity(logTarget))
                 {
                     _times[e].Add(double.PositiveInfinity);
@@ -655,6 +692,7 @@ internal sealed class ComponentSampleSet
                 if (tf <= _survivedLocal[e]) logTarget = double.NegativeInfinity;
             }
 
+            if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;
             _logTarget.Add(logTarget);
             _logW.Add(logTarget);
         }
@@ -664,6 +702,44 @@ internal sealed class ComponentSampleSet
             var column = _logPhi[j];
             for (var i = first; i < _logW.Count; i++) column.Add(_mixture.LogDensity(j, System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_u).Slice(i * _d, _d)));
         }
+    }
+
+    /// <summary>
+    /// Appends sample's conditional log survival curve of period e (annual-maximum load) and returns the log likelihood
+    /// of the period's in-service record, ln Sᵢ(τ); after the record the curve is kept relative to it, so Pf up to τ is
+    /// exactly 0 and later values are conditional on survival to τ.
+    /// </summary>
+    private double DrawSurvival(int e, double[] x, double[] local, bool rejected, double[] curve)
+    {
+        var years = _years[e];
+        var list = _logSurvival[e];
+        if (rejected || years == 0)
+        {
+            for (var k = 0; k < years; k++) list.Add(0);
+            return 0;
+        }
+
+        Model.PeriodInputs(Id, e, x, local);
+        var span = curve.AsSpan(0, years);
+        _annual!.LogSurvival(_component, local, _periodStart[e], span, out var used);
+        Evaluations += used;
+        var recorded = RecordedYears(e);
+        var atRecord = recorded == 0 ? 0 : span[recorded - 1];
+        for (var k = 0; k < years; k++) list.Add(k < recorded ? 0 : span[k] - atRecord);
+        return atRecord;
+    }
+
+    /// <summary>Whole years of period e that end by its in-service record.</summary>
+    private int RecordedYears(int e) =>
+        _survivedLocal[e] <= 0 ? 0 : Math.Clamp((int)Math.Floor(_periodStart[e] + _survivedLocal[e] + 1e-9) - (int)Math.Floor(_periodStart[e] + 1e-9), 0, _years[e]);
+
+    /// <summary>Sample i's share in "failed by local time τ of period e": the indicator, or 1 − Sᵢ(τ) with an annual-maximum load.</summary>
+    private double Share(int period, double local, int i)
+    {
+        if (_annual is null) return _times[period][i] <= local ? 1 : 0;
+        var years = _years[period];
+        var k = Math.Clamp((int)Math.Floor(_periodStart[period] + local + 1e-9) - (int)Math.Floor(_periodStart[period] + 1e-9), 0, years);
+        return k == 0 ? 0 : -ElementaryFunctions.Expm1(_logSurvival[period][i * years + k - 1]);
     }
 
     private WeightedFailureTimes Weigh(double[] logW)
@@ -680,6 +756,11 @@ internal sealed class ComponentSampleSet
             for (var i = 0; i < w.Length; i++) w[i] = Math.Exp(logW[i] - top);
         }
 
+        if (_annual is not null)
+        {
+            return new YearlySurvivalCurves(_logSurvival.Select(l => l.ToArray()).ToArray(), _years, _periodStart, w, double.IsFinite(top) ? top : 0);
+        }
+
         var times = _times.Select(l => l.ToArray()).ToArray();
         // The order depends on the failure times only: a reweighting (a planned inspection) reuses it, and a new batch
         // is sorted on its own and merged in.
@@ -689,7 +770,7 @@ internal sealed class ComponentSampleSet
             _order = times.Select((t, e) => MergeSorted(t, _order?[e] ?? [], sorted)).ToArray();
         }
 
-        return new WeightedFailureTimes(times, _order, w, double.IsFinite(top) ? top : 0);
+        return new SortedFailureTimes(times, _order, w, double.IsFinite(top) ? top : 0);
     }
 
     /// <summary>Indices of all samples sorted by time: the first <paramref name="sorted"/> already in <paramref name="order"/>, the rest sorted and merged in.</summary>

@@ -28,6 +28,9 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
 
     /// <summary>Smallest share of a set's effective sample size that a reweighting for further findings may keep before a new set is drawn.</summary>
     private const double MinimumEffectiveShare = 0.5;
+
+    /// <summary>Smallest share of a set's effective sample size that a reweighting may keep when it still resolves every yearly Pf that matters.</summary>
+    private const double SmallestEffectiveShare = 0.1;
     private readonly Lock _gate = new();
     private readonly LinkedList<Entry> _recent = new();
     private readonly ReliabilityUpdater _firstOrder;
@@ -327,8 +330,11 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
                 if (!candidate.Set.IsValueCreated) continue;
                 var known = candidate.Derived.FirstOrDefault(d => d.Evidence.SequenceEqual(evidence));
                 var reweighted = known.Weighted ?? candidate.Set.Value.Reweighted(evidence, out _);
-                // Reused only while the weights stay balanced: a finding that moves the posterior far gets a set of its own.
-                if (reweighted is null || reweighted.EffectiveSampleSize < MinimumEffectiveShare * candidate.Set.Value.Weighted.EffectiveSampleSize) continue;
+                // Reused while the weights stay balanced, or while they still resolve every yearly Pf that matters with
+                // enough effective failure samples: a finding that moves the posterior further gets a set of its own.
+                if (reweighted is null) continue;
+                var share = reweighted.EffectiveSampleSize / candidate.Set.Value.Weighted.EffectiveSampleSize;
+                if (!(share >= MinimumEffectiveShare || share >= SmallestEffectiveShare && candidate.Set.Value.Resolves(reweighted))) continue;
                 if (known.Weighted is null)
                 {
                     candidate.Derived.Add((evidence.ToArray(), reweighted));
