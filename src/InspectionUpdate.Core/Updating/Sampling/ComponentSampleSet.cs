@@ -533,10 +533,12 @@ internal sealed class ComponentSampleSet
     {
         for (var e = 0; e < Periods; e++)
         {
-            var steps = Math.Max(1, (int)Math.Ceiling(_periodLength[e]));
-            for (var k = 1; k <= steps; k++)
+            // The times profiles are read at: whole years since entry into service, and the period's end.
+            var first = (int)Math.Floor(_periodStart[e] + 1e-9) + 1;
+            var steps = Math.Max(1, (int)Math.Ceiling(_periodStart[e] + _periodLength[e] - 1e-9) - first + 1);
+            for (var k = 0; k < steps; k++)
             {
-                var local = Math.Min(k, _periodLength[e]);
+                var local = Math.Min(first + k - _periodStart[e], _periodLength[e]);
                 if (local <= _survivedLocal[e]) continue;
                 var p = weighted.Cumulative(e, local);
                 // Where the failures drawn are too few to judge, the next covered value bounds this one (Pf never falls).
@@ -549,21 +551,31 @@ internal sealed class ComponentSampleSet
         return null;
     }
 
-    /// <summary>p + 3·se at the first later yearly time of the period with enough effective failure samples; 1 when none.</summary>
-    private double CoveredBoundAfter(WeightedFailureTimes weighted, int period, double local)
-    {
-        var at = CoveredTimeAfter(weighted, period, local);
-        var p = weighted.Cumulative(period, at);
-        return p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : 1;
-    }
+    /// <summary>p + 3·se at the first later time of the period with enough effective failure samples; 1 when none.</summary>
+    private double CoveredBoundAfter(WeightedFailureTimes weighted, int period, double local) =>
+        CoveredAfter(weighted, period, local) is { } covered ? covered.Probability.Value + 3 * covered.Probability.StandardError : 1;
 
-    /// <summary>The first later yearly time of the period with enough effective failure samples, else the period's end.</summary>
-    private double CoveredTimeAfter(WeightedFailureTimes weighted, int period, double local)
+    /// <summary>The first later time of the period with enough effective failure samples, else the period's end.</summary>
+    private double CoveredTimeAfter(WeightedFailureTimes weighted, int period, double local) =>
+        CoveredAfter(weighted, period, local)?.Local ?? _periodLength[period];
+
+    /// <summary>Steps of the search for the first covered time after a given one (a sixteenth of a year).</summary>
+    private const double CoverageStepYears = 1.0 / 16;
+
+    /// <summary>
+    /// The first time after <paramref name="local"/> (sixteenths of a year, to the period's end) at which the sampled
+    /// Pf of the period rests on at least the minimum number of effective failure samples, with that Pf; null when
+    /// none. Pf never falls with time within a period, so p + 3·se there bounds every earlier Pf from above.
+    /// </summary>
+    public (double Local, SampledProbability Probability)? CoveredAfter(WeightedFailureTimes weighted, int period, double local)
     {
-        for (var later = Math.Floor(local) + 1; ; later += 1)
+        var end = _periodLength[period];
+        for (var k = Math.Floor(local / CoverageStepYears) + 1; ; k++)
         {
-            var at = Math.Min(later, _periodLength[period]);
-            if (at >= _periodLength[period] || weighted.Cumulative(period, at).EffectiveEvents >= _options.MinimumFailureSamples) return at;
+            var at = Math.Min(k * CoverageStepYears, end);
+            var p = weighted.Cumulative(period, at);
+            if (p.Value > 0 && p.EffectiveEvents >= _options.MinimumFailureSamples) return (at, p);
+            if (at >= end) return null;
         }
     }
 

@@ -274,22 +274,13 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         };
     }
 
-    /// <summary>p + 3·se at the first later time (yearly steps to the period's end) whose failure region is covered, or null.</summary>
-    private (double Value, double AtYears)? LaterBound(WeightedFailureTimes weighted, ComponentSampleSet set, double t)
+    /// <summary>p + 3·se at the first later time of the period whose failure region is covered, or null.</summary>
+    private static (double Value, double AtYears)? LaterBound(WeightedFailureTimes weighted, ComponentSampleSet set, double t)
     {
         var (period, local) = set.Locate(t);
-        var end = set.PeriodLength(period);
-        for (var later = Math.Floor(local) + 1; ; later += 1)
-        {
-            var at = Math.Min(later, end);
-            var p = weighted.Cumulative(period, at);
-            if (p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples)
-            {
-                return (p.Value + 3 * p.StandardError, set.PeriodStart(period) + at);
-            }
-
-            if (at >= end) return null;
-        }
+        return set.CoveredAfter(weighted, period, local) is { } covered
+            ? (covered.Probability.Value + 3 * covered.Probability.StandardError, set.PeriodStart(period) + covered.Local)
+            : null;
     }
 
     private UpdatedEstimate? TryFirstOrder(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, double t)
