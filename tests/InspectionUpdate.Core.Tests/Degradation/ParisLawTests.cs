@@ -75,4 +75,21 @@ public class ParisLawTests
         Assert.False(model.HasClosedForm);
         Assert.Equal(HandCycles(0.5, 20), model.CyclesToCritical(Means(model.Inputs)), 1e-9 * 5.842272e5);
     }
+
+    [Theory]
+    [InlineData(0.2, 3e5)]
+    [InlineData(0.5, 1e5)]
+    [InlineData(1.0, 1e4)]
+    [Reference("Continuity of the closed form in m (the general power formula at m = 3 ± 1e-9 against the square-root form used at m = 3)")]
+    public void The_square_root_form_at_m_three_joins_the_general_formula_on_both_sides(double a0, double cycles)
+    {
+        var at = ParisLaw.DepthAfterCycles(a0, C, 3, Y, S, cycles);
+        foreach (var m in new[] { 3 - 1e-9, 3 + 1e-9 })
+        {
+            var near = ParisLaw.DepthAfterCycles(a0, C, m, Y, S, cycles);
+            Assert.Equal(near, at, 1e-6 * near);
+            var n = ParisLaw.CyclesToGrow(a0, 20, C, m, Y, S);
+            Assert.Equal(n, ParisLaw.CyclesToGrow(a0, 20, C, 3, Y, S), 1e-6 * n);
+        }
+    }
 }

@@ -352,8 +352,28 @@ public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGrad
 
     private double Moment(in Parameters p, double m) =>
         Settings.StressRanges == StressRangeModel.ConstantAmplitude
-            ? Math.Pow(p.S, m)
-            : Math.Exp(m * Math.Log(p.Q) + SpecialFunctions.GammaLn(1 + m / p.H));
+            ? (m == 3 ? p.S * p.S * p.S : Math.Pow(p.S, m))
+            : Math.Exp(m * Math.Log(p.Q) + _gammaLn.Of(1 + m / p.H));
+
+    // Γ and ln Γ at the same arguments on every evaluation when the Weibull shape and the exponents are fixed inputs.
+    private readonly LastValue _gammaLn = new(SpecialFunctions.GammaLn);
+    private readonly LastValue _gamma1 = new(SpecialFunctions.Gamma);
+    private readonly LastValue _gamma2 = new(SpecialFunctions.Gamma);
+
+    /// <summary>A function of one argument that remembers its last argument and value (safe under concurrent use: one immutable pair).</summary>
+    private sealed class LastValue(Func<double, double> f)
+    {
+        private Tuple<double, double> _last = Tuple.Create(double.NaN, double.NaN);
+
+        public double Of(double x)
+        {
+            var last = _last;
+            if (last.Item1 == x) return last.Item2;
+            var value = f(x);
+            _last = Tuple.Create(x, value);
+            return value;
+        }
+    }
 
     /// <summary>E[da/dN] at depth a: the law integrated over the stress ranges, split at the transition and threshold.</summary>
     private double Rate(in Parameters p, double a)
@@ -528,11 +548,11 @@ public sealed class CrackGrowthModel : IDegradationModel, IDegradationMarginGrad
         if (Settings.StressRanges == StressRangeModel.Weibull)
         {
             p.A1 = 1 + p.M1 / p.H;
-            p.Gamma1 = SpecialFunctions.Gamma(p.A1);
+            p.Gamma1 = _gamma1.Of(p.A1);
             if (Settings.Law == CrackGrowthLaw.TwoStage)
             {
                 p.A2 = 1 + p.M2 / p.H;
-                p.Gamma2 = SpecialFunctions.Gamma(p.A2);
+                p.Gamma2 = _gamma2.Of(p.A2);
             }
         }
 

@@ -30,6 +30,14 @@ public static class ParisLaw
     /// <summary>The depth after N cycles for a stress-range moment S = E[Δσ^m] (variable amplitude, no threshold).</summary>
     internal static double DepthAfterCyclesForMoment(double a0, double c, double m, double y, double moment, double cycles)
     {
+        if (m == 3)
+        {
+            // The usual exponent for steel in air (BS 7910): the same formula with p = −1/2 in square roots, no powers.
+            var k3 = c * y * y * y * PiToThreeHalves * moment;
+            var b = 1 / Math.Sqrt(a0) - 0.5 * k3 * cycles;
+            return b <= 0 ? double.PositiveInfinity : 1 / (b * b);
+        }
+
         var k = c * Math.Pow(y, m) * Math.Pow(Math.PI, 0.5 * m) * moment;
         var p = 1 - 0.5 * m;
         if (Math.Abs(p) < 1e-12) return a0 * Math.Exp(k * cycles);
@@ -40,7 +48,12 @@ public static class ParisLaw
 
     /// <summary>Cycles between two depths for S = E[Δσ^m]: ψ(a₀, a₁)/(C·Y^m·π^(m/2)·S), ψ = ∫ a^(−m/2) da.</summary>
     internal static double CyclesToGrowForMoment(double a0, double a1, double c, double m, double y, double moment) =>
-        DepthIntegral(a0, a1, m) / (c * Math.Pow(y, m) * Math.Pow(Math.PI, 0.5 * m) * moment);
+        m == 3
+            ? DepthIntegral(a0, a1, m) / (c * y * y * y * PiToThreeHalves * moment)
+            : DepthIntegral(a0, a1, m) / (c * Math.Pow(y, m) * Math.Pow(Math.PI, 0.5 * m) * moment);
+
+    /// <summary>π^(3/2).</summary>
+    private const double PiToThreeHalves = 5.5683279968317078453;
 
     /// <summary>ψ(a₀, a₁) = ∫_{a₀}^{a₁} a^(−m/2) da, written as a₀^p·L·expm1(pL)/(pL) with p = 1 − m/2 and L = ln(a₁/a₀) so m near 2 stays accurate.</summary>
     internal static double DepthIntegral(double a0, double a1, double m)
@@ -48,6 +61,7 @@ public static class ParisLaw
         var p = 1 - 0.5 * m;
         var l = Math.Log(a1 / a0);
         var z = p * l;
+        if (m == 3 && a1 > 1.5 * a0) return 2 * (1 / Math.Sqrt(a0) - 1 / Math.Sqrt(a1)); // no cancellation away from a₁ ≈ a₀
         var ratio = Math.Abs(z) < 1e-8 ? 1 + 0.5 * z : MathNet.Numerics.SpecialFunctions.Expm1(z) / z;
         return Math.Pow(a0, p) * l * ratio;
     }
