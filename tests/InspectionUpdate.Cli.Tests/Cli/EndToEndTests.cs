@@ -8,7 +8,7 @@ public sealed class EndToEndTests
 {
     private static readonly string SampleData = Path.Combine(AppContext.BaseDirectory, "sample-data");
 
-    private static CliRunner Prepared(out string register)
+    internal static CliRunner Prepared(out string register)
     {
         var cli = new CliRunner();
         register = cli.PathOf("t.register");
