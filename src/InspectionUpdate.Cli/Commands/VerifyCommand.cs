@@ -97,6 +97,7 @@ public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(hos
             }
 
             list.AddRange(UpdatingVerificationCases.Run());
+            list.AddRange(TimeVariantVerificationCases.Run());
             progress(1.0);
             return list;
         });
