@@ -21,7 +21,7 @@ public sealed class MethodAddSettings : RegisterSettings
 
     /// <summary>Method file.</summary>
     [CommandOption("--file <FILE>")]
-    [Description("Method file (JSON: PoD curve and sizing error, see docs/formats.md).")]
+    [Description("Method file (JSON: PoD curve and sizing error, see docs/formats.md, \"Method file\").")]
     public string? File { get; init; }
 
     /// <summary>Who records it.</summary>
