@@ -61,6 +61,27 @@ public class Phi2OutcrossingTests(ITestOutputHelper output)
         Assert.True(phi2.UpperBoundPf <= 1.05 * (pf + 3 * se), $"upper bound {phi2.UpperBoundPf} against Monte Carlo {pf}");
     }
 
+    [Theory]
+    [InlineData(double.NaN, 0.5, 10, "mean")]
+    [InlineData(3, 0, 10, "standardDeviation")]
+    [InlineData(3, -0.5, 10, "standardDeviation")]
+    [InlineData(3, 0.5, 0, "correlationLengthYears")]
+    [InlineData(3, 0.5, double.PositiveInfinity, "correlationLengthYears")]
+    [Reference("Validation at the public boundary (STYLE.md): the parameter is named")]
+    public void A_load_process_with_a_bad_parameter_is_refused_naming_it(double mean, double sd, double lengthYears, string parameter) =>
+        Assert.Throws<ArgumentOutOfRangeException>(parameter, () => new GaussianProcessLoad("S", mean, sd, lengthYears));
+
+    [Fact]
+    [Reference("Closed form: ρ(τ) = exp(−(τ/ℓ)²) and ω₀ = √(−ρ″(0)) = √2/ℓ for the squared-exponential correlation")]
+    public void Correlation_and_cycle_rate_are_those_of_the_squared_exponential()
+    {
+        Assert.Equal(Math.Exp(-0.25), Load.Correlation(5), 15);
+        Assert.Equal(Math.Sqrt(2) / 10, Load.CycleRatePerYear, 15);
+        // −ρ″(0) by a central second difference of ρ itself.
+        const double h = 1e-3;
+        Assert.Equal(Load.CycleRatePerYear * Load.CycleRatePerYear, -(Load.Correlation(h) - 2 + Load.Correlation(-h)) / (h * h), 6);
+    }
+
     /// <summary>Crude Monte Carlo: S on a grid from the eigen-decomposition of its covariance (modes above 1e-12 of the largest kept).</summary>
     private static (double Pf, double StandardError) MonteCarlo(int samples, int seed)
     {
