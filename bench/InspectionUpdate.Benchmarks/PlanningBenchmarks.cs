@@ -11,7 +11,7 @@ namespace InspectionUpdate.Benchmarks;
 
 /// <summary>
 /// Life-cycle schedule over 40 years for a crack-growth component with a good method, target annual ΔPf 1e-4, on the
-/// project's updater (first-order route). Target: median ≤ 0.5 s. Two components: the REFERENCES.md worked case
+/// project's updater (first-order route). Target: median ≤ 0.5 s. Two components: the docs/references.md worked case
 /// (log-linear crack growth, median detectable depth 2 mm; every event surface is a hyperplane in u) and a
 /// one-stage Paris-law crack under Weibull stress ranges (median detectable depth 1 mm).
 /// </summary>
@@ -73,7 +73,7 @@ public class PlanningBenchmarks
     private static InspectionMethod Method(string name, double medianMm) =>
         new(name, new CumulativeLognormalPod(Math.Log(medianMm), 0.5), new SizingError(SizingErrorKind.AdditiveNormal, 0, 0.5));
 
-    /// <summary>ln a(t) = X₁ + X₂t, X₁ ~ N(ln 0.5, 0.5), X₂ ~ N(0.10, 0.02), failure at a ≥ 20 mm (REFERENCES.md worked case).</summary>
+    /// <summary>ln a(t) = X₁ + X₂t, X₁ ~ N(ln 0.5, 0.5), X₂ ~ N(0.10, 0.02), failure at a ≥ 20 mm (docs/references.md worked case).</summary>
     private sealed class LogLinearCrack : IDegradationModel
     {
         public string Name => "log-linear crack growth (worked case)";

@@ -77,6 +77,7 @@ public static class ComponentContexts
             Fingerprint = snapshot.Fingerprint,
             ComponentFingerprint = componentFingerprint ?? store.ComponentFingerprint(component.Id, known),
             Source = store.Path,
+            KnownOn = snapshot.KnownOn,
         };
     }
 

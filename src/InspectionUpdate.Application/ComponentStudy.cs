@@ -60,6 +60,9 @@ public sealed record ComponentContext
     /// <summary>The register file or model file.</summary>
     public required string Source { get; init; }
 
+    /// <summary>The date the register was read as recorded on (--known-on); null for model files.</summary>
+    public DateOnly? KnownOn { get; init; }
+
     /// <summary>The method of the latest finding with a method, else the first known method, else null.</summary>
     public InspectionMethod? DefaultPlanMethod =>
         Evidence.Reverse().Select(e => e switch
@@ -84,7 +87,11 @@ public sealed record CurrentState(double TimeYears, double AnnualPf, double Cumu
 /// <summary>--json of <c>assess</c>.</summary>
 public sealed record AssessDocument(string ComponentId, string Site, string Model, DateOnly InServiceDate, DateOnly AsOf, double AsOfYears,
     int EvidenceCount, bool AllConverged, CurrentState? Current, ProfileExportDocument Prior, ProfileExportDocument? Updated,
-    IReadOnlyList<ReportPosteriorSummary> Posterior, string? PosteriorNote, string Fingerprint, string ToolVersion, string Caution);
+    IReadOnlyList<ReportPosteriorSummary> Posterior, string? PosteriorNote, string Fingerprint, string ToolVersion, string Caution)
+{
+    /// <summary>The date the register was read as recorded on (--known-on); null for model files.</summary>
+    public DateOnly? KnownOn { get; init; }
+}
 
 /// <summary>One planned inspection in --json.</summary>
 public sealed record PlannedRow(int Number, DateOnly Date, double TimeYears, double IntervalYears, double AnnualBefore, double AnnualAfter, string Route, bool Converged);
@@ -93,7 +100,11 @@ public sealed record PlannedRow(int Number, DateOnly Date, double TimeYears, dou
 public sealed record PlanDocument(string ComponentId, DateOnly AsOf, double TargetAnnualPf, double TargetAnnualBeta, string TargetMeasure, string TargetSource,
     string NextStatus, DateOnly NextDate, double NextTimeYears, string NextMessage, double? RemainingLifeYears, bool RemainingLifeReached,
     string? ScheduleMethod, string? ScheduleStatus, IReadOnlyList<PlannedRow> Schedule, bool AllConverged, IReadOnlyList<string> Routes,
-    double? MaxCov, IReadOnlyList<string> Assumptions, string Fingerprint, string ToolVersion, string Caution);
+    double? MaxCov, IReadOnlyList<string> Assumptions, string Fingerprint, string ToolVersion, string Caution)
+{
+    /// <summary>The date the register was read as recorded on (--known-on); null for model files.</summary>
+    public DateOnly? KnownOn { get; init; }
+}
 
 /// <summary>Builds outputs from engine results. Lookups and wording only.</summary>
 public static class ComponentStudy
@@ -111,7 +122,8 @@ public static class ComponentStudy
     public static AssessDocument AssessJson(ComponentContext c, AssessmentRequest r, AssessmentOutcome o) => new(
         c.Id, c.Site, c.ModelDescription, c.InServiceDate, r.AsOf, Math.Round(r.AsOfYears, 4), c.Evidence.Count, o.AllConverged,
         Current(o.Current, r.AsOfYears), ProfileExport.ToExport(o.Prior), o.Updated is null ? null : ProfileExport.ToExport(o.Updated),
-        ReportMapping.Posterior(o.Posterior), o.PosteriorNote, c.Fingerprint, ToolInfo.Version, Cautions.Line);
+        ReportMapping.Posterior(o.Posterior), o.PosteriorNote, c.Fingerprint, ToolInfo.Version, Cautions.Line)
+    { KnownOn = c.KnownOn };
 
     public static PlanDocument PlanJson(ComponentContext c, AssessmentRequest r, PlanOutcome p)
     {
@@ -123,7 +135,8 @@ public static class ComponentStudy
             p.Schedule?.Inspections.Select(i => new PlannedRow(i.Number, i.Date, i.TimeYears, i.IntervalYears, i.Before.Value, i.After.Value,
                 ProfileExport.RouteKey(i.Before.Route), i.Before.Converged && i.After.Converged)).ToArray() ?? [],
             p.AllConverged, computation.Routes.Select(ProfileExport.RouteKey).ToArray(), computation.MaxCoefficientOfVariation,
-            p.Next.Assumptions.Concat(p.Schedule?.Assumptions ?? []).Distinct().ToArray(), c.Fingerprint, ToolInfo.Version, Cautions.Line);
+            p.Next.Assumptions.Concat(p.Schedule?.Assumptions ?? []).Distinct().ToArray(), c.Fingerprint, ToolInfo.Version, Cautions.Line)
+        { KnownOn = c.KnownOn };
     }
 
     public static ComponentReportData Report(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, IReadOnlyList<string> notAvailable,
@@ -135,7 +148,8 @@ public static class ComponentStudy
         var assumptions = new List<string>
         {
             $"Time zero is the entry into service on {c.InServiceDate:yyyy-MM-dd}; one year is {ServiceTime.DaysPerYear.ToString(CultureInfo.InvariantCulture)} days.",
-            $"Evidence as known on {r.AsOf:yyyy-MM-dd}: {c.Evidence.Count.ToString(CultureInfo.InvariantCulture)} record(s) (latest revision of each finding and repair; withdrawn ones left out).",
+            $"Evidence up to {r.AsOf:yyyy-MM-dd}: {c.Evidence.Count.ToString(CultureInfo.InvariantCulture)} record(s) (latest revision of each finding and repair"
+                + (c.KnownOn is { } known ? $" as recorded on {known:yyyy-MM-dd}" : string.Empty) + "; withdrawn ones left out).",
             "The annual failure probability is ΔPf(t) = Pf(t) − Pf(t − 1) on a yearly grid; after a repair it counts from the repair.",
             $"The limit state and its inputs are those of the model ({c.ModelDescription}); their distributions are as stated under Inputs.",
         };
@@ -164,7 +178,7 @@ public static class ComponentStudy
             Assumptions = assumptions,
             NotAvailable = notAvailable,
             NotRequested = notRequested ?? [],
-            Provenance = new ReportProvenance(ToolInfo.Version, c.Fingerprint, c.Source, DateTimeOffset.UtcNow, r.AsOf),
+            Provenance = new ReportProvenance(ToolInfo.Version, c.Fingerprint, c.Source, DateTimeOffset.UtcNow, r.AsOf) { RegisterKnownOn = c.KnownOn },
         };
     }
 

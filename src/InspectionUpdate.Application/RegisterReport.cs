@@ -124,7 +124,7 @@ public static class RegisterReport
                 "Each component is assessed on its own; shared parameters across components are not pooled.",
                 "Component pages (only where requested) are computed afresh with the same options from the register as known on the evidence date.",
             ],
-            Provenance = new ReportProvenance(ToolInfo.Version, snapshot.Fingerprint, store.Path, DateTimeOffset.UtcNow, options.AsOf),
+            Provenance = new ReportProvenance(ToolInfo.Version, snapshot.Fingerprint, store.Path, DateTimeOffset.UtcNow, options.AsOf) { RegisterKnownOn = snapshot.KnownOn },
         };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.RegisterResults(data));

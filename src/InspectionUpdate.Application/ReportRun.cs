@@ -57,7 +57,7 @@ public static class ReportRun
     /// <summary>Writes index.html, one HTML, profile CSV, plan CSV and JSON per component, and register.json.</summary>
     /// <returns>The path of index.html.</returns>
     public static string Write(string folder, string title, IReadOnlyList<ComponentRun> runs, ReportRunOptions options, string fingerprint, string source,
-        IReadOnlyList<string> notAvailable)
+        IReadOnlyList<string> notAvailable, DateOnly? knownOn = null)
     {
         Directory.CreateDirectory(folder);
         var rows = new List<PortfolioRow>();
@@ -71,7 +71,7 @@ public static class ReportRun
             Assumptions =
             [
                 $"Target: {options.Target.Describe()}.",
-                $"Evidence as known on {options.AsOf:yyyy-MM-dd}; the current annual Pf is the updated ΔPf of the year ending at the first grid time at or after that date.",
+                $"Evidence up to {options.AsOf:yyyy-MM-dd}" + (knownOn is { } known ? $", register as recorded on {known:yyyy-MM-dd}" : string.Empty) + "; the current annual Pf is the updated ΔPf of the year ending at the first grid time at or after that date.",
                 "Years to target: from the evidence date until the updated annual Pf reaches the target without further inspection (the remaining life against the target).",
                 "Each component is assessed on its own; shared parameters across components are not pooled in this report.",
                 "Updating route: " + (options.Route switch
@@ -82,7 +82,7 @@ public static class ReportRun
                 }) + ".",
             ],
             NotAvailable = notAvailable,
-            Provenance = new ReportProvenance(ToolInfo.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf),
+            Provenance = new ReportProvenance(ToolInfo.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf) { RegisterKnownOn = knownOn },
         };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.Portfolio(portfolio));

@@ -60,6 +60,8 @@ public static class CliApp
                 b.SetDescription("Sites: places that hold components.");
                 Add<SiteAddCommand>(b, "site add").WithDescription("Add a site.")
                     .WithExample("site", "add", "NORTH-BAY", "--name", "\"North Bay injection station\"", "-r", "plant.register");
+                Add<SiteCorrectCommand>(b, "site correct").WithDescription("Correct a site's name: records a new revision with who and why.")
+                    .WithExample("site", "correct", "NORTH-BAY", "--name", "\"North Bay injection and metering station\"", "--reason", "\"name from the asset list\"", "-r", "plant.register");
                 Add<SiteListCommand>(b, "site list").WithDescription("List the sites.").WithExample("site", "list", "-r", "plant.register");
             });
             strict.Branch("component");
@@ -84,6 +86,8 @@ public static class CliApp
                     .WithExample("method", "add", "UT-AUTO", "--file", "ut-auto.method.json", "-r", "plant.register");
                 Add<MethodFitCommand>(b, "method fit").WithDescription("Fit a method's PoD curve from qualification data and add it.")
                     .WithExample("method", "fit", "EC-SPLASH", "--data", "ec-trials.csv", "--kind", "hit-miss", "-r", "plant.register");
+                Add<MethodCorrectCommand>(b, "method correct").WithDescription("Correct a method's PoD curve, sizing error or description: records a new revision with who and why.")
+                    .WithExample("method", "correct", "UT-AUTO", "--file", "ut-auto.method.json", "--reason", "\"sizing sd from the 2025 qualification\"", "-r", "plant.register");
                 Add<MethodListCommand>(b, "method list").WithDescription("List the methods.").WithExample("method", "list", "-r", "plant.register");
             });
             strict.Branch("finding");

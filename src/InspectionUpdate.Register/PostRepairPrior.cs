@@ -8,10 +8,12 @@ namespace InspectionUpdate.Register;
 /// Parses the post-repair prior stored with a repair: the distributions of the inputs whose state the repair renews.
 /// </summary>
 /// <remarks>
-/// Format: <c>{"inputs": {"a0_mm": {"distribution": "lognormal", "mean": 0.2, "sd": 0.1}, ...}}</c>: each input names a
-/// family and its parameters as <see cref="RandomVariableFactory"/> accepts them (normal, lognormal, gumbel, weibull,
+/// Format: <c>{"inputs": {"a0_mm": {"family": "lognormal", "mean": 0.2, "sd": 0.1}, ...}}</c>: each input names a
+/// family and its parameters, spelt as in model files as <see cref="RandomVariableFactory"/> accepts them (normal, lognormal, gumbel, weibull,
 /// gamma, exponential, uniform, truncated-normal, beta, deterministic). Input names must match the names of the
-/// component model's random inputs; the updating layer checks that against the model.
+/// component model's random inputs; the updating layer checks that against the model. Registers written before the
+/// spelling was unified hold <c>"distribution"</c> in place of <c>"family"</c>: such stored rows are still read
+/// (<see cref="ParseStored(string)"/>), but a new or corrected prior must say <c>"family"</c>.
 /// </remarks>
 public static class PostRepairPrior
 {
@@ -19,7 +21,29 @@ public static class PostRepairPrior
 
     /// <summary>Parses the prior; every problem (with its JSON path as the field) is added to <paramref name="problems"/>.</summary>
     /// <returns>The inputs by name (empty when there were problems).</returns>
-    public static IReadOnlyDictionary<string, RandomVariable> Parse(string? json, List<ValidationProblem> problems)
+    public static IReadOnlyDictionary<string, RandomVariable> Parse(string? json, List<ValidationProblem> problems) =>
+        Parse(json, problems, acceptOldSpelling: false);
+
+    /// <summary>
+    /// Parses a prior as stored in the register, accepting the old key <c>"distribution"</c> for the family (rows
+    /// written before the spelling was unified); throws listing every problem.
+    /// </summary>
+    /// <exception cref="RegisterValidationException">The prior is not valid.</exception>
+    public static IReadOnlyDictionary<string, RandomVariable> ParseStored(string json)
+    {
+        var problems = new List<ValidationProblem>();
+        var result = Parse(json, problems, acceptOldSpelling: true);
+        return problems.Count > 0 ? throw new RegisterValidationException(problems) : result;
+    }
+
+    /// <summary>
+    /// Parses a prior carried forward unchanged from a stored row (a correction of a repair's date or description):
+    /// the old key <c>"distribution"</c> is accepted there, as on reading.
+    /// </summary>
+    internal static IReadOnlyDictionary<string, RandomVariable> ParseCarriedForward(string? json, List<ValidationProblem> problems) =>
+        Parse(json, problems, acceptOldSpelling: true);
+
+    private static Dictionary<string, RandomVariable> Parse(string? json, List<ValidationProblem> problems, bool acceptOldSpelling)
     {
         ArgumentNullException.ThrowIfNull(problems);
         var result = new Dictionary<string, RandomVariable>(StringComparer.Ordinal);
@@ -55,11 +79,11 @@ public static class PostRepairPrior
                 var path = $"{Root}.inputs.{input.Name}";
                 if (input.Value.ValueKind != JsonValueKind.Object)
                 {
-                    problems.Add(new(path, input.Value.ToString(), "each input must be an object with \"distribution\" and its parameters"));
+                    problems.Add(new(path, input.Value.ToString(), "each input must be an object with \"family\" and its parameters"));
                     continue;
                 }
 
-                var variable = ParseVariable(input.Name, input.Value, path, problems);
+                var variable = ParseVariable(input.Name, input.Value, path, problems, acceptOldSpelling);
                 if (variable is not null)
                 {
                     result[input.Name] = variable;
@@ -79,16 +103,33 @@ public static class PostRepairPrior
         return problems.Count > 0 ? throw new RegisterValidationException(problems) : result;
     }
 
-    private static RandomVariable? ParseVariable(string name, JsonElement e, string path, List<ValidationProblem> problems)
+    private static RandomVariable? ParseVariable(string name, JsonElement e, string path, List<ValidationProblem> problems, bool acceptOldSpelling)
     {
         string? family = null;
+        var familyKey = "family";
         var parameters = new Dictionary<string, double>(StringComparer.OrdinalIgnoreCase);
         var ok = true;
         foreach (var p in e.EnumerateObject())
         {
-            if (p.NameEquals("distribution"))
+            if (p.NameEquals("family") || (acceptOldSpelling && p.NameEquals("distribution")))
             {
+                familyKey = p.Name;
                 family = p.Value.ValueKind == JsonValueKind.String ? p.Value.GetString() : null;
+                if (family is null)
+                {
+                    problems.Add(new($"{path}.{p.Name}", p.Value.ToString(), "the family must be a text, one of " + string.Join(", ", RandomVariableFactory.Families)));
+                    ok = false;
+                }
+            }
+            else if (p.NameEquals("distribution"))
+            {
+                problems.Add(new($"{path}.distribution", p.Value.ToString(),
+                    "the key is \"family\" (as in model files), not \"distribution\": write {\"family\": \"" + p.Value.ToString() + "\", ...}"));
+                ok = false;
+            }
+            else if (p.NameEquals("note") && p.Value.ValueKind == JsonValueKind.String)
+            {
+                // free text, as in model files: where the numbers come from
             }
             else if (p.Value.ValueKind == JsonValueKind.Number)
             {
@@ -101,9 +142,14 @@ public static class PostRepairPrior
             }
         }
 
+        if (!ok)
+        {
+            return null;
+        }
+
         if (string.IsNullOrWhiteSpace(family))
         {
-            problems.Add(new($"{path}.distribution", null, "the distribution family is required, one of " + string.Join(", ", RandomVariableFactory.Families)));
+            problems.Add(new($"{path}.family", family, "the family is required, one of " + string.Join(", ", RandomVariableFactory.Families)));
             return null;
         }
 
@@ -120,7 +166,7 @@ public static class PostRepairPrior
         {
             var field = ex.ParamName switch
             {
-                "family" => $"{path}.distribution",
+                "family" => $"{path}.{familyKey}",
                 "parameters" or null => path,
                 { } other => $"{path}.{other}",
             };

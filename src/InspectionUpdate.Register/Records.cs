@@ -73,7 +73,15 @@ public sealed class RegisterValidationException : Exception
 public sealed record Provenance(DateTimeOffset RecordedUtc, string RecordedBy, string Reason);
 
 /// <summary>A site (a plant, a field, a pipeline system).</summary>
-public sealed record Site(long Id, string Code, string Name, Provenance Recorded);
+/// <remarks>
+/// <see cref="Recorded"/> is when the site was first recorded; <see cref="Revision"/> counts its corrections (1: never
+/// corrected). In <see cref="RegisterStore.SiteHistory(string)"/> each entry's <see cref="Recorded"/> is that revision's own.
+/// </remarks>
+public sealed record Site(long Id, string Code, string Name, Provenance Recorded)
+{
+    /// <summary>Revision of the site's name as read (1: as first recorded; each correction adds one).</summary>
+    public int Revision { get; init; } = 1;
+}
 
 /// <summary>Input for a new site.</summary>
 /// <param name="Code">Unique short code, e.g. "NORTH-FIELD".</param>
@@ -162,8 +170,15 @@ public sealed record PodSpec(
 public sealed record NewMethod(string Name, string Description, PodSpec Pod, SizingError Sizing);
 
 /// <summary>A stored inspection method.</summary>
+/// <remarks>
+/// <see cref="Recorded"/> is when the method was first recorded; <see cref="Revision"/> counts its corrections (1: never
+/// corrected). In <see cref="RegisterStore.MethodHistory(string)"/> each entry's <see cref="Recorded"/> is that revision's own.
+/// </remarks>
 public sealed record StoredMethod(long Id, string Name, string Description, PodSpec Pod, SizingError Sizing, Provenance Recorded)
 {
+    /// <summary>Revision of the method's parameters as read (1: as first recorded; each correction adds one).</summary>
+    public int Revision { get; init; } = 1;
+
     /// <summary>Rebuilds the core's <see cref="InspectionMethod"/>.</summary>
     public InspectionMethod ToInspectionMethod() => new(Name, Pod.ToCurve(), Sizing);
 }

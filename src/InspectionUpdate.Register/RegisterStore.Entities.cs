@@ -40,11 +40,11 @@ public sealed partial class RegisterStore
         });
     }
 
-    /// <summary>Sites recorded on or before <paramref name="asOf"/> (all when null), by code.</summary>
+    /// <summary>Sites recorded on or before <paramref name="asOf"/> (all when null), by code, each with its name as corrected by then.</summary>
     public IReadOnlyList<Site> Sites(DateTimeOffset? asOf = null) => Read((c, t) => Sql.Query(c, t,
         "SELECT site_id, code, name, recorded_utc, recorded_by FROM site WHERE recorded_utc <= $asOf ORDER BY code",
         r => new Site(r.Long("site_id"), r.Text("code"), r.Text("name"), r.Provenance(false)),
-        ("$asOf", AsOfText(asOf))));
+        ("$asOf", AsOfText(asOf))).Select(site => WithSiteCorrection(c, t, site, AsOfText(asOf))).ToList());
 
     /// <summary>
     /// Adds a component with revision 1 of its model definition. Refused, listing every problem, when the site is
@@ -275,29 +275,36 @@ public sealed partial class RegisterStore
                 ("$bias", additive ? method.Sizing.Bias : null), ("$sd", additive ? method.Sizing.StandardDeviation : null),
                 ("$lnbias", additive ? null : method.Sizing.Bias), ("$lnsd", additive ? null : method.Sizing.StandardDeviation),
                 ("$at", now), ("$by", actor));
-            return (WriteResult<StoredMethod>.Ok(ReadMethods(c, t, "method_id = $id", ("$id", id)).Single()), true);
+            return (WriteResult<StoredMethod>.Ok(ReadMethods(c, t, AsOfText(null), "method_id = $id", ("$id", id)).Single()), true);
         });
     }
 
-    /// <summary>Methods recorded on or before <paramref name="asOf"/> (all when null), by name.</summary>
+    /// <summary>Methods recorded on or before <paramref name="asOf"/> (all when null), by name, each with its parameters as corrected by then.</summary>
     public IReadOnlyList<StoredMethod> Methods(DateTimeOffset? asOf = null) =>
-        Read((c, t) => ReadMethods(c, t, "recorded_utc <= $asOf", ("$asOf", AsOfText(asOf))));
+        Read((c, t) => ReadMethods(c, t, AsOfText(asOf), "recorded_utc <= $asOf", ("$asOf", AsOfText(asOf))));
 
-    /// <summary>The method with this name, or null.</summary>
+    /// <summary>The method with this name (its latest correction), or null.</summary>
     public StoredMethod? FindMethod(string name) =>
-        Read((c, t) => ReadMethods(c, t, "name = $name", ("$name", name ?? "")).SingleOrDefault());
+        Read((c, t) => ReadMethods(c, t, AsOfText(null), "name = $name", ("$name", name ?? "")).SingleOrDefault());
 
-    private static List<StoredMethod> ReadMethods(SqliteConnection c, SqliteTransaction t, string where, params (string, object?)[] parameters) =>
-        Sql.Query(c, t, $"SELECT {MethodColumns} FROM inspection_method WHERE {where} ORDER BY name", r =>
-        {
-            var additive = r.Text("sizing_kind") == "additive-normal";
-            var sizing = additive
-                ? new SizingError(SizingErrorKind.AdditiveNormal, r.Real("sizing_bias_mm"), r.Real("sizing_sd_mm"))
-                : new SizingError(SizingErrorKind.MultiplicativeLognormal, r.Real("sizing_ln_bias"), r.Real("sizing_ln_sd"));
-            var pod = new PodSpec(r.Text("pod_form"), r.NullableDouble("pod_mu_ln_mm"), r.NullableDouble("pod_sigma_ln"), r.NullableDouble("pod_lambda_mm"),
-                r.Real("pod_lower_limit_mm"), r.Real("pod_max"), r.Real("false_call_probability"));
-            return new StoredMethod(r.Long("method_id"), r.Text("name"), r.Text("description"), pod, sizing, r.Provenance(false));
-        }, parameters);
+    /// <summary>Methods selected by <paramref name="where"/>, each with its latest correction recorded on or before <paramref name="asOfText"/>.</summary>
+    private static List<StoredMethod> ReadMethods(SqliteConnection c, SqliteTransaction t, string asOfText, string where, params (string, object?)[] parameters) =>
+        Sql.Query(c, t, $"SELECT {MethodColumns} FROM inspection_method WHERE {where} ORDER BY name", MethodFromRow, parameters)
+            .Select(m => WithMethodCorrection(c, t, m, asOfText)).ToList();
+
+    // Reads the method columns shared by inspection_method and inspection_method_revision (name, id and provenance from the caller's columns).
+    private static StoredMethod MethodFromRow(SqliteDataReader r) => MethodParameters(r, r.Long("method_id"), r.Text("name"), r.Provenance(false));
+
+    private static StoredMethod MethodParameters(SqliteDataReader r, long id, string name, Provenance recorded)
+    {
+        var additive = r.Text("sizing_kind") == "additive-normal";
+        var sizing = additive
+            ? new SizingError(SizingErrorKind.AdditiveNormal, r.Real("sizing_bias_mm"), r.Real("sizing_sd_mm"))
+            : new SizingError(SizingErrorKind.MultiplicativeLognormal, r.Real("sizing_ln_bias"), r.Real("sizing_ln_sd"));
+        var pod = new PodSpec(r.Text("pod_form"), r.NullableDouble("pod_mu_ln_mm"), r.NullableDouble("pod_sigma_ln"), r.NullableDouble("pod_lambda_mm"),
+            r.Real("pod_lower_limit_mm"), r.Real("pod_max"), r.Real("false_call_probability"));
+        return new StoredMethod(id, name, r.Text("description"), pod, sizing, recorded);
+    }
 
     private static Component? ReadComponent(SqliteConnection c, SqliteTransaction t, long id, DateTimeOffset asOf)
     {

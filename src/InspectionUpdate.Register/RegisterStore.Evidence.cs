@@ -43,9 +43,9 @@ public sealed partial class RegisterStore
     {
         var component = ReadComponent(c, t, componentId, asOf)
             ?? throw new ArgumentException(FormattableString.Invariant($"No component with id {componentId} in the register as of {Sql.Utc(asOf)}."), nameof(componentId));
-        // Methods are immutable, so all are loaded: a finding recorded by a machine whose clock ran behind the one that
-        // recorded its method must still resolve.
-        var methods = ReadMethods(c, t, "1 = 1").ToDictionary(m => m.Name, m => m.ToInspectionMethod(), StringComparer.Ordinal);
+        // Every method is loaded (a finding recorded by a machine whose clock ran behind the one that recorded its method
+        // must still resolve), each with its corrections recorded by the as-known-on instant.
+        var methods = ReadMethods(c, t, Sql.Utc(asOf), "1 = 1").ToDictionary(m => m.Name, m => m.ToInspectionMethod(), StringComparer.Ordinal);
         var outcomes = new List<(InspectionOutcome Outcome, int Order)>();
         var findings = ReadRevisions(c, t, $"f.component_id = $component AND {LatestAsOf} AND fr.withdrawn = 0",
             ("$component", componentId), ("$asOf", Sql.Utc(asOf)));
@@ -70,7 +70,7 @@ public sealed partial class RegisterStore
         {
             var years = ServiceTime.YearsSince(component.InstallDate, r.RepairDate);
             // A finding on the repair date is taken to precede the repair (Order 1 before 2).
-            outcomes.Add((new Repair(years, r.Reference, PostRepairPrior.Parse(r.PostRepairPriorJson)), 2));
+            outcomes.Add((new Repair(years, r.Reference, PostRepairPrior.ParseStored(r.PostRepairPriorJson)), 2));
         }
 
         return outcomes.OrderBy(o => o.Outcome.TimeYears).ThenBy(o => o.Order).ThenBy(o => o.Outcome.Reference, StringComparer.Ordinal)
@@ -90,6 +90,8 @@ public sealed partial class RegisterStore
         ("inspection_method", $"SELECT {MethodColumns} FROM inspection_method WHERE recorded_utc <= $asOf ORDER BY method_id"),
         ("finding_revision", "SELECT fr.finding_revision_id, fr.finding_id, f.component_id, fr.revision, fr.supersedes_revision_id, fr.inspection_date, fr.kind, fr.method_id, fr.measured_size_mm, fr.remaining_wall_mm, fr.location, fr.note, fr.withdrawn, fr.recorded_utc, fr.recorded_by, fr.reason FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE fr.recorded_utc <= $asOf ORDER BY fr.finding_revision_id"),
         ("repair_revision", "SELECT rr.repair_revision_id, rr.repair_id, r.component_id, rr.revision, rr.supersedes_revision_id, rr.repair_date, rr.description, rr.post_repair_prior_json, rr.withdrawn, rr.recorded_utc, rr.recorded_by, rr.reason FROM repair_revision rr JOIN repair r ON r.repair_id = rr.repair_id WHERE rr.recorded_utc <= $asOf ORDER BY rr.repair_revision_id"),
+        ("site_revision", "SELECT site_revision_id, site_id, revision, name, recorded_utc, recorded_by, reason FROM site_revision WHERE recorded_utc <= $asOf ORDER BY site_revision_id"),
+        ("inspection_method_revision", $"SELECT method_revision_id, method_id, revision, {MethodParameterColumns}, recorded_utc, recorded_by, reason FROM inspection_method_revision WHERE recorded_utc <= $asOf ORDER BY method_revision_id"),
     ], ("$asOf", Sql.Utc(asOf))));
 
     /// <summary>
@@ -110,6 +112,7 @@ public sealed partial class RegisterStore
         ("finding_revision", "SELECT fr.finding_revision_id, fr.finding_id, fr.revision, fr.inspection_date, fr.kind, fr.method_id, fr.measured_size_mm, fr.remaining_wall_mm, fr.location, fr.note, fr.withdrawn, fr.recorded_utc FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE f.component_id = $id AND fr.recorded_utc <= $asOf ORDER BY fr.finding_revision_id"),
         ("repair_revision", "SELECT rr.repair_revision_id, rr.repair_id, rr.revision, rr.repair_date, rr.post_repair_prior_json, rr.withdrawn, rr.recorded_utc FROM repair_revision rr JOIN repair r ON r.repair_id = rr.repair_id WHERE r.component_id = $id AND rr.recorded_utc <= $asOf ORDER BY rr.repair_revision_id"),
         ("inspection_method", $"SELECT {MethodColumns} FROM inspection_method WHERE method_id IN (SELECT fr.method_id FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE f.component_id = $id AND fr.recorded_utc <= $asOf) ORDER BY method_id"),
+        ("inspection_method_revision", $"SELECT method_id, revision, {MethodParameterColumns} FROM inspection_method_revision WHERE recorded_utc <= $asOf AND method_id IN (SELECT fr.method_id FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE f.component_id = $id AND fr.recorded_utc <= $asOf) ORDER BY method_revision_id"),
     ], ("$id", componentId), ("$asOf", Sql.Utc(asOf))));
 
     private static string Hash(SqliteConnection c, SqliteTransaction t, string header, IReadOnlyList<(string Name, string Sql)> tables, params (string Name, object? Value)[] parameters)
@@ -198,6 +201,15 @@ public sealed partial class RegisterStore
                 $"SELECT p.{parent}, COUNT(x.revision), MIN(x.revision), MAX(x.revision) FROM {logical} p LEFT JOIN {table} x ON x.{parent} = p.{parent} " +
                 $"GROUP BY p.{parent} HAVING COUNT(x.revision) = 0 OR MIN(x.revision) <> 1 OR MAX(x.revision) <> COUNT(x.revision)",
                 r => FormattableString.Invariant($"{logical} {r.GetInt64(0)}: revisions in {table} are not 1..n ({r.GetInt64(1)} rows)")));
+        }
+
+        // Corrections of sites and methods: revisions 2..n+1 after the base row (revision 1).
+        foreach (var (table, parent) in new[] { ("site_revision", "site_id"), ("inspection_method_revision", "method_id") })
+        {
+            // Table and column names come from the constant list above, never from input.
+            invariants.AddRange(Sql.Query(c, t,
+                $"SELECT {parent}, COUNT(*), MIN(revision), MAX(revision) FROM {table} GROUP BY {parent} HAVING MIN(revision) <> 2 OR MAX(revision) <> COUNT(*) + 1",
+                r => FormattableString.Invariant($"{table} of {parent} {r.GetInt64(0)}: corrections are not revisions 2..n ({r.GetInt64(1)} rows)")));
         }
 
         // Current models (latest revision of each component) checked as an assessment would; marked ones first.

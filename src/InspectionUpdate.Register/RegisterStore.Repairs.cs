@@ -42,7 +42,7 @@ public sealed partial class RegisterStore
         return Write((c, t) =>
         {
             var latest = ReadRepairs(c, t, "rr.repair_id = $id ORDER BY rr.revision DESC LIMIT 1", ("$id", repairId)).SingleOrDefault();
-            var problems = ValidateRepair(c, t, corrected, actor, reason, out _);
+            var problems = ValidateRepair(c, t, corrected, actor, reason, out _, latest?.PostRepairPriorJson);
             if (latest is null)
             {
                 problems.Add(new("repair_id", repairId.ToString(CultureInfo.InvariantCulture), "no repair with this id"));
@@ -94,7 +94,8 @@ public sealed partial class RegisterStore
     public IReadOnlyList<RepairRevision> RepairHistory(long repairId) =>
         Read((c, t) => ReadRepairs(c, t, "rr.repair_id = $id ORDER BY rr.revision", ("$id", repairId)));
 
-    private List<ValidationProblem> ValidateRepair(SqliteConnection c, SqliteTransaction t, NewRepair repair, string actor, string reason, out long componentId)
+    private List<ValidationProblem> ValidateRepair(SqliteConnection c, SqliteTransaction t, NewRepair repair, string actor, string reason, out long componentId,
+        string? storedPriorJson = null)
     {
         var problems = new List<ValidationProblem>();
         RequireText(problems, "recorded_by", actor);
@@ -120,7 +121,9 @@ public sealed partial class RegisterStore
             problems.Add(new("repair_date", Sql.Date(repair.RepairDate), "the repair date lies in the future"));
         }
 
-        PostRepairPrior.Parse(repair.PostRepairPriorJson, problems);
+        // A prior carried forward unchanged from the stored revision may still use the old key "distribution".
+        if (storedPriorJson is not null && repair.PostRepairPriorJson == storedPriorJson) PostRepairPrior.ParseCarriedForward(repair.PostRepairPriorJson, problems);
+        else PostRepairPrior.Parse(repair.PostRepairPriorJson, problems);
         return problems;
     }
 

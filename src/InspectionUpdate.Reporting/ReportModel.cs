@@ -8,7 +8,11 @@ namespace InspectionUpdate.Reporting;
 /// <param name="Source">The register file or the model file, as the user named it.</param>
 /// <param name="GeneratedAtUtc">When the report was written (UTC).</param>
 /// <param name="AssessedAsOf">The date the evidence was taken up to.</param>
-public sealed record ReportProvenance(string ToolVersion, string RegisterFingerprint, string Source, DateTimeOffset GeneratedAtUtc, DateOnly AssessedAsOf);
+public sealed record ReportProvenance(string ToolVersion, string RegisterFingerprint, string Source, DateTimeOffset GeneratedAtUtc, DateOnly AssessedAsOf)
+{
+    /// <summary>The date the register was read as recorded on (--known-on); null for model files.</summary>
+    public DateOnly? RegisterKnownOn { get; init; }
+}
 
 /// <summary>One uncertain or fixed input of a component model, as the report states it.</summary>
 /// <param name="Name">Input name with its unit in the name, e.g. "rate_mmPerYear".</param>

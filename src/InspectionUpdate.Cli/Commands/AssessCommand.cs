@@ -121,6 +121,7 @@ public sealed class PlanCommand(CliHost host) : CliCommand<PlanSettings>(host)
         else
         {
             Line($"{context.Id} — {context.Name}; target {target.Describe()}");
+            Line($"Evidence to {asOf:yyyy-MM-dd}" + (context.KnownOn is { } known ? $"; register as known on {known:yyyy-MM-dd}." : "."));
             Line(plan.Next.Message);
             Line(plan.RemainingLife.Message);
             if (plan.Schedule is { } s)

@@ -262,10 +262,11 @@ public sealed class FindingListCommand(CliHost host) : CliCommand<FindingListSet
         if (settings.Json) WriteJson(new FindingList(rows));
         else
         {
-            Table(["finding", "rev", "component", "date", "kind", "method", "size (mm)", "wall (mm)", "recorded by", "reason"], rows.Select(r => (IReadOnlyList<string>)
+            Table(["finding", "rev", "component", "date", "kind", "method", "size (mm)", "wall (mm)", "location", "note", "recorded by", "reason"], rows.Select(r => (IReadOnlyList<string>)
             [
                 r.FindingId.ToString(CultureInfo.InvariantCulture), r.Revision.ToString(CultureInfo.InvariantCulture) + (r.Withdrawn ? " withdrawn" : string.Empty), r.Component,
-                r.InspectionDate.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture), r.Kind, r.Method ?? "-", N(r.MeasuredSizeMm), N(r.RemainingWallMm), r.RecordedBy, r.Reason,
+                r.InspectionDate.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture), r.Kind, r.Method ?? "-", N(r.MeasuredSizeMm), N(r.RemainingWallMm),
+                Text(r.Location), Text(r.Note), r.RecordedBy, r.Reason,
             ]));
         }
 
@@ -273,6 +274,8 @@ public sealed class FindingListCommand(CliHost host) : CliCommand<FindingListSet
     }
 
     private static string N(double? v) => v is { } x ? x.ToString("0.###", CultureInfo.InvariantCulture) : "-";
+
+    private static string Text(string text) => string.IsNullOrWhiteSpace(text) ? "-" : text;
 }
 
 /// <summary>--json of <c>finding list</c>.</summary>

@@ -21,7 +21,7 @@ public sealed class MethodAddSettings : RegisterSettings
 
     /// <summary>Method file.</summary>
     [CommandOption("--file <FILE>")]
-    [Description("Method file (JSON: PoD curve and sizing error, see docs/formats.md).")]
+    [Description("Method file (JSON: PoD curve and sizing error, see docs/formats.md, \"Method file\").")]
     public string? File { get; init; }
 
     /// <summary>Who records it.</summary>
@@ -45,10 +45,53 @@ public sealed class MethodAddCommand(CliHost host) : CliCommand<MethodAddSetting
     }
 }
 
-/// <summary>A method in --json output.</summary>
+/// <summary>Settings of <c>method correct</c>.</summary>
+public sealed class MethodCorrectSettings : ChangeSettings
+{
+    /// <summary>Method name.</summary>
+    [CommandArgument(0, "<ID>")]
+    [Description("Name of the method to correct (the name is the method's identity: findings name it).")]
+    public string Id { get; init; } = string.Empty;
+
+    /// <summary>Method file.</summary>
+    [CommandOption("--file <FILE>")]
+    [Description("The whole corrected method (JSON: PoD curve and sizing error, see docs/formats.md, \"Method file\"; required).")]
+    public string? File { get; init; }
+}
+
+/// <summary>Corrects a method's PoD curve, sizing error or description: a new revision with who, when and why.</summary>
+public sealed class MethodCorrectCommand(CliHost host) : CliCommand<MethodCorrectSettings>(host)
+{
+    /// <inheritdoc />
+    protected override int Run(MethodCorrectSettings settings, CancellationToken cancellation)
+    {
+        var reason = RegisterAccess.Text("--reason", settings.Reason);
+        var method = MethodFile.Read(Host.Resolve(RegisterAccess.Text("--file", settings.File)), settings.Id);
+        using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host));
+        var stored = RegisterAccess.Require(store.CorrectMethod(method, RegisterAccess.Actor(settings.By), reason), "method correct");
+        if (settings.Json) WriteJson(MethodRow.From(store.MethodHistory(stored.Name)[^1]));
+        else Line($"Corrected method {stored.Name} (revision {stored.Revision.ToString(CultureInfo.InvariantCulture)}): {MethodRow.From(stored).PodText}. "
+            + "Findings with this method are read with these parameters from now on; earlier results are reproduced with --known-on.");
+        return ExitCodes.Ok;
+    }
+}
+
+/// <summary>A method in --json output (<c>revision</c> 1 as first recorded; <c>reason</c> empty except on corrections).</summary>
 public sealed record MethodRow(long Id, string Name, string Description, string PodForm, double? PodMuLnMm, double? PodSigmaLn, double? PodLambdaMm,
     double PodLowerLimitMm, double PodMax, double FalseCallProbability, double? A90Mm, string SizingKind, double SizingBias, double SizingSd)
 {
+    /// <summary>Revision of the parameters (1: as first recorded).</summary>
+    public int Revision { get; init; } = 1;
+
+    /// <summary>When this revision was recorded.</summary>
+    public DateTimeOffset RecordedUtc { get; init; }
+
+    /// <summary>Who recorded it.</summary>
+    public string RecordedBy { get; init; } = string.Empty;
+
+    /// <summary>Why the revision was recorded (corrections only).</summary>
+    public string Reason { get; init; } = string.Empty;
+
     /// <summary>The PoD curve in words.</summary>
     public string PodText => PodForm + (A90Mm is { } a ? $", a90 = {a.ToString("0.###", CultureInfo.InvariantCulture)} mm" : string.Empty);
 
@@ -66,7 +109,13 @@ public sealed record MethodRow(long Id, string Name, string Description, string 
 
         return new(m.Id, m.Name, m.Description, m.Pod.Form, m.Pod.MuLnMm, m.Pod.SigmaLn, m.Pod.LambdaMm, m.Pod.LowerLimitMm, m.Pod.MaxPod, m.Pod.FalseCallProbability,
             a90 is { } v && double.IsFinite(v) ? v : null,
-            m.Sizing.Kind == SizingErrorKind.AdditiveNormal ? "additive-normal" : "multiplicative-lognormal", m.Sizing.Bias, m.Sizing.StandardDeviation);
+            m.Sizing.Kind == SizingErrorKind.AdditiveNormal ? "additive-normal" : "multiplicative-lognormal", m.Sizing.Bias, m.Sizing.StandardDeviation)
+        {
+            Revision = m.Revision,
+            RecordedUtc = m.Recorded.RecordedUtc,
+            RecordedBy = m.Recorded.RecordedBy,
+            Reason = m.Recorded.Reason,
+        };
     }
 }
 
@@ -237,6 +286,10 @@ public sealed record MethodFitted(string Name, long? Id, string Kind, int Trials
 /// <summary>Settings of <c>method list</c>.</summary>
 public sealed class MethodListSettings : RegisterSettings
 {
+    /// <summary>Show every revision.</summary>
+    [CommandOption("--all-revisions")]
+    [Description("Also show each method's earlier parameters (every correction with who, when and why).")]
+    public bool AllRevisions { get; init; }
 }
 
 /// <summary>Lists methods.</summary>
@@ -246,12 +299,14 @@ public sealed class MethodListCommand(CliHost host) : CliCommand<MethodListSetti
     protected override int Run(MethodListSettings settings, CancellationToken cancellation)
     {
         using var store = RegisterAccess.Open(Host, settings.RegisterPath(Host), RegisterOpenMode.OpenExistingToRead);
-        var rows = store.Methods().Select(MethodRow.From).ToArray();
+        var methods = store.Methods();
+        var rows = (settings.AllRevisions ? methods.SelectMany(m => store.MethodHistory(m.Name)) : methods).Select(MethodRow.From).ToArray();
         if (settings.Json) WriteJson(new MethodList(rows));
         else
         {
-            Table(["method", "PoD", "sizing error", "description"], rows.Select(r => (IReadOnlyList<string>)
-                [r.Name, r.PodText, $"{r.SizingKind}, bias {r.SizingBias.ToString(CultureInfo.InvariantCulture)}, sd {r.SizingSd.ToString(CultureInfo.InvariantCulture)}", r.Description]));
+            Table(["method", "rev", "PoD", "sizing error", "description", "reason"], rows.Select(r => (IReadOnlyList<string>)
+                [r.Name, r.Revision.ToString(CultureInfo.InvariantCulture), r.PodText, $"{r.SizingKind}, bias {r.SizingBias.ToString(CultureInfo.InvariantCulture)}, sd {r.SizingSd.ToString(CultureInfo.InvariantCulture)}",
+                 r.Description, r.Reason.Length == 0 ? "-" : r.Reason]));
         }
 
         return ExitCodes.Ok;

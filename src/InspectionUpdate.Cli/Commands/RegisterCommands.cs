@@ -181,7 +181,7 @@ public sealed class RegisterAssessCommand(CliHost host) : CliCommand<RegisterAss
             [[
                 I(doc.Components), I(doc.Assessed), I(doc.NotConverged), I(doc.Reused), I(doc.Failed), I(doc.NotInService), I(doc.OtherShards),
                 doc.ElapsedSeconds.ToString("0.0", CultureInfo.InvariantCulture),
-            ]], $"Evidence as known on {asOf:yyyy-MM-dd}; {doc.OptionsKey}");
+            ]], $"Evidence up to {asOf:yyyy-MM-dd}, register as recorded on that date; {doc.OptionsKey}");
             if (doc.Failures.Count > 0) Table(["component", "reason"], doc.Failures.Select(f => (IReadOnlyList<string>)[f.ComponentId, f.Reason]), "Not assessed");
             Line(resultsPath is null ? $"Results stored in {store.Path}." : $"Results written to {resultsPath}; fold them in with: register merge {resultsPath} -r {store.Path}");
             Caution();

@@ -87,7 +87,7 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         var fingerprint = snapshot.Fingerprint;
         var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(snapshot, c))).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
-        var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, []);
+        var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, [], registerDate);
         var rows = runs.Select(r => Row(r, folder)).ToArray();
         var code = runs.Any(r => r.Error is not null) ? ExitCodes.BadInput : runs.All(r => r.AllConverged) ? ExitCodes.Ok : ExitCodes.NotConverged;
         return (new ReportDocument(folder, index, fingerprint, options.AsOf, options.Target.AnnualPf, rows, Reporting.Cautions.Line) { KnownOn = registerDate }, code);

@@ -5,6 +5,7 @@ using InspectionUpdate.Cli.Verification;
 using InspectionUpdate.Probability;
 using InspectionUpdate.Reliability;
 using InspectionUpdate.Reliability.Verification;
+using InspectionUpdate.Updating.Verification;
 using Spectre.Console;
 using Spectre.Console.Cli;
 
@@ -97,6 +98,7 @@ public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(hos
             }
 
             list.AddRange(UpdatingVerificationCases.Run());
+            list.AddRange(TimeVariantVerificationCases.Run());
             progress(1.0);
             return list;
         });
@@ -105,7 +107,7 @@ public sealed class VerifyCommand(CliHost host) : CliCommand<VerifySettings>(hos
         var problems = BenchmarkTable.Problems(set);
         var benchmarkRows = problems.Count == 0 ? []
             : ProgressRunner.Run(Host, settings.Json, "Running benchmark problems", progress =>
-                BenchmarkRunner.Run(problems, BenchmarkOptions.Default, null, progress, cancellation));
+                BenchmarkRunner.Run(problems, BenchmarkOptions.Default, [.. BenchmarkRunner.DefaultRoutes, new SampleSetBenchmarkRoute()], progress, cancellation));
         var summaries = BenchmarkRunner.Summarize(benchmarkRows);
         var wrong = benchmarkRows.Count(r => r.Outcome == BenchmarkOutcome.WrongAndConverged);
 

@@ -19,10 +19,11 @@ internal static class Migrations
     [
         "site", "component", "component_model_revision", "inspection_method", "finding", "finding_revision",
         "repair", "repair_revision", "audit_log", "import_batch", "model_check", "component_status",
+        "site_revision", "inspection_method_revision",
     ];
 
     /// <summary>Tables added after version 1 (their append-only triggers come with their own migration).</summary>
-    private static readonly string[] LaterTables = ["import_batch", "model_check", "component_status"];
+    private static readonly string[] LaterTables = ["import_batch", "model_check", "component_status", "site_revision", "inspection_method_revision"];
 
     /// <summary>
     /// The migration that adds <c>model_check</c>; after its SQL, every stored model revision is checked in C# in the
@@ -30,8 +31,21 @@ internal static class Migrations
     /// </summary>
     private static readonly string ModelCheckScript = ModelChecks();
 
+    /// <summary>The migration that adds site and method corrections, found by reference (see <see cref="CorrectionsVersion"/>).</summary>
+    private static readonly string CorrectionsScript = SiteAndMethodCorrections();
+
+    /// <summary>
+    /// The schema version from which a file holds site and method corrections; a store opened at an earlier version
+    /// (tests of migrations) reads sites and methods as first recorded.
+    /// </summary>
+    public static int CorrectionsVersion => Scripts.ToList().FindIndex(x => ReferenceEquals(x, CorrectionsScript)) + 1;
+
     /// <summary>Migration scripts; index i takes the schema from version i to i + 1.</summary>
-    public static IReadOnlyList<string> Scripts { get; } = [Version1(), Version2(), StoredResults(), ModelCheckScript];
+    /// <remarks>
+    /// <see cref="SiteAndMethodCorrections"/> is meant to be migration 6 once the migration planned as 5 on another
+    /// branch lands before it: it is self-contained, so it keeps its meaning when it moves one place down the list.
+    /// </remarks>
+    public static IReadOnlyList<string> Scripts { get; } = [Version1(), Version2(), StoredResults(), ModelCheckScript, CorrectionsScript];
 
     /// <summary>The schema version this code writes and reads.</summary>
     public static int Current => Scripts.Count;
@@ -287,6 +301,78 @@ internal static class Migrations
 
         {Audit("component_status", "component", "component_id", "CASE WHEN NEW.status = 'retired' THEN 'withdraw' ELSE 'revise' END", "json_object('status', NEW.status, 'reason', NEW.reason)")}
         {AppendOnly("component_status")}
+        """;
+
+    // Site and method corrections: revision 1 is the row in site / inspection_method (never changed); each correction
+    // is a row here with revision 2, 3, ... superseding the previous one, with who, when and why. Reads as known on a
+    // date take the latest revision recorded by then. A site's code and a method's name are their identity and are
+    // never corrected (findings name the method); a site's name, a method's description, PoD and sizing error are.
+    private static string SiteAndMethodCorrections() =>
+        $"""
+        CREATE TABLE site_revision (
+          site_revision_id INTEGER PRIMARY KEY,
+          site_id INTEGER NOT NULL REFERENCES site (site_id),
+          revision INTEGER NOT NULL CHECK (revision >= 2),
+          supersedes_revision_id INTEGER REFERENCES site_revision (site_revision_id),
+          name TEXT NOT NULL {F(NonBlank, "name")},
+        {Recorded(true)},
+          UNIQUE (site_id, revision),
+          CHECK ((revision = 2) = (supersedes_revision_id IS NULL))
+        ) STRICT;
+
+        CREATE TABLE inspection_method_revision (
+          method_revision_id INTEGER PRIMARY KEY,
+          method_id INTEGER NOT NULL REFERENCES inspection_method (method_id),
+          revision INTEGER NOT NULL CHECK (revision >= 2),
+          supersedes_revision_id INTEGER REFERENCES inspection_method_revision (method_revision_id),
+          description TEXT NOT NULL DEFAULT '',
+          pod_form TEXT NOT NULL CHECK (pod_form IN ('log-logistic', 'cumulative-lognormal', 'exponential')),
+          pod_mu_ln_mm REAL,
+          pod_sigma_ln REAL CHECK (pod_sigma_ln IS NULL OR pod_sigma_ln > 0),
+          pod_lambda_mm REAL CHECK (pod_lambda_mm IS NULL OR pod_lambda_mm > 0),
+          pod_lower_limit_mm REAL NOT NULL DEFAULT 0 CHECK (pod_lower_limit_mm >= 0),
+          pod_max REAL NOT NULL DEFAULT 1 CHECK (pod_max > 0 AND pod_max <= 1),
+          false_call_probability REAL NOT NULL DEFAULT 0 CHECK (false_call_probability >= 0 AND false_call_probability < 1),
+          sizing_kind TEXT NOT NULL CHECK (sizing_kind IN ('additive-normal', 'multiplicative-lognormal')),
+          sizing_bias_mm REAL,
+          sizing_sd_mm REAL CHECK (sizing_sd_mm IS NULL OR sizing_sd_mm > 0),
+          sizing_ln_bias REAL,
+          sizing_ln_sd REAL CHECK (sizing_ln_sd IS NULL OR sizing_ln_sd > 0),
+        {Recorded(true)},
+          UNIQUE (method_id, revision),
+          CHECK ((revision = 2) = (supersedes_revision_id IS NULL)),
+          CHECK ((pod_form = 'exponential' AND pod_lambda_mm IS NOT NULL AND pod_mu_ln_mm IS NULL AND pod_sigma_ln IS NULL)
+              OR (pod_form <> 'exponential' AND pod_lambda_mm IS NULL AND pod_mu_ln_mm IS NOT NULL AND pod_sigma_ln IS NOT NULL)),
+          CHECK ((sizing_kind = 'additive-normal' AND sizing_bias_mm IS NOT NULL AND sizing_sd_mm IS NOT NULL
+                  AND sizing_ln_bias IS NULL AND sizing_ln_sd IS NULL)
+              OR (sizing_kind = 'multiplicative-lognormal' AND sizing_ln_bias IS NOT NULL AND sizing_ln_sd IS NOT NULL
+                  AND sizing_bias_mm IS NULL AND sizing_sd_mm IS NULL))
+        ) STRICT;
+
+        CREATE INDEX site_revision_by_site ON site_revision (site_id, revision);
+        CREATE INDEX method_revision_by_method ON inspection_method_revision (method_id, revision);
+
+        {CorrectionChain("site_revision", "site", "site_id", "site_revision_id")}
+        {CorrectionChain("inspection_method_revision", "inspection_method", "method_id", "method_revision_id")}
+
+        {Audit("site_revision", "site", "site_id", "'revise'", "json_object('revision', NEW.revision, 'name', NEW.name, 'reason', NEW.reason)")}
+        {Audit("inspection_method_revision", "inspection-method", "method_id", "'revise'", "json_object('revision', NEW.revision, 'reason', NEW.reason)")}
+
+        {AppendOnly("site_revision")}
+        {AppendOnly("inspection_method_revision")}
+        """;
+
+    // Corrections of a base row (revision 1) kept in a table of their own: revision 2 supersedes the base row (no
+    // supersedes id), each later one the previous correction; none is recorded before what it supersedes.
+    private static string CorrectionChain(string table, string baseTable, string parent, string idColumn) =>
+        $"""
+        CREATE TRIGGER {table}_chain BEFORE INSERT ON {table}
+        WHEN (NEW.revision = 2 AND (EXISTS (SELECT 1 FROM {table} WHERE {parent} = NEW.{parent})
+                                   OR NEW.recorded_utc < (SELECT recorded_utc FROM {baseTable} WHERE {parent} = NEW.{parent})))
+          OR (NEW.revision > 2 AND (
+               NEW.supersedes_revision_id IS NOT (SELECT {idColumn} FROM {table} WHERE {parent} = NEW.{parent} AND revision = NEW.revision - 1)
+            OR NEW.recorded_utc < (SELECT recorded_utc FROM {table} WHERE {parent} = NEW.{parent} AND revision = NEW.revision - 1)))
+        BEGIN SELECT RAISE(ABORT, '{table}: a correction must supersede the latest revision of the same record and be recorded no earlier'); END;
         """;
 
     /// <summary>Checks every model revision that has no check row yet (within the migration's transaction).</summary>

@@ -34,7 +34,7 @@ public static partial class HtmlReportWriter
         h.Append("<header><div class=\"kicker\">Component integrity report</div><h1>")
             .Append(E(data.ComponentId)).Append(" · ").Append(E(data.ComponentName)).Append("</h1><div class=\"sub\">")
             .Append(E(data.Site)).Append(" · ").Append(E(data.Model)).Append(" · evidence to ")
-            .Append(Date(data.Provenance.AssessedAsOf)).Append("</div></header>\n");
+            .Append(Date(data.Provenance.AssessedAsOf)).Append(KnownOnText(data.Provenance)).Append("</div></header>\n");
         CautionBanner(h);
 
         Section(h, "summary", "Summary");
@@ -170,7 +170,7 @@ public static partial class HtmlReportWriter
         Head(h, data.Title);
         h.Append("<header><div class=\"kicker\">Register integrity report</div><h1>").Append(E(data.Title))
             .Append("</h1><div class=\"sub\">").Append(data.Rows.Count.ToString(CultureInfo.InvariantCulture)).Append(" components · evidence to ")
-            .Append(Date(data.Provenance.AssessedAsOf)).Append("</div></header>\n");
+            .Append(Date(data.Provenance.AssessedAsOf)).Append(KnownOnText(data.Provenance)).Append("</div></header>\n");
         CautionBanner(h);
 
         Section(h, "summary", "Summary");
@@ -340,12 +340,16 @@ public static partial class HtmlReportWriter
         EndSection(h);
     }
 
+    private static string KnownOnText(ReportProvenance p) => p.RegisterKnownOn is { } known ? " · register as known on " + Date(known) : string.Empty;
+
     private static void Provenance(StringBuilder h, ReportProvenance p)
     {
         Section(h, "provenance", "Provenance");
         h.Append("<dl><dt>Tool</dt><dd>InspectionUpdate ").Append(E(p.ToolVersion)).Append("</dd><dt>Source</dt><dd>").Append(E(p.Source))
             .Append("</dd><dt>Fingerprint</dt><dd><code>").Append(E(p.RegisterFingerprint)).Append("</code></dd><dt>Evidence to</dt><dd>")
-            .Append(Date(p.AssessedAsOf)).Append("</dd><dt>Generated</dt><dd>")
+            .Append(Date(p.AssessedAsOf)).Append("</dd>")
+            .Append(p.RegisterKnownOn is { } known ? "<dt>Register as known on</dt><dd>" + Date(known) + "</dd>" : string.Empty)
+            .Append("<dt>Generated</dt><dd>")
             .Append(E(p.GeneratedAtUtc.UtcDateTime.ToString("yyyy-MM-dd'T'HH:mm:ss'Z'", CultureInfo.InvariantCulture))).Append("</dd></dl>\n")
             .Append("<p class=\"small\">The same tool version on a register with the same fingerprint reproduces these numbers.</p>\n");
         EndSection(h);

@@ -8,7 +8,7 @@ public sealed class EndToEndTests
 {
     private static readonly string SampleData = Path.Combine(AppContext.BaseDirectory, "sample-data");
 
-    private static CliRunner Prepared(out string register)
+    internal static CliRunner Prepared(out string register)
     {
         var cli = new CliRunner();
         register = cli.PathOf("t.register");
@@ -173,6 +173,7 @@ public sealed class EndToEndTests
         Assert.Contains("first-order updating", methods);
         Assert.Contains("importance-sampling updating", methods);
         Assert.Contains("planner (first order)", methods);
+        Assert.Contains("PHI2 (FORM at t and t ± h)", methods);
         Assert.Equal(0, doc.GetProperty("benchmarks").GetProperty("rows").GetArrayLength());
     }
 
@@ -192,7 +193,8 @@ public sealed class EndToEndTests
         Assert.Equal(6 * routes.Length, rows.Length);
         Assert.Contains("FORM (multi-start)", routes);
         Assert.Contains("subset simulation", routes);
-        Assert.Equal(7, routes.Length);
+        Assert.Contains("sample set (automatic route)", routes);
+        Assert.Equal(8, routes.Length);
 
         // RP107 is linear in standard normal space: FORM is exact (Φ(−5) = 2.8665e-7) and passes.
         var rp107 = rows.Single(r => r.GetProperty("problem").GetString() == "RP107" && r.GetProperty("route").GetString() == "FORM (multi-start)");

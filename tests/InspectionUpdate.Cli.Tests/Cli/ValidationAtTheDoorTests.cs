@@ -34,6 +34,8 @@ public sealed class ValidationAtTheDoorTests
         { "misspelt top-level field", Corrosion.Replace("\"serviceLife_years\"", "\"serviceLife_year\"", StringComparison.Ordinal), "serviceLife_year" },
         { "expression syntax error", Expression.Replace("\"0.8 * wallThickness_mm - k_mm * pow(max(0, t - initiationTime_years), n)\"", "\"0.8 * wallThickness_mm - k_mm * pow(max(0, t - initiationTime_years, n)\"", StringComparison.Ordinal), "limitState" },
         { "unknown variable", Expression.Replace("0.8 * wallThickness_mm", "0.8 * wallThick_mm", StringComparison.Ordinal), "wallThick_mm" },
+        // One spelling per concept: the other spelling of the family key is named with the expected key.
+        { "distribution for family", Corrosion.Replace("\"family\": \"Lognormal\", \"mean\": 8", "\"distribution\": \"Lognormal\", \"mean\": 8", StringComparison.Ordinal), "the key is \"family\"" },
     };
 
     [Theory]

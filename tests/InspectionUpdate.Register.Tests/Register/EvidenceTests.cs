@@ -20,7 +20,7 @@ public class EvidenceTests
         s.AddFinding(new(TestRegister.Component, new DateOnly(2020, 6, 1), FindingKind.WallThickness, TestRegister.Ut, RemainingWallMm: 10.2), "A", "IR-4").Require();
         s.AddFinding(new(TestRegister.Component, new DateOnly(2022, 6, 1), FindingKind.InService, null), "A", "walk-down").Require();
         s.AddRepair(new(TestRegister.Component, new DateOnly(2023, 6, 1), "weld overlay",
-            """{"inputs":{"d0_mm":{"distribution":"lognormal","mean":0.2,"sd":0.1}}}"""), "B", "WO-77").Require();
+            """{"inputs":{"d0_mm":{"family":"lognormal","mean":0.2,"sd":0.1}}}"""), "B", "WO-77").Require();
 
         var evidence = s.EvidenceFor(r.ComponentId, r.Clock.UtcNow);
 

@@ -86,7 +86,7 @@ public class MigrationTests
         var path = TestRegister.TempPath();
         try
         {
-            Assert.Equal(4, RegisterStore.CurrentSchemaVersion);
+            Assert.True(RegisterStore.CurrentSchemaVersion >= 4);
             using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: 3))
             {
             }
@@ -108,8 +108,33 @@ public class MigrationTests
             {
             }
 
-            Assert.Equal(4L, Pragma(path, "user_version"));
+            Assert.Equal((long)RegisterStore.CurrentSchemaVersion, Pragma(path, "user_version"));
             Assert.Equal(["component_result", "component_status", "model_check"], Tables());
+        }
+        finally
+        {
+            TestRegister.Delete(path);
+        }
+    }
+
+    [Fact]
+    [Reference("Design rule: a migration keeps existing rows; the site and method corrections migration adds their revision tables")]
+    public void The_corrections_migration_keeps_sites_and_methods_and_adds_their_revision_tables()
+    {
+        var path = TestRegister.TempPath();
+        try
+        {
+            using (var v4 = RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: 4))
+            {
+                TestRegister.Seed(v4);
+            }
+
+            using var current = RegisterStore.Open(path, RegisterOpenMode.OpenExisting);
+            Assert.Equal(RegisterStore.CurrentSchemaVersion, (int)(long)Pragma(path, "user_version")!);
+            Assert.Equal(("North tank farm (invented)", 1), (Assert.Single(current.Sites()).Name, current.Sites()[0].Revision));
+            Assert.Equal(0.5, current.FindMethod(TestRegister.Ut)!.Sizing.StandardDeviation);
+            current.CorrectSite("NORTH", "North tank farm and jetty (invented)", "B", "asset list").Require();
+            Assert.True(current.Check().IsHealthy, string.Join("; ", current.Check().InvariantViolations));
         }
         finally
         {

@@ -94,8 +94,8 @@ public class ValidationTests
         Assert.Equal(["name", "pod_sigma_ln", "sizing_sd_mm"], method.Problems.Select(p => p.Field).Order(StringComparer.Ordinal));
 
         var repair = r.Store.AddRepair(new NewRepair(TestRegister.Component, new DateOnly(2021, 1, 1), "sleeve",
-            """{"inputs":{"d0_mm":{"distribution":"normal","mean":0,"sd":-1},"rate":{"distribution":"frechet","mean":1}}}"""), "A", "wo 9");
-        Assert.Equal(["post_repair_prior_json.inputs.d0_mm.standardDeviation", "post_repair_prior_json.inputs.rate.distribution"], repair.Problems.Select(p => p.Field).Order(StringComparer.Ordinal));
+            """{"inputs":{"d0_mm":{"family":"normal","mean":0,"sd":-1},"rate":{"family":"frechet","mean":1}}}"""), "A", "wo 9");
+        Assert.Equal(["post_repair_prior_json.inputs.d0_mm.standardDeviation", "post_repair_prior_json.inputs.rate.family"], repair.Problems.Select(p => p.Field).Order(StringComparer.Ordinal));
         Assert.Equal(0, r.Count("repair"));
         Assert.Equal(2, r.Count("inspection_method"));
         Assert.Equal(2, r.Count("component"));

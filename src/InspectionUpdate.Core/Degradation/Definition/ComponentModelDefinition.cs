@@ -560,6 +560,13 @@ public sealed class ComponentModelDefinition
                 return null;
             }
 
+            if (e.TryGetProperty("distribution", out var misspelt) && !e.TryGetProperty("family", out _))
+            {
+                // One spelling across our files (model files and post-repair priors): name the expected key.
+                Add($"{path}.distribution", misspelt, "the key is \"family\", not \"distribution\": write {\"family\": ..., parameters}");
+                return null;
+            }
+
             var family = String(e, "family", path, true);
             var parameters = new Dictionary<string, double>(StringComparer.Ordinal);
             foreach (var p in e.EnumerateObject())
