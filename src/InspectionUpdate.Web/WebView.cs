@@ -2,6 +2,7 @@ using System.Globalization;
 using InspectionUpdate.Application;
 using InspectionUpdate.Register;
 using Microsoft.AspNetCore.Antiforgery;
+using Microsoft.AspNetCore.DataProtection;
 using Microsoft.AspNetCore.Http.Features;
 
 namespace InspectionUpdate.Web;
@@ -40,6 +41,8 @@ public static class WebView
         services.AddSingleton<IRecorderIdentity, OperatingSystemUser>();
         services.AddSingleton<BackgroundRuns>();
         services.AddHostedService(sp => sp.GetRequiredService<BackgroundRuns>());
+        // Keys of the anti-forgery tokens live in memory only: nothing is written to disk, and a restart asks for a reload.
+        services.AddDataProtection().UseEphemeralDataProtectionProvider();
         services.AddAntiforgery(o =>
         {
             o.Cookie.Name = "iu-antiforgery";
@@ -61,7 +64,6 @@ public static class WebView
             h.XContentTypeOptions = "nosniff";
             h.XFrameOptions = "DENY";
             h["Referrer-Policy"] = "no-referrer";
-            h.CacheControl = "no-store";
             try
             {
                 await next(context);

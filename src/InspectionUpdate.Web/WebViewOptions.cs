@@ -26,8 +26,8 @@ public sealed record WebViewOptions(string RegisterPath)
     /// <summary>Horizon in years since entry into service; null: the model's service life, else 40.</summary>
     public double? HorizonYears { get; init; }
 
-    /// <summary>Compute each component's life-cycle schedule with its latest method (component pages only).</summary>
-    public bool Schedule { get; init; } = true;
+    /// <summary>Also compute each component's life-cycle schedule with its latest method (component pages only; slower).</summary>
+    public bool Schedule { get; init; }
 
     /// <summary>Components computed at once by a whole-register run; null: one per processor.</summary>
     public int? Parallelism { get; init; }
