@@ -53,6 +53,13 @@ public static class ComponentPage
         b.Append("<div class=\"box change\" id=\"change\"><strong>").Append(E(change.What)).Append("</strong> <span class=\"muted\">(")
             .Append(E(change.AtUtc.UtcDateTime.ToString("yyyy-MM-dd HH:mm", System.Globalization.CultureInfo.InvariantCulture))).Append(" UTC)</span>");
         var after = view.Current is { } cur && cur.Result.Key != change.Before?.Key ? ResultSummary.Of(cur.Result) : null;
+        if (after is null && view.Current is not null)
+        {
+            b.Append("<p>The numbers are unchanged: the view reads the register as recorded at the end of its evidence date ")
+                .Append(E(D(view.Current.Result.Request.AsOf))).Append(", and this change was recorded later. Serve without --as-of to see it counted.</p></div>");
+            return;
+        }
+
         if (after is null)
         {
             b.Append("<p>The numbers after the change are being computed.</p></div>");

@@ -65,6 +65,12 @@ public static class Html
         b.Append("<p class=\"context\">Register <code>").Append(E(Path.GetFileName(holder.Options.RegisterPath))).Append("</code> · evidence as of ")
             .Append(E(D(run.AsOf))).Append(" · target annual Pf ").Append(E(P(run.Target.AnnualPf))).Append(" · route ").Append(E(RouteName(holder.Options.Route))).Append("</p></header>");
         b.Append("<p class=\"caution\" role=\"note\">").Append(E(Cautions.Line)).Append("</p>");
+        if (run.AsOf < DateOnly.FromDateTime(holder.Clock.GetUtcNow().UtcDateTime))
+        {
+            b.Append("<p class=\"caution\" role=\"note\">This view reads the register as recorded at the end of ").Append(E(D(run.AsOf)))
+                .Append(" (as <code>register assess --as-of</code> does): findings written now are kept, and count in views as of today or later.</p>");
+        }
+
         b.Append("<main>").Append(body).Append("</main>");
         b.Append("<footer><p>").Append(E(Cautions.Line)).Append("</p><p>Every number on these pages is computed by the same engine and register as the command line; ")
             .Append("the route, convergence and coefficient of variation are shown beside each. The demo data are invented.</p></footer></body></html>");
