@@ -43,6 +43,15 @@ public static class FindingEntries
     /// <summary>The register's finding kinds as stored text, in a sensible order for a form.</summary>
     public static IReadOnlyList<string> Kinds { get; } = Enum.GetValues<FindingKind>().Select(RegisterStore.KindText).ToArray();
 
+    /// <summary>The columns of the register's CSV import of findings, in order.</summary>
+    public static IReadOnlyList<string> CsvColumns => RegisterStore.FindingCsvColumns;
+
+    /// <summary>A kind's stored text in words (the text itself when it is not a kind).</summary>
+    public static string Words(string kindText) => RegisterStore.TryParseKind(kindText, out var kind) ? FindingWords.Of(kind) : kindText;
+
+    /// <summary>The stored text of a kind.</summary>
+    public static string Text(FindingKind kind) => RegisterStore.KindText(kind);
+
     /// <summary>Logs a new finding, recorded by <paramref name="actor"/>.</summary>
     public static FindingWrite Log(RegisterStore store, FindingInput input, string actor)
     {

@@ -128,7 +128,8 @@ public sealed class BackgroundRuns(RegisterHolder register, ResultCache cache, I
             try
             {
                 // The engine is synchronous and CPU-bound: run it off the request threads.
-                await Task.Run(() => job.Work(job, stoppingToken), stoppingToken);
+                // On shutdown the view stops waiting at once; an engine run still going ends with the process.
+                await Task.Run(() => job.Work(job, stoppingToken), stoppingToken).WaitAsync(stoppingToken);
                 job.Report(1);
                 job.State = JobState.Done;
             }
@@ -143,8 +144,10 @@ public sealed class BackgroundRuns(RegisterHolder register, ResultCache cache, I
                 job.Error = e.FullText;
                 job.State = JobState.Failed;
             }
-            catch (Exception e) when (e is ArgumentException or InvalidOperationException or ArithmeticException or IOException)
+            catch (Exception e) when (e is not OperationCanceledException)
             {
+                // A bug in one run must not stop the view (a background service that throws stops the host): the run
+                // is marked failed with the message, and the page shows it.
                 log.LogError(e, "Run of {Subject} failed", job.Subject);
                 job.Error = e.Message;
                 job.State = JobState.Failed;

@@ -92,7 +92,7 @@ public static class FindingFormPage
                 var s = new StringBuilder($"<select name=\"kind\" id=\"f-kind\"{Invalid(problems, field)}>");
                 foreach (var k in FindingEntries.Kinds)
                 {
-                    var words = RegisterStore.TryParseKind(k, out var kind) ? FindingWords.Of(kind) : k;
+                    var words = FindingEntries.Words(k);
                     s.Append("<option value=\"").Append(E(k)).Append('"').Append(k == value ? " selected" : string.Empty).Append('>').Append(E(k + " – " + words)).Append("</option>");
                 }
 

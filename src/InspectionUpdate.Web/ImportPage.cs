@@ -1,4 +1,5 @@
 using System.Text;
+using InspectionUpdate.Application;
 using InspectionUpdate.Register;
 using static InspectionUpdate.Web.Html;
 
@@ -13,7 +14,7 @@ public static class ImportPage
         var b = new StringBuilder();
         b.Append("<h1>Import findings from a CSV file</h1>");
         b.Append("<p>The file is checked as a whole: every row is validated against the register, and either all rows are written as one batch or none is. ")
-            .Append("Columns: <code>").Append(E(string.Join(",", RegisterStore.FindingCsvColumns))).Append("</code> (UTF-8, header first; see docs/register.md).</p>");
+            .Append("Columns: <code>").Append(E(string.Join(",", FindingEntries.CsvColumns))).Append("</code> (UTF-8, header first; see docs/register.md).</p>");
         if (error is not null) b.Append("<div class=\"box error\" id=\"problems\" role=\"alert\"><strong>Nothing was written.</strong> ").Append(E(error)).Append("</div>");
         if (result is { Succeeded: true })
         {

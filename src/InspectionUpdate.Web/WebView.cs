@@ -107,7 +107,7 @@ public static class WebView
         app.MapGet("/components/{code}/findings/new", (HttpContext context, string code, RegisterHolder register) =>
         {
             var records = ComponentRecordsReader.Read(register.Store, code);
-            return HtmlResult(FindingFormPage.Log(context, records, new FindingInput(code, null, RegisterStore.KindText(FindingKind.NoIndication), null), []));
+            return HtmlResult(FindingFormPage.Log(context, records, new FindingInput(code, null, FindingEntries.Text(FindingKind.NoIndication), null), []));
         });
 
         app.MapPost("/components/{code}/findings", async (HttpContext context, string code, RegisterHolder register, ResultCache cache, IRecorderIdentity who) =>
