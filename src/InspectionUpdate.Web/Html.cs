@@ -73,7 +73,7 @@ public static class Html
 
         b.Append("<main>").Append(body).Append("</main>");
         b.Append("<footer><p>").Append(E(Cautions.Line)).Append("</p><p>Every number on these pages is computed by the same engine and register as the command line; ")
-            .Append("the route, convergence and coefficient of variation are shown beside each. The demo data are invented.</p></footer></body></html>");
+            .Append("the route, convergence and coefficient of variation are shown beside each. The demo scenario's data (sample-data) are invented.</p></footer></body></html>");
         return b.ToString();
     }
 

@@ -144,6 +144,13 @@ public sealed class BrowserFlowTests(ChromiumFixture chromium, ITestOutputHelper
 
         await page.GotoAsync(root + "/import");
         await Shot(page, shots, "08-import");
+
+        // The component's runs stored their results: the register page shows the latest due date without computing.
+        await page.GotoAsync(root + "/components/" + Code);
+        var dueNow = (await page.InnerTextAsync("#next-due")).Trim();
+        await page.GotoAsync(root + "/?sort=next_due");
+        await Shot(page, shots, "09-register-after");
+        Assert.Contains(dueNow, await page.InnerTextAsync($"tr[data-code='{Code}']"), StringComparison.Ordinal);
         Assert.Empty(external);
         await app.StopAsync();
     }
