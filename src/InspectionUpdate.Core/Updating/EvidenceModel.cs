@@ -52,7 +52,14 @@ public sealed class EvidenceModel
     /// marginals in two components, a shared input that a repair renews, or a post-repair input that the model does
     /// not renew. The message names the finding reference or the input.</exception>
     /// <exception cref="NotSupportedException">A model with an annual-maximum input (series system over years).</exception>
-    public static EvidenceModel Build(UpdatingCase updatingCase)
+    public static EvidenceModel Build(UpdatingCase updatingCase) => Build(updatingCase, annualMaximumAsInput: false);
+
+    /// <summary>
+    /// Builds the augmented model; with <paramref name="annualMaximumAsInput"/> an annual-maximum input is kept as one
+    /// ordinary input, for a caller that replaces it by yearly draws where g is evaluated (the sample-set route). The
+    /// findings' sizes must not depend on it; the in-service records' events then hold for the single value only.
+    /// </summary>
+    internal static EvidenceModel Build(UpdatingCase updatingCase, bool annualMaximumAsInput)
     {
         ArgumentNullException.ThrowIfNull(updatingCase);
         var single = updatingCase.Components.Count == 1;
@@ -66,7 +73,7 @@ public sealed class EvidenceModel
         foreach (var component in updatingCase.Components)
         {
             var model = component.Model;
-            if (model.AnnualMaximumInput is not null)
+            if (model.AnnualMaximumInput is not null && !annualMaximumAsInput)
             {
                 throw new NotSupportedException(
                     $"Model '{model.Name}' of component '{component.ComponentId}' has the annual-maximum input '{model.AnnualMaximumInput}'; updating supports time-invariant inputs only.");

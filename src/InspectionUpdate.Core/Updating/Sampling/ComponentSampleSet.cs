@@ -1,6 +1,7 @@
 using System.Globalization;
 using InspectionUpdate.Degradation;
 using InspectionUpdate.Probability;
+using InspectionUpdate.Probability.Numerics;
 using InspectionUpdate.Reliability;
 using InspectionUpdate.Updating.Simulation;
 
@@ -40,8 +41,15 @@ internal sealed class ComponentSampleSet
     private readonly List<double> _logW = [];
     private readonly List<double> _u = [];
     private readonly List<double> _logTarget = [];
-    private readonly List<(SamplingMixture Mixture, int Count)> _batches = [];
+    private readonly List<(double[] Weights, int Count)> _batches = [];
+    private readonly List<List<double>> _logPhi = [];
+    private readonly List<int> _failureCentres = [];
+    private int _posterior = -1;
     private readonly List<double>[] _times;
+    private readonly double[] _survivedLocal;
+    private readonly AnnualMaxima? _annual;
+    private readonly int[] _years;
+    private readonly List<double>[] _logSurvival;
     private readonly Random _rng;
     private SamplingMixture _mixture = null!;
     private int[][]? _order;
@@ -56,14 +64,33 @@ internal sealed class ComponentSampleSet
         _m = _t.PhysicalDimension;
         _component = model.ComponentModel(Id);
         _localDimension = _component.Inputs.Variables.Count;
-        _events = model.Events.ToArray();
+        _annual = AnnualMaxima.Of(model, _component, _t);
+        // With an annual maximum the in-service records enter as T_f > τ only (below): their events see one value of
+        // the load, not the yearly maxima.
+        _events = model.Events.Where(e => _annual is null || e.Outcome is not SurvivedInService).ToArray();
         var periods = model.RenewalPeriods(Id);
         _periodStart = new double[periods];
         _periodLength = new double[periods];
         for (var e = 0; e < periods; e++) _periodStart[e] = model.PeriodStartYears(Id, e);
         for (var e = 0; e < periods; e++) _periodLength[e] = (e + 1 < periods ? _periodStart[e + 1] : Math.Max(horizonYears, _periodStart[e] + 1)) - _periodStart[e];
         HorizonYears = _periodStart[^1] + _periodLength[^1];
+        // An in-service record says the component had not failed by then: within its renewal period, every sample
+        // failing earlier contradicts it, and Pf up to that time is exactly zero given the findings.
+        _survivedLocal = new double[periods];
+        foreach (var record in evidence.OfType<SurvivedInService>())
+        {
+            var e = model.PeriodAt(Id, record.TimeYears);
+            _survivedLocal[e] = Math.Max(_survivedLocal[e], record.TimeYears - _periodStart[e]);
+        }
+
         _times = Enumerable.Range(0, periods).Select(_ => new List<double>()).ToArray();
+        _logSurvival = Enumerable.Range(0, periods).Select(_ => new List<double>()).ToArray();
+        // Whole years of service ending in each period (yearly failure events of an annual-maximum load).
+        _years = new int[periods];
+        for (var e = 0; e < periods; e++)
+        {
+            _years[e] = Math.Max(0, (int)Math.Floor(_periodStart[e] + _periodLength[e] + 1e-9) - (int)Math.Floor(_periodStart[e] + 1e-9));
+        }
         _rng = new Random(options.Seed);
     }
 
@@ -94,13 +121,19 @@ internal sealed class ComponentSampleSet
     /// <summary>Length in years of renewal period e as sampled (to the next repair, or to the horizon).</summary>
     public double PeriodLength(int period) => _periodLength[period];
 
+    /// <summary>
+    /// Local time of renewal period e up to which the findings record the component in service (0 when none): Pf up to
+    /// it is exactly zero given the findings.
+    /// </summary>
+    public double SurvivedUntil(int period) => _survivedLocal[period];
+
     /// <summary>Start of renewal period e, years since entry into service.</summary>
     public double PeriodStart(int period) => _periodStart[period];
 
     /// <summary>Builds the set for one component's findings.</summary>
     public static ComponentSampleSet Build(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears)
     {
-        var evidenceModel = EvidenceModel.Build(UpdatingCase.Single(model, evidence));
+        var evidenceModel = EvidenceModel.Build(UpdatingCase.Single(model, evidence), annualMaximumAsInput: true);
         var set = new ComponentSampleSet(evidenceModel, evidence, options, horizonYears);
         set.Construct();
         return set;
@@ -123,7 +156,7 @@ internal sealed class ComponentSampleSet
         var extra = Extra(extended);
         if (extra is null) return null;
         if (extra.Count == 0) return Weighted;
-        var extendedModel = EvidenceModel.Build(UpdatingCase.Single(_component, extended));
+        var extendedModel = EvidenceModel.Build(UpdatingCase.Single(_component, extended), annualMaximumAsInput: true);
         if (extendedModel.InputModel.Variables.Count != _m) return null;
         var extraEvents = extendedModel.Events.Where(ev => extra.Contains(ev.Outcome)).ToArray();
         var n = _logW.Count;
@@ -212,12 +245,13 @@ internal sealed class ComponentSampleSet
         for (var i = 0; i < _d; i++)
             for (var j = 0; j <= i; j++) scaled[i, j] = Inflation * lower[i, j];
         var scaledLogDet = logDet + 2 * _d * Math.Log(Inflation);
-        _mixture = Mixture(mean, smooth, anchors.Select(a => a.Centre).ToList(), scaled, scaledLogDet);
+        Reset(scaled, scaledLogDet, smooth ? mean : null, anchors.Select(a => a.Centre).ToList());
 
         // One cross-entropy step on a pilot batch: each centre moves to the weighted mean of the pilot samples that
         // failed by its time (the mean of the optimal density for P(T_f ≤ τ | data)).
         var pilot = Math.Max(2000, _options.Samples / 2);
-        Draw(pilot);
+        Draw(pilot, BaseWeights());
+        Reweigh();
         var moved = new List<double[]>();
         var targets = anchors.Select(a => (a.Period, a.Local)).ToList();
         for (var e = 0; e < Periods; e++)
@@ -240,67 +274,149 @@ internal sealed class ComponentSampleSet
             }
         }
 
-        _x.Clear();
-        _logW.Clear();
-        _u.Clear();
-        _logTarget.Clear();
-        _batches.Clear();
-        _order = null;
-        foreach (var list in _times) list.Clear();
-        _mixture = Mixture(mean, smooth, Distinct(moved), scaled, scaledLogDet);
-
-        var n = _options.Samples;
-        Draw(n);
+        Reset(scaled, scaledLogDet, smooth ? mean : null, moved);
+        Draw(_options.Samples, BaseWeights());
+        Reweigh();
         Weighted = Weigh(_logW.ToArray());
         var refinements = 0;
-        while (_logW.Count < _options.MaxSamples && Unresolved() is { } missed)
+        while (_logW.Count < _options.MaxSamples && Unresolved(Weighted) is { } missed)
         {
-            // Refinement: a new centre at the weighted mean of the failures by the earliest unresolved time, and as
-            // many new samples again from the widened mixture. All samples are then weighed against the whole
-            // sampling density (the balance heuristic of multiple importance sampling, Veach & Guibas 1995), so
-            // earlier draws stay valid.
+            // Refinement: a batch aimed at the earliest unresolved time, drawn mostly from a centre at the weighted
+            // mean of the failures by that time (a new component, or the nearest existing one). All samples are then
+            // weighed against the sampling density of all batches together (the balance heuristic of multiple
+            // importance sampling, Veach & Guibas 1995), so earlier draws stay valid.
             var centre = FailedMean(missed.Period, missed.Local, out var effective);
             if (centre is null || effective < 3)
             {
                 // Too few failures by that time to aim at it: one cross-entropy rung instead, the mean of the earliest
                 // fifth (by weight) of the failures by the next covered time, a step towards the earlier, rarer failures.
-                centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(missed.Period, missed.Local), 0.2, out effective);
+                centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(Weighted, missed.Period, missed.Local), 0.2, out effective);
             }
 
-            if (centre is not null && effective >= 3 && _mixture.Centres.All(c => Distance(c, centre) > 0.25))
+            var count = Math.Min(Math.Max(_options.Samples / 2, _logW.Count / 2), _options.MaxSamples - _logW.Count);
+            if (centre is not null && effective >= 3)
             {
-                _mixture = Mixture(mean, smooth, [.. _mixture.Centres.Skip(smooth ? 1 : 0), centre], scaled, scaledLogDet);
-                refinements++;
+                var nearest = Nearest(centre);
+                var aim = nearest.Index;
+                if (nearest.Distance > 0.25)
+                {
+                    aim = AddFailureCentre(centre);
+                    refinements++;
+                }
+
+                Draw(count, AimedWeights(aim));
+            }
+            else
+            {
+                Draw(Math.Min(_logW.Count, _options.MaxSamples - _logW.Count), BaseWeights());
             }
 
-            Draw(Math.Min(_logW.Count, _options.MaxSamples - _logW.Count));
             Reweigh();
             Weighted = Weigh(_logW.ToArray());
         }
 
         Description = string.Create(CultureInfo.InvariantCulture,
-            $"one weighted sample set: {_logW.Count} samples, ESS {Weighted.EffectiveSampleSize:F0}; mixture of the prior, {(smooth ? "the Laplace posterior, " : "")}{_mixture.Centres.Count - (smooth ? 1 : 0)} failure centre(s) ({anchors.Count} design point(s), {movedCount} moved by a cross-entropy step, {refinements} added where the set was refined)")
+            $"one weighted sample set: {_logW.Count} samples in {_batches.Count} batch(es), ESS {Weighted.EffectiveSampleSize:F0}; mixture of the prior, {(smooth ? "the Laplace posterior, " : "")}{_failureCentres.Count} failure centre(s) ({anchors.Count} design point(s), {movedCount} moved by a cross-entropy step, {refinements} added where the set was refined)")
             + (laplaceNote is null ? "" : "; " + laplaceNote);
     }
 
-    private SamplingMixture Mixture(double[] mean, bool smooth, List<double[]> centres, double[,] scaled, double logDet)
+    /// <summary>Forgets every sample and component; starts again from the prior, the posterior (if any) and the given failure centres.</summary>
+    private void Reset(double[,] lower, double logDet, double[]? posteriorMean, List<double[]> failureCentres)
     {
-        var w0 = _options.DefensiveWeight;
-        var wPosterior = smooth ? (centres.Count == 0 ? 1 - w0 : 0.25) : 0;
-        var components = new List<(double[], double)>();
-        if (smooth) components.Add((mean, wPosterior));
-        var rest = 1 - w0 - wPosterior;
-        if (centres.Count == 0 && !smooth)
+        _x.Clear();
+        _logW.Clear();
+        _u.Clear();
+        _logTarget.Clear();
+        _batches.Clear();
+        _logPhi.Clear();
+        _failureCentres.Clear();
+        _order = null;
+        foreach (var list in _times) list.Clear();
+        foreach (var list in _logSurvival) list.Clear();
+        _mixture = new SamplingMixture(lower, logDet);
+        _logPhi.Add([]);
+        _posterior = posteriorMean is null ? -1 : AddComponent(posteriorMean);
+        foreach (var c in Distinct(failureCentres)) _failureCentres.Add(AddComponent(c));
+    }
+
+    /// <summary>Adds a failure centre; returns its component index.</summary>
+    private int AddFailureCentre(double[] centre)
+    {
+        var j = AddComponent(centre);
+        _failureCentres.Add(j);
+        return j;
+    }
+
+    /// <summary>Adds a component and its log density at every sample drawn so far; returns its index.</summary>
+    private int AddComponent(double[] centre)
+    {
+        // The yearly maxima are drawn from their own law, not from the mixture: its coordinate stays at the prior.
+        if (_annual is not null)
         {
-            // Nothing to centre on: the prior alone (the second weight only keeps the mixture well formed).
-            components.Add((mean, rest));
-        }
-        else
-        {
-            foreach (var c in centres) components.Add((c, rest / centres.Count));
+            centre = (double[])centre.Clone();
+            centre[_annual.StandardIndex] = 0;
         }
 
-        return new SamplingMixture(w0, components, scaled, logDet);
+        var j = _mixture.Add(centre);
+        var column = new List<double>(Math.Max(_logW.Count, 16));
+        var u = new double[_d];
+        for (var i = 0; i < _logW.Count; i++)
+        {
+            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
+            column.Add(_mixture.LogDensity(j, u));
+        }
+
+        _logPhi.Add(column);
+        return j;
+    }
+
+    /// <summary>The component nearest to a point (prior excluded) and its distance.</summary>
+    private (int Index, double Distance) Nearest(double[] point)
+    {
+        var best = (Index: -1, Distance: double.PositiveInfinity);
+        foreach (var j in _failureCentres)
+        {
+            var d = Distance(_mixture.Centre(j), point);
+            if (d < best.Distance) best = (j, d);
+        }
+
+        return best;
+    }
+
+    /// <summary>The set's standing weights: the defensive prior, the posterior, the failure centres sharing the rest.</summary>
+    private double[] BaseWeights()
+    {
+        var w = new double[_mixture.Count];
+        var w0 = _options.DefensiveWeight;
+        w[0] = w0;
+        if (_failureCentres.Count == 0)
+        {
+            // Nothing to centre on: the posterior, or the prior alone.
+            if (_posterior >= 0) w[_posterior] = 1 - w0;
+            else w[0] = 1;
+            return w;
+        }
+
+        var wPosterior = _posterior >= 0 ? 0.25 : 0;
+        if (_posterior >= 0) w[_posterior] = wPosterior;
+        foreach (var j in _failureCentres) w[j] = (1 - w0 - wPosterior) / _failureCentres.Count;
+        return w;
+    }
+
+    /// <summary>Weights of a batch aimed at one component: half its samples there, the defensive prior kept, the rest as before.</summary>
+    private double[] AimedWeights(int aim)
+    {
+        const double aimed = 0.5;
+        var w = BaseWeights();
+        for (var j = 0; j < w.Length; j++) w[j] *= 1 - aimed;
+        w[0] = _options.DefensiveWeight;
+        var rest = 1 - aimed - _options.DefensiveWeight;
+        var others = 0.0;
+        for (var j = 1; j < w.Length; j++) others += w[j];
+        for (var j = 1; j < w.Length; j++) w[j] = others > 0 ? w[j] * rest / others : 0;
+        if (others == 0) w[aim] = 1 - _options.DefensiveWeight;
+        else w[aim] += aimed;
+        return w;
     }
 
     private static List<double[]> Distinct(List<double[]> centres)
@@ -379,45 +495,54 @@ internal sealed class ComponentSampleSet
     {
         effective = 0;
         var top = double.NegativeInfinity;
-        var times = _times[period];
-        for (var i = 0; i < _logW.Count; i++)
+        var n = _logW.Count;
+        var shares = new double[n];
+        for (var i = 0; i < n; i++)
         {
-            if (times[i] <= local && _logW[i] > top) top = _logW[i];
+            shares[i] = double.IsNegativeInfinity(_logW[i]) ? 0 : Share(period, local, i);
+            if (shares[i] > 0 && _logW[i] > top) top = _logW[i];
         }
 
         if (!double.IsFinite(top)) return null;
         var mean = new double[_d];
         double total = 0, total2 = 0;
-        var x = new double[_m];
-        var u = new double[_d];
-        for (var i = 0; i < _logW.Count; i++)
+        for (var i = 0; i < n; i++)
         {
-            if (!(times[i] <= local)) continue;
-            var w = Math.Exp(_logW[i] - top);
+            if (!(shares[i] > 0)) continue;
+            var w = Math.Exp(_logW[i] - top) * shares[i];
             if (w == 0) continue;
-            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
             total += w;
             total2 += w * w;
-            for (var k = 0; k < _d; k++) mean[k] += w * u[k];
+            for (var k = 0; k < _d; k++) mean[k] += w * _u[i * _d + k];
         }
 
+        if (!(total > 0)) return null;
         for (var k = 0; k < _d; k++) mean[k] /= total;
         effective = total * total / total2;
         return mean;
     }
 
+    /// <summary>
+    /// True when, under the given weights (this set's, or a reweighting for planned findings), every yearly Pf that may
+    /// lie at or above the decision floor meets the target CoV with the minimum effective failure samples.
+    /// </summary>
+    public bool Resolves(WeightedFailureTimes weighted) => Unresolved(weighted) is null;
+
     /// <summary>The earliest yearly time of some period whose Pf, possibly at or above the decision floor, misses the target CoV or the minimum failure samples; null when none.</summary>
-    private (int Period, double Local)? Unresolved()
+    private (int Period, double Local)? Unresolved(WeightedFailureTimes weighted)
     {
         for (var e = 0; e < Periods; e++)
         {
-            var steps = Math.Max(1, (int)Math.Ceiling(_periodLength[e]));
-            for (var k = 1; k <= steps; k++)
+            // The times profiles are read at: whole years since entry into service, and the period's end.
+            var first = (int)Math.Floor(_periodStart[e] + 1e-9) + 1;
+            var steps = Math.Max(1, (int)Math.Ceiling(_periodStart[e] + _periodLength[e] - 1e-9) - first + 1);
+            for (var k = 0; k < steps; k++)
             {
-                var local = Math.Min(k, _periodLength[e]);
-                var p = Weighted.Cumulative(e, local);
+                var local = Math.Min(first + k - _periodStart[e], _periodLength[e]);
+                if (local <= _survivedLocal[e]) continue;
+                var p = weighted.Cumulative(e, local);
                 // Where the failures drawn are too few to judge, the next covered value bounds this one (Pf never falls).
-                var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(e, local);
+                var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(weighted, e, local);
                 if (!(bound >= _options.DecisionFloor)) continue;
                 if (p.CoefficientOfVariation > _options.TargetCoefficientOfVariation || p.EffectiveEvents < _options.MinimumFailureSamples) return (e, local);
             }
@@ -426,21 +551,31 @@ internal sealed class ComponentSampleSet
         return null;
     }
 
-    /// <summary>p + 3·se at the first later yearly time of the period with enough effective failure samples; 1 when none.</summary>
-    private double CoveredBoundAfter(int period, double local)
-    {
-        var at = CoveredTimeAfter(period, local);
-        var p = Weighted.Cumulative(period, at);
-        return p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : 1;
-    }
+    /// <summary>p + 3·se at the first later time of the period with enough effective failure samples; 1 when none.</summary>
+    private double CoveredBoundAfter(WeightedFailureTimes weighted, int period, double local) =>
+        CoveredAfter(weighted, period, local) is { } covered ? covered.Probability.Value + 3 * covered.Probability.StandardError : 1;
 
-    /// <summary>The first later yearly time of the period with enough effective failure samples, else the period's end.</summary>
-    private double CoveredTimeAfter(int period, double local)
+    /// <summary>The first later time of the period with enough effective failure samples, else the period's end.</summary>
+    private double CoveredTimeAfter(WeightedFailureTimes weighted, int period, double local) =>
+        CoveredAfter(weighted, period, local)?.Local ?? _periodLength[period];
+
+    /// <summary>Steps of the search for the first covered time after a given one (a sixteenth of a year).</summary>
+    private const double CoverageStepYears = 1.0 / 16;
+
+    /// <summary>
+    /// The first time after <paramref name="local"/> (sixteenths of a year, to the period's end) at which the sampled
+    /// Pf of the period rests on at least the minimum number of effective failure samples, with that Pf; null when
+    /// none. Pf never falls with time within a period, so p + 3·se there bounds every earlier Pf from above.
+    /// </summary>
+    public (double Local, SampledProbability Probability)? CoveredAfter(WeightedFailureTimes weighted, int period, double local)
     {
-        for (var later = Math.Floor(local) + 1; ; later += 1)
+        var end = _periodLength[period];
+        for (var k = Math.Floor(local / CoverageStepYears) + 1; ; k++)
         {
-            var at = Math.Min(later, _periodLength[period]);
-            if (at >= _periodLength[period] || Weighted.Cumulative(period, at).EffectiveEvents >= _options.MinimumFailureSamples) return at;
+            var at = Math.Min(k * CoverageStepYears, end);
+            var p = weighted.Cumulative(period, at);
+            if (p.Value > 0 && p.EffectiveEvents >= _options.MinimumFailureSamples) return (at, p);
+            if (at >= end) return null;
         }
     }
 
@@ -448,17 +583,31 @@ internal sealed class ComponentSampleSet
     private double[]? EarliestFailuresMean(int period, double byLocal, double share, out double effective)
     {
         effective = 0;
+        // With an annual-maximum load every sample has a share in every year's failures: no order of failure times.
+        if (_annual is not null) return null;
         var times = _times[period];
-        var order = Enumerable.Range(0, times.Count).Where(i => double.IsFinite(times[i]) && times[i] <= byLocal && _logW[i] > double.NegativeInfinity)
-            .OrderBy(i => times[i]).ToArray();
-        if (order.Length == 0) return null;
-        var top = order.Max(i => _logW[i]);
-        var totalFailed = order.Sum(i => Math.Exp(_logW[i] - top));
+        var order = _order![period];
+        var top = double.NegativeInfinity;
+        var totalFailed = 0.0;
+        foreach (var i in order)
+        {
+            if (!(times[i] <= byLocal)) break;
+            if (_logW[i] > top) top = _logW[i];
+        }
+
+        if (!double.IsFinite(top)) return null;
+        foreach (var i in order)
+        {
+            if (!(times[i] <= byLocal)) break;
+            totalFailed += Math.Exp(_logW[i] - top);
+        }
+
         var mean = new double[_d];
         double sum = 0, sum2 = 0;
         foreach (var i in order)
         {
             var w = Math.Exp(_logW[i] - top);
+            if (w == 0) continue;
             sum += w;
             sum2 += w * w;
             for (var k = 0; k < _d; k++) mean[k] += w * _u[i * _d + k];
@@ -470,39 +619,57 @@ internal sealed class ComponentSampleSet
         return mean;
     }
 
-    /// <summary>Recomputes every weight against the sampling density of all batches drawn so far.</summary>
+    /// <summary>Recomputes every weight against the balance-heuristic density of all batches drawn so far.</summary>
     private void Reweigh()
     {
         var total = _logW.Count;
-        var logShares = _batches.Select(b => Math.Log((double)b.Count / total)).ToArray();
-        var u = new double[_d];
-        var terms = new double[_batches.Count];
+        var combined = new double[_mixture.Count];
+        foreach (var (weights, count) in _batches)
+        {
+            for (var j = 0; j < weights.Length; j++) combined[j] += weights[j] * count / total;
+        }
+
+        var used = Enumerable.Range(0, combined.Length).Where(j => combined[j] > 0).ToArray();
+        var logC = used.Select(j => Math.Log(combined[j])).ToArray();
+        var columns = used.Select(j => _logPhi[j]).ToArray();
         for (var i = 0; i < total; i++)
         {
             if (double.IsNegativeInfinity(_logTarget[i])) continue;
-            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
             var max = double.NegativeInfinity;
-            for (var b = 0; b < _batches.Count; b++)
+            for (var c = 0; c < used.Length; c++)
             {
-                terms[b] = logShares[b] + _batches[b].Mixture.LogDensity(u);
-                if (terms[b] > max) max = terms[b];
+                var t = logC[c] + columns[c][i];
+                if (t > max) max = t;
             }
 
             var sum = 0.0;
-            foreach (var t in terms) sum += Math.Exp(t - max);
+            for (var c = 0; c < used.Length; c++) sum += Math.Exp(logC[c] + columns[c][i] - max);
             _logW[i] = _logTarget[i] - (max + Math.Log(sum));
         }
     }
 
-    private void Draw(int count)
+    /// <summary>Draws a batch from the components with the given weights; its weights are set by the next <see cref="Reweigh"/>.</summary>
+    private void Draw(int count, double[] weights)
     {
-        _batches.Add((_mixture, count));
+        _batches.Add((weights, count));
+        var cumulative = new double[weights.Length];
+        var acc = 0.0;
+        var sumW = weights.Sum();
+        for (var j = 0; j < weights.Length; j++)
+        {
+            acc += weights[j] / sumW;
+            cumulative[j] = acc;
+        }
+
+        cumulative[^1] = 1;
+        var first = _logW.Count;
         var u = new double[_d];
         var x = new double[_m];
         var local = new double[_localDimension];
+        var curve = new double[_years.Length == 0 ? 0 : _years.Max()];
         for (var s = 0; s < count; s++)
         {
-            _mixture.Draw(_rng, u);
+            _mixture.Draw(_rng, cumulative, u);
             _t.ToPhysical(u, x);
             var logTarget = SamplingMixture.LogPrior(u);
             foreach (var ev in _events)
@@ -513,14 +680,17 @@ internal sealed class ComponentSampleSet
             }
 
             if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;
-            var logW = double.IsNegativeInfinity(logTarget) ? logTarget : logTarget - _mixture.LogDensity(u);
-            _logTarget.Add(logTarget);
-            _logW.Add(logW);
             for (var k = 0; k < _d; k++) _u.Add(u[k]);
             for (var k = 0; k < _m; k++) _x.Add(x[k]);
             for (var e = 0; e < Periods; e++)
             {
-                if (double.IsNegativeInfinity(logW))
+                if (_annual is not null)
+                {
+                    logTarget += DrawSurvival(e, x, local, double.IsNegativeInfinity(logTarget), curve);
+                    continue;
+                }
+
+                if (double.IsNegativeInfinity(logTarget))
                 {
                     _times[e].Add(double.PositiveInfinity);
                     continue;
@@ -530,8 +700,58 @@ internal sealed class ComponentSampleSet
                 var tf = FailureTimeSearch.Find(_component, local, _periodLength[e], _options.SearchStepsPerYear, out var used);
                 Evaluations += used;
                 _times[e].Add(tf);
+                // The in-service record means no failure before it (first passage), not only a positive margin then.
+                if (tf <= _survivedLocal[e]) logTarget = double.NegativeInfinity;
             }
+
+            if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;
+            _logTarget.Add(logTarget);
+            _logW.Add(logTarget);
         }
+
+        for (var j = 0; j < _mixture.Count; j++)
+        {
+            var column = _logPhi[j];
+            for (var i = first; i < _logW.Count; i++) column.Add(_mixture.LogDensity(j, System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_u).Slice(i * _d, _d)));
+        }
+    }
+
+    /// <summary>
+    /// Appends sample's conditional log survival curve of period e (annual-maximum load) and returns the log likelihood
+    /// of the period's in-service record, ln Sᵢ(τ); after the record the curve is kept relative to it, so Pf up to τ is
+    /// exactly 0 and later values are conditional on survival to τ.
+    /// </summary>
+    private double DrawSurvival(int e, double[] x, double[] local, bool rejected, double[] curve)
+    {
+        var years = _years[e];
+        var list = _logSurvival[e];
+        if (rejected || years == 0)
+        {
+            for (var k = 0; k < years; k++) list.Add(0);
+            return 0;
+        }
+
+        Model.PeriodInputs(Id, e, x, local);
+        var span = curve.AsSpan(0, years);
+        _annual!.LogSurvival(_component, local, _periodStart[e], span, out var used);
+        Evaluations += used;
+        var recorded = RecordedYears(e);
+        var atRecord = recorded == 0 ? 0 : span[recorded - 1];
+        for (var k = 0; k < years; k++) list.Add(k < recorded ? 0 : span[k] - atRecord);
+        return atRecord;
+    }
+
+    /// <summary>Whole years of period e that end by its in-service record.</summary>
+    private int RecordedYears(int e) =>
+        _survivedLocal[e] <= 0 ? 0 : Math.Clamp((int)Math.Floor(_periodStart[e] + _survivedLocal[e] + 1e-9) - (int)Math.Floor(_periodStart[e] + 1e-9), 0, _years[e]);
+
+    /// <summary>Sample i's share in "failed by local time τ of period e": the indicator, or 1 − Sᵢ(τ) with an annual-maximum load.</summary>
+    private double Share(int period, double local, int i)
+    {
+        if (_annual is null) return _times[period][i] <= local ? 1 : 0;
+        var years = _years[period];
+        var k = Math.Clamp((int)Math.Floor(_periodStart[period] + local + 1e-9) - (int)Math.Floor(_periodStart[period] + 1e-9), 0, years);
+        return k == 0 ? 0 : -ElementaryFunctions.Expm1(_logSurvival[period][i * years + k - 1]);
     }
 
     private WeightedFailureTimes Weigh(double[] logW)
@@ -548,18 +768,36 @@ internal sealed class ComponentSampleSet
             for (var i = 0; i < w.Length; i++) w[i] = Math.Exp(logW[i] - top);
         }
 
-        var times = _times.Select(l => l.ToArray()).ToArray();
-        // The order depends on the failure times only: a reweighting (a planned inspection) reuses it.
-        if (_order is null || _order[0].Length != logW.Length)
+        if (_annual is not null)
         {
-            _order = times.Select(t =>
-            {
-                var idx = Enumerable.Range(0, t.Length).ToArray();
-                Array.Sort((double[])t.Clone(), idx);
-                return idx;
-            }).ToArray();
+            return new YearlySurvivalCurves(_logSurvival.Select(l => l.ToArray()).ToArray(), _years, _periodStart, w, double.IsFinite(top) ? top : 0);
         }
 
-        return new WeightedFailureTimes(times, _order, w, double.IsFinite(top) ? top : 0);
+        var times = _times.Select(l => l.ToArray()).ToArray();
+        // The order depends on the failure times only: a reweighting (a planned inspection) reuses it, and a new batch
+        // is sorted on its own and merged in.
+        var sorted = _order?[0].Length ?? 0;
+        if (_order is null || sorted != logW.Length)
+        {
+            _order = times.Select((t, e) => MergeSorted(t, _order?[e] ?? [], sorted)).ToArray();
+        }
+
+        return new SortedFailureTimes(times, _order, w, double.IsFinite(top) ? top : 0);
+    }
+
+    /// <summary>Indices of all samples sorted by time: the first <paramref name="sorted"/> already in <paramref name="order"/>, the rest sorted and merged in.</summary>
+    private static int[] MergeSorted(double[] times, int[] order, int sorted)
+    {
+        var n = times.Length;
+        var fresh = Enumerable.Range(sorted, n - sorted).ToArray();
+        var keys = new double[fresh.Length];
+        for (var k = 0; k < fresh.Length; k++) keys[k] = times[fresh[k]];
+        Array.Sort(keys, fresh);
+        var merged = new int[n];
+        int a = 0, b = 0, m = 0;
+        while (a < sorted && b < fresh.Length) merged[m++] = times[order[a]] <= times[fresh[b]] ? order[a++] : fresh[b++];
+        while (a < sorted) merged[m++] = order[a++];
+        while (b < fresh.Length) merged[m++] = fresh[b++];
+        return merged;
     }
 }

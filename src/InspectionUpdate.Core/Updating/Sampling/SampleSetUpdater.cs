@@ -28,6 +28,9 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
 
     /// <summary>Smallest share of a set's effective sample size that a reweighting for further findings may keep before a new set is drawn.</summary>
     private const double MinimumEffectiveShare = 0.5;
+
+    /// <summary>Smallest share of a set's effective sample size that a reweighting may keep when it still resolves every yearly Pf that matters.</summary>
+    private const double SmallestEffectiveShare = 0.1;
     private readonly Lock _gate = new();
     private readonly LinkedList<Entry> _recent = new();
     private readonly ReliabilityUpdater _firstOrder;
@@ -198,6 +201,23 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             };
         }
 
+        var (period, local) = set.Locate(t);
+        if (local <= set.SurvivedUntil(period))
+        {
+            // Not an estimate: the findings record the component in service at a later time of this renewal period.
+            return new UpdatedEstimate
+            {
+                CumulativePf = 0,
+                Beta = double.PositiveInfinity,
+                EvidenceProbability = evidenceProbability,
+                Route = ComputationRoute.ImportanceSampling,
+                Converged = true,
+                CoefficientOfVariation = null,
+                Note = Append(note, string.Create(CultureInfo.InvariantCulture,
+                    $"exactly 0: the findings record the component in service at {set.PeriodStart(period) + set.SurvivedUntil(period):0.###} y")),
+            };
+        }
+
         var covered = p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples;
         // Converged: the target CoV is met, or (with the failure region covered) the value is shown below the level
         // at which no planning decision depends on more digits.
@@ -254,22 +274,13 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         };
     }
 
-    /// <summary>p + 3·se at the first later time (yearly steps to the period's end) whose failure region is covered, or null.</summary>
-    private (double Value, double AtYears)? LaterBound(WeightedFailureTimes weighted, ComponentSampleSet set, double t)
+    /// <summary>p + 3·se at the first later time of the period whose failure region is covered, or null.</summary>
+    private static (double Value, double AtYears)? LaterBound(WeightedFailureTimes weighted, ComponentSampleSet set, double t)
     {
         var (period, local) = set.Locate(t);
-        var end = set.PeriodLength(period);
-        for (var later = Math.Floor(local) + 1; ; later += 1)
-        {
-            var at = Math.Min(later, end);
-            var p = weighted.Cumulative(period, at);
-            if (p.Value > 0 && p.EffectiveEvents >= Options.MinimumFailureSamples)
-            {
-                return (p.Value + 3 * p.StandardError, set.PeriodStart(period) + at);
-            }
-
-            if (at >= end) return null;
-        }
+        return set.CoveredAfter(weighted, period, local) is { } covered
+            ? (covered.Probability.Value + 3 * covered.Probability.StandardError, set.PeriodStart(period) + covered.Local)
+            : null;
     }
 
     private UpdatedEstimate? TryFirstOrder(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, double t)
@@ -310,8 +321,11 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
                 if (!candidate.Set.IsValueCreated) continue;
                 var known = candidate.Derived.FirstOrDefault(d => d.Evidence.SequenceEqual(evidence));
                 var reweighted = known.Weighted ?? candidate.Set.Value.Reweighted(evidence, out _);
-                // Reused only while the weights stay balanced: a finding that moves the posterior far gets a set of its own.
-                if (reweighted is null || reweighted.EffectiveSampleSize < MinimumEffectiveShare * candidate.Set.Value.Weighted.EffectiveSampleSize) continue;
+                // Reused while the weights stay balanced, or while they still resolve every yearly Pf that matters with
+                // enough effective failure samples: a finding that moves the posterior further gets a set of its own.
+                if (reweighted is null) continue;
+                var share = reweighted.EffectiveSampleSize / candidate.Set.Value.Weighted.EffectiveSampleSize;
+                if (!(share >= MinimumEffectiveShare || share >= SmallestEffectiveShare && candidate.Set.Value.Resolves(reweighted))) continue;
                 if (known.Weighted is null)
                 {
                     candidate.Derived.Add((evidence.ToArray(), reweighted));

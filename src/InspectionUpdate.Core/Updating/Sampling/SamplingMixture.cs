@@ -1,60 +1,58 @@
 namespace InspectionUpdate.Updating.Sampling;
 
 /// <summary>
-/// The sampling density q(u) of a sample set in the standard normal space of the model inputs: a mixture of the
-/// prior N(0, I) (the defensive component, Hesterberg 1995, Technometrics 37(2):185–194, which keeps every weight
-/// φ/q ≤ 1/w₀) and Gaussians N(cⱼ, κ²S) sharing the Laplace covariance S of the posterior, inflated by κ.
+/// The components a sample set draws from, in the standard normal space of the model inputs: the prior N(0, I) (the
+/// defensive component, Hesterberg 1995, Technometrics 37(2):185–194, which keeps every weight φ/q ≤ 1/w₀) and
+/// Gaussians N(cⱼ, κ²S) sharing the Laplace covariance S of the posterior, inflated by κ. Each batch of samples draws
+/// from its own weights over these components; every batch's density is then a mixture of the same components, and so
+/// is the balance-heuristic density of all batches together (the weights averaged by batch size). A sample's
+/// log density under each component is computed once and kept, so adding a batch or a component never re-evaluates
+/// the others.
 /// </summary>
 internal sealed class SamplingMixture
 {
     private const double HalfLog2Pi = 0.91893853320467274178;
-    private readonly double[][] _centres;
-    private readonly double[] _logWeights;
-    private readonly double[] _cumulative;
+    private readonly List<double[]?> _centres = [null];
     private readonly double[,] _lower;
     private readonly double _logNorm;
     private readonly int _d;
 
-    /// <param name="priorWeight">Weight of N(0, I).</param>
-    /// <param name="centres">Centres of the other components, with their weights (summing to 1 − priorWeight).</param>
     /// <param name="lower">Lower Cholesky factor of κ²S.</param>
     /// <param name="logDet">ln det(κ²S).</param>
-    public SamplingMixture(double priorWeight, IReadOnlyList<(double[] Centre, double Weight)> centres, double[,] lower, double logDet)
+    public SamplingMixture(double[,] lower, double logDet)
     {
         _d = lower.GetLength(0);
         _lower = lower;
-        _centres = centres.Select(c => c.Centre).ToArray();
-        _logWeights = [Math.Log(priorWeight), .. centres.Select(c => Math.Log(c.Weight))];
-        _cumulative = new double[_logWeights.Length];
-        var total = 0.0;
-        for (var j = 0; j < _logWeights.Length; j++)
-        {
-            total += Math.Exp(_logWeights[j]);
-            _cumulative[j] = total;
-        }
-
-        for (var j = 0; j < _cumulative.Length; j++) _cumulative[j] /= total;
         _logNorm = -_d * HalfLog2Pi - 0.5 * logDet;
     }
 
-    /// <summary>Centres of the non-prior components (u-space).</summary>
-    public IReadOnlyList<double[]> Centres => _centres;
+    /// <summary>Number of components, the prior (index 0) included.</summary>
+    public int Count => _centres.Count;
 
-    /// <summary>Draws u from the mixture.</summary>
-    public void Draw(Random rng, Span<double> u)
+    /// <summary>Centre of component j (u-space); the prior's is the origin.</summary>
+    public double[] Centre(int j) => _centres[j] ?? new double[_d];
+
+    /// <summary>Adds a Gaussian component N(centre, κ²S); returns its index.</summary>
+    public int Add(double[] centre)
+    {
+        _centres.Add(centre);
+        return _centres.Count - 1;
+    }
+
+    /// <summary>Draws u from the mixture with the given cumulative component weights (last entry 1).</summary>
+    public void Draw(Random rng, ReadOnlySpan<double> cumulativeWeights, Span<double> u)
     {
         var pick = rng.NextDouble();
         var j = 0;
-        while (j < _cumulative.Length - 1 && pick >= _cumulative[j]) j++;
+        while (j < cumulativeWeights.Length - 1 && pick >= cumulativeWeights[j]) j++;
         Span<double> z = stackalloc double[_d];
         for (var i = 0; i < _d; i++) z[i] = Gaussian(rng);
-        if (j == 0)
+        if (_centres[j] is not { } c)
         {
             z.CopyTo(u);
             return;
         }
 
-        var c = _centres[j - 1];
         for (var i = 0; i < _d; i++)
         {
             var s = c[i];
@@ -63,34 +61,21 @@ internal sealed class SamplingMixture
         }
     }
 
-    /// <summary>ln q(u).</summary>
-    public double LogDensity(ReadOnlySpan<double> u)
+    /// <summary>ln of component j's density at u.</summary>
+    public double LogDensity(int j, ReadOnlySpan<double> u)
     {
-        var prior = -_d * HalfLog2Pi;
-        for (var i = 0; i < _d; i++) prior -= 0.5 * u[i] * u[i];
-        var max = _logWeights[0] + prior;
-        Span<double> terms = _centres.Length + 1 <= 64 ? stackalloc double[_centres.Length + 1] : new double[_centres.Length + 1];
-        terms[0] = max;
+        if (_centres[j] is not { } c) return LogPrior(u);
         Span<double> z = stackalloc double[_d];
-        for (var j = 0; j < _centres.Length; j++)
+        var q = 0.0;
+        for (var i = 0; i < _d; i++)
         {
-            var c = _centres[j];
-            var q = 0.0;
-            for (var i = 0; i < _d; i++)
-            {
-                var s = u[i] - c[i];
-                for (var k = 0; k < i; k++) s -= _lower[i, k] * z[k];
-                z[i] = s / _lower[i, i];
-                q += z[i] * z[i];
-            }
-
-            terms[j + 1] = _logWeights[j + 1] + _logNorm - 0.5 * q;
-            if (terms[j + 1] > max) max = terms[j + 1];
+            var s = u[i] - c[i];
+            for (var k = 0; k < i; k++) s -= _lower[i, k] * z[k];
+            z[i] = s / _lower[i, i];
+            q += z[i] * z[i];
         }
 
-        var sum = 0.0;
-        foreach (var t in terms) sum += Math.Exp(t - max);
-        return max + Math.Log(sum);
+        return _logNorm - 0.5 * q;
     }
 
     /// <summary>ln φ(u) of the standard normal prior.</summary>
