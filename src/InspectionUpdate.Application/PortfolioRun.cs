@@ -235,6 +235,12 @@ public static class PortfolioRun
         var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling };
         var outcome = ComponentAssessment.Assess(request, _ => { });
         PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, options.Target, null, _ => { }) : null;
+        return ToStored(context, request, outcome, plan, row);
+    }
+
+    /// <summary>The stored result of an assessment and plan: the numbers a register overview or report needs.</summary>
+    internal static StoredResult ToStored(ComponentContext context, AssessmentRequest request, AssessmentOutcome outcome, PlanOutcome? plan, StoredResult row)
+    {
         var current = ComponentStudy.Current(outcome.Current, request.AsOfYears);
         var converged = outcome.AllConverged && (plan?.AllConverged ?? true);
         var profiles = JsonSerializer.Serialize(new StoredProfiles(ProfileExport.ToExport(outcome.Prior), outcome.Updated is null ? null : ProfileExport.ToExport(outcome.Updated)), ProfileExport.JsonOptions);

@@ -7,6 +7,9 @@ namespace InspectionUpdate.Application;
 /// <summary>Opens the register and turns its failures into <see cref="ApplicationFailureException"/>s naming the field and the value.</summary>
 public static class Registers
 {
+    /// <summary>The post-repair prior that renews nothing beyond the model's own renewed inputs (which restart with their original prior).</summary>
+    public const string OriginalPostRepairPrior = "{\"inputs\": {}}";
+
     /// <summary>Opens a register; a missing, foreign or newer file is a register failure.</summary>
     public static RegisterStore Open(string path, RegisterOpenMode mode, TimeProvider clock)
     {

@@ -124,6 +124,8 @@ public static class CliApp
                 .WithExample("report", "--out", "reports", "-r", "plant.register");
             Top<VerifyCommand>(config, "verify").WithDescription("Run the verification cases and the benchmark-collection problems on this installation.")
                 .WithExample("verify").WithExample("verify", "--benchmarks", "quick").WithExample("verify", "--write-doc", "docs/verification.md");
+            Top<ServeCommand>(config, "serve").WithDescription("Serve the local web view of a register (127.0.0.1 by default): the register, components, logging and correcting findings, CSV import.")
+                .WithExample("serve", "-r", "plant.register").WithExample("serve", "-r", "plant.register", "--port", "8080");
             Top<DemoCommand>(config, "demo").WithDescription("Build a demo register from sample-data, assess, plan and report.")
                 .WithExample("demo").WithExample("demo", "--out", "demo-output");
         });

@@ -2,7 +2,6 @@ using System.ComponentModel;
 using System.Diagnostics;
 using System.Globalization;
 using InspectionUpdate.Application;
-using InspectionUpdate.Cli.Demo;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Register;
@@ -89,35 +88,11 @@ public sealed class DemoCommand(CliHost host) : CliCommand<DemoSettings>(host)
     private static int Build(CliHost host, DemoScenario scenario, string sampleData, string registerPath, List<DemoStep> steps)
     {
         using var store = RegisterAccess.Open(host, registerPath, RegisterOpenMode.CreateNew);
-        const string by = "demo.integrity";
-        foreach (var s in scenario.Sites) RegisterAccess.Require(store.AddSite(new NewSite(s.Id, s.Name), by), "demo site " + s.Id);
-        foreach (var m in scenario.Methods) RegisterAccess.Require(store.AddMethod(MethodFile.Read(Path.Combine(sampleData, m.File), m.Id), by), "demo method " + m.Id);
-        foreach (var c in scenario.Components)
-        {
-            var json = ModelFiles.Read(Path.Combine(sampleData, c.Model));
-            RegisterAccess.Require(store.AddComponent(new NewComponent(c.Site, c.Id, c.Name, c.InService, c.WallMm, json, ModelFiles.DefaultVersion), by), "demo component " + c.Id);
-        }
-
+        var built = DemoRegister.Build(store, scenario, sampleData);
         steps.Add(new DemoStep("register", "done", $"{scenario.Sites.Count} sites, {scenario.Methods.Count} methods, {scenario.Components.Count} components"));
-        var import = store.ImportFindingsCsv(Path.Combine(sampleData, scenario.Findings), by, "demo import");
-        if (!import.Succeeded) throw RegisterAccess.Problems("demo findings import", import.Problems);
-        foreach (var fix in scenario.Corrections)
-        {
-            var component = RegisterAccess.Component(store, fix.Component);
-            var current = store.Findings(component.Id).FirstOrDefault(f => f.InspectionDate == fix.InspectionDate && f.MethodName == fix.Method)
-                ?? throw CliException.BadInput("correction", $"{fix.Component} {fix.InspectionDate:yyyy-MM-dd} {fix.Method}", "matches no imported finding.");
-            RegisterAccess.Require(store.ReviseFinding(current.FindingId, new NewFinding(current.ComponentCode, current.InspectionDate, current.Kind, current.MethodName,
-                fix.MeasuredSizeMm, current.RemainingWallMm, current.Location, current.Note), fix.By, fix.Reason), "demo correction");
-        }
-
-        foreach (var r in scenario.Repairs)
-        {
-            RegisterAccess.Require(store.AddRepair(new NewRepair(r.Component, r.Date, r.Description, RepairLogCommand.OriginalPrior), r.By, "demo repair"), "demo repair");
-        }
-
         steps.Add(new DemoStep("findings", "done",
-            $"{import.Findings.Count} findings imported, {scenario.Corrections.Count} corrected by a new revision, {scenario.Repairs.Count} repair(s) logged"));
-        return import.Findings.Count;
+            $"{built.Findings} findings imported, {built.Corrections} corrected by a new revision, {built.Repairs} repair(s) logged"));
+        return built.Findings;
     }
 }
 

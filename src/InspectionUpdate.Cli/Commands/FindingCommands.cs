@@ -314,7 +314,7 @@ public sealed class RepairLogSettings : RegisterSettings
 public sealed class RepairLogCommand(CliHost host) : CliCommand<RepairLogSettings>(host)
 {
     /// <summary>The post-repair prior that renews nothing beyond the model's own renewed inputs (which restart with their original prior).</summary>
-    public const string OriginalPrior = "{\"inputs\": {}}";
+    public const string OriginalPrior = Registers.OriginalPostRepairPrior;
 
     /// <inheritdoc />
     protected override int Run(RepairLogSettings settings, CancellationToken cancellation)
