@@ -465,6 +465,20 @@ internal sealed class ComponentSampleSet
                 if (form.Beta > BetaLevels[^1] + 0.5) break;
             }
 
+            // Several failure modes (a series system, say) have several design points: a multi-start search at the
+            // period's end finds the others, and each gets a centre of its own (one mode's centre alone would let the
+            // set report a converged Pf that misses the other mode's failures).
+            var modes = MultiStartFormSolver.Solve(new ReliabilityProblem(shifted, Model.FailureLimitState(Id, _periodStart[e] + _periodLength[e])),
+                MultiStartFormOptions.Default with { Form = _options.Form });
+            Evaluations += modes.LimitStateEvaluations;
+            foreach (var mode in modes.OtherDesignPoints.Prepend(modes.Best))
+            {
+                if (!(mode.Converged && mode.DesignPointU.All(double.IsFinite) && mode.Beta <= BetaLevels[^1] + 0.5)) continue;
+                var u = new double[_d];
+                shifted.ToU(mode.DesignPointU.ToArray(), u);
+                if (scan.All(s => Distance(s.U, u) > 0.25) && result.All(r => Distance(r.Item3, u) > 0.25)) result.Add((e, _periodLength[e], u));
+            }
+
             if (scan.Count == 0) continue;
             var chosen = new HashSet<int>();
             foreach (var level in BetaLevels.Take(_options.AnchorsPerPeriod))
@@ -539,7 +553,7 @@ internal sealed class ComponentSampleSet
             for (var k = 0; k < steps; k++)
             {
                 var local = Math.Min(first + k - _periodStart[e], _periodLength[e]);
-                if (local <= _survivedLocal[e]) continue;
+                if (_survivedLocal[e] > 0 && local <= _survivedLocal[e]) continue;
                 var p = weighted.Cumulative(e, local);
                 // Where the failures drawn are too few to judge, the next covered value bounds this one (Pf never falls).
                 var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(weighted, e, local);
@@ -701,7 +715,7 @@ internal sealed class ComponentSampleSet
                 Evaluations += used;
                 _times[e].Add(tf);
                 // The in-service record means no failure before it (first passage), not only a positive margin then.
-                if (tf <= _survivedLocal[e]) logTarget = double.NegativeInfinity;
+                if (_survivedLocal[e] > 0 && tf <= _survivedLocal[e]) logTarget = double.NegativeInfinity;
             }
 
             if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;

@@ -97,6 +97,18 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             var estimate = Decide(model, evidence, t, cumulative, weighted, set, null, crossCheck: Options.FirstOrderBelowResolution, out var firstOrderValue);
             var usedFirstOrder = estimate.Route != ComputationRoute.ImportanceSampling;
             var basePf = restarted ? 0.0 : prevPf;
+            if (!restarted && estimate.CumulativePf < prevPf)
+            {
+                // Pf never falls with time within a renewal period; below the resolution the route can switch between a
+                // first-order and a sampled value (both tiny) that do not keep that order: the earlier value stands.
+                estimate = estimate with
+                {
+                    CumulativePf = prevPf,
+                    Beta = -StandardNormal.InverseCdf(prevPf),
+                    Note = Append(estimate.Note, string.Create(CultureInfo.InvariantCulture,
+                        $"held at the previous step's {prevPf:0.###E+00} (computed {estimate.CumulativePf:0.###E+00}; Pf never falls with time)")),
+                };
+            }
             double interval;
             double? intervalCov = null;
             if (!usedFirstOrder && !prevFirstOrder || restarted && !usedFirstOrder)
@@ -202,7 +214,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         }
 
         var (period, local) = set.Locate(t);
-        if (local <= set.SurvivedUntil(period))
+        if (set.SurvivedUntil(period) > 0 && local <= set.SurvivedUntil(period))
         {
             // Not an estimate: the findings record the component in service at a later time of this renewal period.
             return new UpdatedEstimate
