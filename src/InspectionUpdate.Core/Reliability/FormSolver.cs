@@ -307,6 +307,13 @@ public static class FormSolver
         /// <summary>G(u); with analytic gradients also ∂g/∂x into <paramref name="gradX"/> (same single call).</summary>
         private double Evaluate(double[] u, double[] x, double[]? gradX)
         {
+            // A step whose direction overflowed (e.g. a gradient that underflows far out) is no point at all: report
+            // it as a non-finite value so the line search rejects it, rather than letting the transformation throw.
+            foreach (var ui in u)
+            {
+                if (!double.IsFinite(ui)) return double.NaN;
+            }
+
             _t.ToPhysical(u, x);
             _evaluations++;
             return Analytic && gradX is not null ? _g.EvaluateWithGradient(x, gradX) : _g.Evaluate(x);

@@ -9,6 +9,29 @@ public class FormSolverRobustnessTests
     private static ReliabilityProblem TwoNormals(LimitStateFunction g) =>
         new(new StochasticModel([new NormalVariable("A", 1, 1), new NormalVariable("B", 1, 1)]), new LimitState("g", g));
 
+    public class Overflowing_direction
+    {
+        [Fact]
+        [Reference("Common practice, no source: a FORM run that cannot take a step returns a non-converged result (the solver's contract), it does not throw")]
+        public void Gives_a_non_converged_result_instead_of_an_exception()
+        {
+            // g = 1 − 1e-160·a with the exact gradient: ‖∇G‖² = 1e-320 is subnormal, so the HL-RF multiplier
+            // −g/‖∇G‖² overflows, and ∞·0 puts NaN into the direction of b (a Gumbel input, whose transformation
+            // refuses NaN). Before the fix the line search handed that point to the transformation, which threw.
+            var problem = new ReliabilityProblem(
+                new StochasticModel([new NormalVariable("a", 0, 1), GumbelVariable.FromParameters("b", 2, 0.3)]),
+                new LimitState("g", x => 1 - 1e-160 * x[0] + 0 * x[1], (x, grad) =>
+                {
+                    grad[0] = -1e-160;
+                    grad[1] = 0;
+                    return 1 - 1e-160 * x[0];
+                }));
+            var result = FormSolver.Solve(problem, new FormOptions { Gradient = GradientMethod.Analytic });
+            Assert.False(result.Converged);
+            Assert.NotNull(result.Diagnostic);
+        }
+    }
+
     public class Warm_start
     {
         [Fact]
