@@ -26,7 +26,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
 {
     private const int CachedSets = 6;
 
-    /// <summary>Smallest share of a set's effective sample size that a reweighting for further findings may keep before a new set is drawn.</summary>
+    /// <summary>Share of a set's effective sample size that a reweighting must keep to be reused when the set itself stopped unresolved at its cap.</summary>
     private const double MinimumEffectiveShare = 0.5;
 
     /// <summary>Smallest share of a set's effective sample size that a reweighting may keep when it still resolves every yearly Pf that matters.</summary>
@@ -337,7 +337,12 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
                 // enough effective failure samples: a finding that moves the posterior further gets a set of its own.
                 if (reweighted is null) continue;
                 var share = reweighted.EffectiveSampleSize / candidate.Set.Value.Weighted.EffectiveSampleSize;
-                if (!(share >= MinimumEffectiveShare || share >= SmallestEffectiveShare && candidate.Set.Value.Resolves(reweighted))) continue;
+                // A set that resolves its own findings must resolve the extended ones too, else a set is drawn for them; a
+                // set at its cap that does not (its flags say so) is reused while the weights stay balanced.
+                var baseResolved = candidate.Set.Value.Resolves(candidate.Set.Value.Weighted);
+                var reuse = share >= SmallestEffectiveShare && candidate.Set.Value.Resolves(reweighted)
+                    || !baseResolved && share >= MinimumEffectiveShare;
+                if (!reuse) continue;
                 if (known.Weighted is null)
                 {
                     candidate.Derived.Add((evidence.ToArray(), reweighted));
