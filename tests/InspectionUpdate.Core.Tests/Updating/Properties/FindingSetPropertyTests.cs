@@ -16,7 +16,7 @@ public class FindingSetPropertyTests(ITestOutputHelper output)
 {
     private const int Seed = 20261204;
     private const int Cases = 200;
-    private const int ReferenceSamples = 60_000;
+    private const int ReferenceSamples = 40_000;
 
     [Fact]
     [Trait("Category", "Statistical")]
