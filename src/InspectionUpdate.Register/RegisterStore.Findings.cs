@@ -79,7 +79,19 @@ public sealed partial class RegisterStore
     /// Records a correction: a new revision of the finding with the corrected content, superseding the latest one.
     /// The component cannot change (withdraw and add instead). The old revision stays readable.
     /// </summary>
-    public WriteResult<FindingRevision> ReviseFinding(long findingId, NewFinding corrected, string actor, string reason)
+    public WriteResult<FindingRevision> ReviseFinding(long findingId, NewFinding corrected, string actor, string reason) =>
+        Revise(findingId, corrected, actor, reason, null);
+
+    /// <summary>
+    /// Records a correction of revision <paramref name="ofRevision"/> of the finding (the revision the user read). When
+    /// another user has superseded that revision in the meantime, the correction is refused (field <c>revision</c>,
+    /// naming who recorded the newer revision and when) and nothing is written: no correction is applied over one the
+    /// user has not seen.
+    /// </summary>
+    public WriteResult<FindingRevision> ReviseFinding(long findingId, NewFinding corrected, string actor, string reason, int ofRevision) =>
+        Revise(findingId, corrected, actor, reason, ofRevision);
+
+    private WriteResult<FindingRevision> Revise(long findingId, NewFinding corrected, string actor, string reason, int? ofRevision)
     {
         ArgumentNullException.ThrowIfNull(corrected);
         return Write((c, t) =>
@@ -88,6 +100,13 @@ public sealed partial class RegisterStore
             if (latest is null)
             {
                 return (WriteResult<FindingRevision>.Refused([new("finding_id", findingId.ToString(CultureInfo.InvariantCulture), "no finding with this id")]), false);
+            }
+
+            if (ofRevision is { } seen && seen != latest.Revision)
+            {
+                return (WriteResult<FindingRevision>.Refused([new("revision", seen.ToString(CultureInfo.InvariantCulture), seen > latest.Revision
+                    ? FormattableString.Invariant($"finding {findingId} has no revision {seen} (its latest is {latest.Revision})")
+                    : FormattableString.Invariant($"finding {findingId} revision {seen} was superseded by revision {latest.Revision}, recorded by {latest.Recorded.RecordedBy} at {Sql.Utc(latest.Recorded.RecordedUtc)}: nothing was written; read the finding again and correct revision {latest.Revision}"))]), false);
             }
 
             var validation = new FindingValidation(this, c, t);

@@ -49,7 +49,7 @@ public sealed class RegisterFileException : Exception
 /// foreign keys, a busy timeout and synchronous=FULL; the file is in WAL mode. All SQL is parameterized. The instance
 /// is thread-safe: each operation opens its own pooled connection. Dispose it to release the pool (and the file).
 /// </remarks>
-public sealed partial class RegisterStore : IDisposable
+public sealed partial class RegisterStore : IRegister
 {
     private const string Actor = "inspection-update";
     private readonly string _connectionString;
@@ -69,6 +69,9 @@ public sealed partial class RegisterStore : IDisposable
     /// <summary>The schema version this code reads and writes.</summary>
     public static int CurrentSchemaVersion => Migrations.Current;
 
+    /// <summary>Which database holds the register.</summary>
+    public RegisterStoreKind Kind { get; } = RegisterStoreKind.Sqlite;
+
     /// <summary>Full path of the register file.</summary>
     public string Path { get; }
 
@@ -87,6 +90,10 @@ public sealed partial class RegisterStore : IDisposable
     /// newer schema version than this program. A refused file is left as it was: same bytes, no side files.</exception>
     public static RegisterStore Open(string path, RegisterOpenMode mode = RegisterOpenMode.OpenOrCreate, RegisterOptions? options = null) =>
         Open(path, mode, options, Migrations.Current);
+
+    /// <summary>Opens a PostgreSQL register named by a connection URI (not available yet in this build).</summary>
+    public static RegisterStore OpenPostgres(string uri, RegisterOpenMode mode = RegisterOpenMode.OpenOrCreate, RegisterOptions? options = null) =>
+        throw new RegisterFileException($"PostgreSQL registers are not available in this build ('{uri}').");
 
     /// <summary>Opens and migrates only up to <paramref name="targetVersion"/> (tests of the migrations).</summary>
     internal static RegisterStore Open(string path, RegisterOpenMode mode, RegisterOptions? options, int targetVersion)

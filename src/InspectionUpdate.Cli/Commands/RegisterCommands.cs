@@ -190,7 +190,7 @@ public sealed class RegisterAssessCommand(CliHost host) : CliCommand<RegisterAss
         return doc.Failed > 0 ? ExitCodes.BadInput : doc.NotConverged > 0 ? ExitCodes.NotConverged : ExitCodes.Ok;
     }
 
-    private PortfolioSummary Run(RegisterStore store, IResultSink sink, PortfolioOptions options, bool quiet, CancellationToken cancellation)
+    private PortfolioSummary Run(IRegister store, IResultSink sink, PortfolioOptions options, bool quiet, CancellationToken cancellation)
     {
         if (quiet || !Host.ShowProgress) return PortfolioRun.Run(store, sink, options, null, cancellation);
         PortfolioSummary summary = null!;

@@ -1,4 +1,5 @@
 using InspectionUpdate.Application;
+using InspectionUpdate.Register;
 using Spectre.Console;
 
 namespace InspectionUpdate.Cli.Infrastructure;
@@ -84,5 +85,6 @@ public sealed class CliHost
     public CliHost WithClock(TimeProvider clock) => new(Console, RawOut, Error, ShowProgress, Today, WorkingDirectory, clock);
 
     /// <summary>An absolute path for a user-given one.</summary>
-    public string Resolve(string path) => Path.GetFullPath(path, WorkingDirectory);
+    /// <remarks>A PostgreSQL register URI (postgresql://, postgres://) is returned as it is.</remarks>
+    public string Resolve(string path) => RegisterLocation.IsPostgres(path) ? path : Path.GetFullPath(path, WorkingDirectory);
 }

@@ -25,7 +25,7 @@ public class RegisterSettings : CommonSettings
 
     /// <summary>The register file.</summary>
     [CommandOption("-r|--register <FILE>")]
-    [Description("The register file (SQLite). Defaults to the INSPECTION_UPDATE_REGISTER environment variable.")]
+    [Description("The register: a SQLite file, or a PostgreSQL URI postgresql://user@host:port/database (password from PGPASSWORD or ~/.pgpass, never here). Defaults to the INSPECTION_UPDATE_REGISTER environment variable.")]
     public string? Register { get; init; }
 
     /// <summary>The register path, resolved, or a bad-input error when none was given.</summary>
@@ -35,7 +35,7 @@ public class RegisterSettings : CommonSettings
         var path = Register ?? Environment.GetEnvironmentVariable(EnvironmentVariable);
         if (string.IsNullOrWhiteSpace(path))
         {
-            throw new CliException("--register is missing: name the register file with --register FILE or set INSPECTION_UPDATE_REGISTER.");
+            throw new CliException("--register is missing: name the register file (or a postgresql:// URI) with --register FILE or set INSPECTION_UPDATE_REGISTER.");
         }
 
         return host.Resolve(path);
