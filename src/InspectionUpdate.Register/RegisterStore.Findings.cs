@@ -1,5 +1,5 @@
+using System.Data.Common;
 using System.Globalization;
-using Microsoft.Data.Sqlite;
 
 namespace InspectionUpdate.Register;
 
@@ -176,7 +176,7 @@ public sealed partial class RegisterStore
             $"f.component_id = $component AND {LatestAsOf}{(includeWithdrawn ? "" : " AND fr.withdrawn = 0")} ORDER BY fr.inspection_date, fr.finding_id",
             ("$component", componentId), ("$asOf", AsOfText(asOf))));
 
-    private static List<FindingRevision> ReadRevisions(SqliteConnection c, SqliteTransaction t, string where, params (string, object?)[] parameters) =>
+    private static List<FindingRevision> ReadRevisions(DbConnection c, DbTransaction t, string where, params (string, object?)[] parameters) =>
         Sql.Query(c, t, RevisionSelect + "WHERE " + where, r =>
         {
             if (!TryParseKind(r.Text("kind"), out var kind))
@@ -191,7 +191,7 @@ public sealed partial class RegisterStore
                 r.NullableLong("import_batch_id"), r.Provenance(true));
         }, parameters);
 
-    private static long InsertNewFinding(SqliteConnection c, SqliteTransaction t, FindingValidation validation, NewFinding finding,
+    private static long InsertNewFinding(DbConnection c, DbTransaction t, FindingValidation validation, NewFinding finding,
         string actor, string reason, long? importBatchId, string now)
     {
         var resolved = validation.Resolve(finding);
@@ -202,7 +202,7 @@ public sealed partial class RegisterStore
         return id;
     }
 
-    private static void InsertRevision(SqliteConnection c, SqliteTransaction t, long findingId, int revision, long? supersedes, NewFinding f,
+    private static void InsertRevision(DbConnection c, DbTransaction t, long findingId, int revision, long? supersedes, NewFinding f,
         long? methodId, bool withdrawn, string actor, string reason, long? importBatchId, string now) =>
         Sql.Insert(c, t,
             "INSERT INTO finding_revision (finding_id, revision, supersedes_revision_id, inspection_date, kind, method_id, measured_size_mm, " +
@@ -214,7 +214,7 @@ public sealed partial class RegisterStore
             ("$at", now), ("$by", actor), ("$reason", reason), ("$batch", importBatchId));
 
     /// <summary>Validation of findings inside one transaction, caching components, methods and live duplicate keys.</summary>
-    private sealed class FindingValidation(RegisterStore store, SqliteConnection c, SqliteTransaction t)
+    private sealed class FindingValidation(RegisterStore store, DbConnection c, DbTransaction t)
     {
         private readonly Dictionary<string, (long Id, DateOnly Install, double? WallMm)?> _components = new(StringComparer.Ordinal);
         private readonly Dictionary<string, long?> _methods = new(StringComparer.Ordinal);

@@ -1,4 +1,5 @@
 using System.ComponentModel;
+using InspectionUpdate.Register;
 using Spectre.Console.Cli;
 
 namespace InspectionUpdate.Cli.Infrastructure;
@@ -38,6 +39,7 @@ public class RegisterSettings : CommonSettings
             throw new CliException("--register is missing: name the register file (or a postgresql:// URI) with --register FILE or set INSPECTION_UPDATE_REGISTER.");
         }
 
-        return host.Resolve(path);
+        // A URI from the environment may carry its password (the environment is not shown by ps); one given with -r may not.
+        return Register is null && RegisterLocation.IsPostgres(path) ? path : host.Resolve(path);
     }
 }
