@@ -133,6 +133,12 @@ public sealed partial class RegisterStore
     /// <summary>The database named by a PostgreSQL register URI (the roles are named after it).</summary>
     public static string PostgresDatabase(string uri) => PostgresConnection(uri).Builder.Database ?? "";
 
+    /// <summary>The Npgsql connection string of a register URI (tests and tools that need a raw connection).</summary>
+    public static string PostgresConnectionString(string uri) => PostgresConnection(uri).Builder.ConnectionString;
+
+    /// <summary>The login a register URI names (PGUSER or the OS user when the URI names none).</summary>
+    public static string PostgresConnectionUser(string uri) => PostgresConnection(uri).Builder.Username ?? "";
+
     /// <summary>Whether a register URI carries a password (the command line refuses it: ps would show it).</summary>
     public static bool UriHasPassword(string uri) =>
         Uri.TryCreate(uri, UriKind.Absolute, out var u) && u.UserInfo.Contains(':', StringComparison.Ordinal);
