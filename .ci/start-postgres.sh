@@ -12,7 +12,7 @@
 #   INSPECTION_UPDATE_PG_URI=unavailable: <why>
 # and exits 0 in both cases: .ci/run exports the value so that the PostgreSQL tests run or say why they skipped.
 # The tests authenticate with trust on 127.0.0.1 (a throw-away cluster): no password anywhere.
-# Stop it with: .ci/start-postgres.sh stop   (reads the folder from /tmp/iu-ci-pg.dir)
+# Stop it with: .ci/start-postgres.sh stop   (same PG_PORT; reads the folder from /tmp/iu-ci-pg.PORT.dir)
 set -uo pipefail
 
 say_unavailable() {
@@ -28,7 +28,7 @@ find_bin() {
 }
 
 PORT="${PG_PORT:-55432}"
-STATE=/tmp/iu-ci-pg.dir
+STATE=/tmp/iu-ci-pg.$PORT.dir
 
 run_as() { # user, command...
   local user=$1

@@ -1,5 +1,5 @@
-using InspectionUpdate.Register;
 using System.Data.Common;
+using InspectionUpdate.Register;
 
 namespace InspectionUpdate.Tests.Register;
 
