@@ -7,7 +7,7 @@ using InspectionUpdate.Register;
 //   dotnet run -c Release --project bench/InspectionUpdate.RegisterWriters -- <register> <writers,...> <findings-per-writer>
 //
 // The register must exist and hold components and a method (e.g. 'inspection-update register invent'); findings are
-// added to them (no-indication, dated from 2000-01-01 on, a location unique to the run, writer and finding), one
+// added to them (no-indication, dated from the day after each component's install date on, a location unique to the run, writer and finding), one
 // write transaction each, through the public API (validation, duplicate check, audit row: what 'finding log' does).
 // For each writer count the writers are started as separate processes, wait at a start barrier, write, and report;
 // the figure is all findings / wall-clock seconds from the barrier to the last writer's end.
@@ -15,7 +15,7 @@ if (args.Length >= 1 && args[0] == "writer")
 {
     // writer <register> <barrier-file> <tag> <count>
     using var store = RegisterLocation.Open(args[1], RegisterOpenMode.OpenExisting);
-    var components = store.ComponentIndex(DateTimeOffset.MaxValue).Select(c => c.Code).ToArray();
+    var components = store.ComponentIndex(DateTimeOffset.MaxValue).ToArray();
     var method = store.Methods()[0].Name;
     var count = int.Parse(args[4], CultureInfo.InvariantCulture);
     Console.WriteLine("ready");
@@ -23,7 +23,8 @@ if (args.Length >= 1 && args[0] == "writer")
     var watch = Stopwatch.StartNew();
     for (var i = 0; i < count; i++)
     {
-        var finding = new NewFinding(components[i % components.Length], new DateOnly(2000, 1, 1).AddDays(i / components.Length), FindingKind.NoIndication, method,
+        var component = components[i % components.Length];
+        var finding = new NewFinding(component.Code, component.InstallDate.AddDays(1 + (i / components.Length)), FindingKind.NoIndication, method,
             Location: FormattableString.Invariant($"{args[3]}-{i}"));
         store.AddFinding(finding, "bench", "writer benchmark").Require();
     }

@@ -39,7 +39,7 @@ public static class CliApp
             config.AddBranch("register", b =>
             {
                 b.SetDescription("Create, check and assess a register (a SQLite file or a PostgreSQL database of sites, components, methods, findings, repairs and stored results).");
-                Add<RegisterCreateCommand>(b, "register create").WithDescription("Create an empty register file.")
+                Add<RegisterCreateCommand>(b, "register create").WithDescription("Create an empty register: a SQLite file, or a PostgreSQL database named by a postgresql:// URI (tables, roles and grants).")
                     .WithExample("register", "create", "plant.register");
                 Add<RegisterCheckCommand>(b, "register check").WithDescription("Check the register's integrity and print its fingerprint.")
                     .WithExample("register", "check", "-r", "plant.register");

@@ -104,7 +104,7 @@ public sealed partial class RegisterStore
 
             if (ofRevision is { } seen && seen != latest.Revision)
             {
-                return (WriteResult<FindingRevision>.Refused([new("revision", seen.ToString(CultureInfo.InvariantCulture), seen > latest.Revision
+                return (WriteResult<FindingRevision>.Refused([new("revision", seen.ToString(CultureInfo.InvariantCulture), seen > latest.Revision || seen < 1
                     ? FormattableString.Invariant($"finding {findingId} has no revision {seen} (its latest is {latest.Revision})")
                     : FormattableString.Invariant($"finding {findingId} revision {seen} was superseded by revision {latest.Revision}, recorded by {latest.Recorded.RecordedBy} at {Sql.Utc(latest.Recorded.RecordedUtc)}: nothing was written; read the finding again and correct revision {latest.Revision}"))]), false);
             }

@@ -14,7 +14,7 @@ public sealed class RegisterCreateSettings : CommonSettings
 {
     /// <summary>File to create.</summary>
     [CommandArgument(0, "<FILE>")]
-    [Description("The register file to create (must not exist).")]
+    [Description("The register to create: a SQLite file that must not exist, or a postgresql:// URI of an empty database.")]
     public string File { get; init; } = string.Empty;
 }
 
@@ -319,7 +319,7 @@ public sealed class RegisterInventSettings : CommonSettings
 {
     /// <summary>File to create.</summary>
     [CommandArgument(0, "<FILE>")]
-    [Description("The register file to create (must not exist).")]
+    [Description("The register to create: a SQLite file that must not exist, or a postgresql:// URI of an empty database.")]
     public string File { get; init; } = string.Empty;
 
     /// <summary>Component count.</summary>
