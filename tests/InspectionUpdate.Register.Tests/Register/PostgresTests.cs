@@ -198,6 +198,35 @@ public class PostgresTests
     }
 
     [SkippableFact]
+    [Reference("PostgreSQL deadlock detection: after deadlock_timeout (1 s) the waiter that checks aborts with SQLSTATE 40P01 (postgresql.org/docs/15/explicit-locking.html §13.3.4)")]
+    public async Task A_write_aborted_by_a_deadlock_is_retried_and_written_once()
+    {
+        using var r = new TestRegister(RegisterStoreKind.PostgreSql);
+        await using var raw = new NpgsqlConnection(new NpgsqlConnectionStringBuilder(PostgresServer.ConnectionString(r.Database!)) { Pooling = false }.ConnectionString);
+        await raw.OpenAsync();
+        await using var transaction = await raw.BeginTransactionAsync();
+        await using (var share = new NpgsqlCommand("LOCK TABLE finding IN SHARE MODE", raw, transaction))
+        {
+            await share.ExecuteNonQueryAsync();
+        }
+
+        // The register's write takes its advisory lock, then waits for the table; the other session then waits for the
+        // advisory lock: a deadlock. The register's write waited first, so its check fires first and it is the victim.
+        var write = Task.Run(() => r.Store.AddFinding(new NewFinding(TestRegister.Component, new DateOnly(2020, 5, 4), FindingKind.NoIndication, TestRegister.Ut), "A", "deadlock test"));
+        await Task.Delay(TimeSpan.FromMilliseconds(400));
+        await using (var take = new NpgsqlCommand("SELECT pg_advisory_xact_lock(1230328391)", raw, transaction))
+        {
+            await take.ExecuteNonQueryAsync(); // 0x49555247, the register's write lock
+        }
+
+        await transaction.CommitAsync();
+        var stored = (await write.WaitAsync(TimeSpan.FromMinutes(1))).Require();
+        Assert.Equal(1, stored.Revision);
+        Assert.Equal(1, r.Count("finding"));
+        Assert.Equal(1, r.Count("finding_revision"));
+    }
+
+    [SkippableFact]
     [Reference("Design rule (issue 17): a correction of a revision another user has superseded is refused, not applied over it")]
     public void A_correction_of_a_revision_another_user_superseded_is_refused_with_nothing_written()
     {
