@@ -267,7 +267,10 @@ public sealed partial class RegisterStore
         }
     }
 
-    /// <summary>The register check on PostgreSQL: version, triggers, revision chains, unvalidated constraints.</summary>
+    /// <summary>
+    /// The register check on PostgreSQL: version, triggers, revision chains, unvalidated constraints. Page integrity is
+    /// the server's (pg_amcheck), not checked here: IntegrityCheck is reported as "ok" so that the rest decides health.
+    /// </summary>
     private static (IReadOnlyList<string> Integrity, IReadOnlyList<string> Foreign, int Version, List<string> Invariants, HashSet<string> Triggers) PostgresCheckFacts(DbConnection c, DbTransaction t)
     {
         var version = Migrations.ReadPostgresVersion(c, t) ?? 0;

@@ -114,7 +114,9 @@ public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterChec
             Table(["check", "result"],
             [
                 ["schema version", check.SchemaVersion.ToString(System.Globalization.CultureInfo.InvariantCulture)],
-                ["SQLite integrity", string.Join("; ", check.IntegrityCheck)],
+                store.Kind == RegisterStoreKind.PostgreSql
+                    ? ["page integrity", "not checked by this program on PostgreSQL (use pg_amcheck)"]
+                    : ["SQLite integrity", string.Join("; ", check.IntegrityCheck)],
                 ["foreign keys", check.ForeignKeyViolations.Count == 0 ? "ok" : string.Join("; ", check.ForeignKeyViolations)],
                 ["register invariants", check.InvariantViolations.Count == 0 ? "ok" : string.Join("; ", check.InvariantViolations)],
                 ["component models", check.InvalidModels.Count == 0 ? "ok" : $"{check.InvalidModels.Count.ToString(System.Globalization.CultureInfo.InvariantCulture)} do not pass (listed below)"],
