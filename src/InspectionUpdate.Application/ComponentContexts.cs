@@ -32,7 +32,7 @@ public static class ComponentContexts
     /// with evidence up to <paramref name="asOf"/> (the evidence cut is made by the request).
     /// </summary>
     /// <remarks>Hashes the whole register for the report's fingerprint: for many components use the overload that takes a <see cref="RegisterSnapshot"/>.</remarks>
-    public static ComponentContext FromRegister(RegisterStore store, InspectionUpdate.Register.Component component, DateOnly asOf, DateOnly? knownOn = null) =>
+    public static ComponentContext FromRegister(IRegister store, InspectionUpdate.Register.Component component, DateOnly asOf, DateOnly? knownOn = null) =>
         FromRegister(new RegisterSnapshot(store, asOf, knownOn), component);
 
     /// <summary>

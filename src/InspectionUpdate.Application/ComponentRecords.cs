@@ -26,7 +26,7 @@ public sealed record ComponentRecords(Component Component, Site? Site, IReadOnly
 public static class ComponentRecordsReader
 {
     /// <summary>The component's records, or bad input naming the code.</summary>
-    public static ComponentRecords Read(RegisterStore store, string code)
+    public static ComponentRecords Read(IRegister store, string code)
     {
         ArgumentNullException.ThrowIfNull(store);
         var component = Registers.Component(store, code);
@@ -41,14 +41,14 @@ public static class ComponentRecordsReader
     }
 
     /// <summary>The finding's current revision, or null when the register has no finding with that id.</summary>
-    public static FindingRevision? Finding(RegisterStore store, long findingId)
+    public static FindingRevision? Finding(IRegister store, long findingId)
     {
         ArgumentNullException.ThrowIfNull(store);
         return store.GetFinding(findingId);
     }
 
     /// <summary>The method names known to the register.</summary>
-    public static IReadOnlyList<string> MethodNames(RegisterStore store)
+    public static IReadOnlyList<string> MethodNames(IRegister store)
     {
         ArgumentNullException.ThrowIfNull(store);
         return store.Methods().Select(m => m.Name).Order(StringComparer.Ordinal).ToArray();

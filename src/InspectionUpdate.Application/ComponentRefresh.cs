@@ -24,7 +24,7 @@ public sealed record ComponentResult(ComponentContext Context, AssessmentRequest
 public static class ComponentRefresh
 {
     /// <summary>The key a result of the component would be filed under now (changes with every finding, repair, model revision or option).</summary>
-    public static string Key(RegisterStore store, string code, PortfolioOptions options)
+    public static string Key(IRegister store, string code, PortfolioOptions options)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(options);
@@ -34,7 +34,7 @@ public static class ComponentRefresh
     }
 
     /// <summary>The stored result of the component for the options' date and options, or null when none is stored.</summary>
-    public static StoredResult? Stored(RegisterStore store, string code, PortfolioOptions options)
+    public static StoredResult? Stored(IRegister store, string code, PortfolioOptions options)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(options);
@@ -43,7 +43,7 @@ public static class ComponentRefresh
 
     /// <summary>Assesses and plans the component (with a schedule when <paramref name="schedule"/>) and stores the result.</summary>
     /// <exception cref="ApplicationFailureException">The component is unknown, not in service by the date, or its model or evidence is bad input.</exception>
-    public static ComponentResult Run(RegisterStore store, string code, PortfolioOptions options, bool schedule, Action<double> progress)
+    public static ComponentResult Run(IRegister store, string code, PortfolioOptions options, bool schedule, Action<double> progress)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(options);

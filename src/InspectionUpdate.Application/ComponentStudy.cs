@@ -48,7 +48,7 @@ public sealed record ComponentContext
     /// <summary>Fingerprint of the register state (or of the input files).</summary>
     public required string Fingerprint { get; init; }
 
-    /// <summary>Fingerprint of what this component's numbers rest on (<see cref="InspectionUpdate.Register.RegisterStore.ComponentFingerprint"/>; for files, of the files).</summary>
+    /// <summary>Fingerprint of what this component's numbers rest on (<see cref="InspectionUpdate.Register.IRegister.ComponentFingerprint"/>; for files, of the files).</summary>
     public string ComponentFingerprint { get; init; } = string.Empty;
 
     /// <summary>Revision of the component's model definition in the register (1 for a model file).</summary>

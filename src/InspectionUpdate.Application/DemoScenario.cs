@@ -85,7 +85,7 @@ public static class DemoRegister
 
     /// <summary>Adds the scenario's sites, methods, components, findings, corrections and repairs to <paramref name="store"/>.</summary>
     /// <exception cref="ApplicationFailureException">A row of the scenario is refused (every problem listed).</exception>
-    public static DemoRegisterSummary Build(RegisterStore store, DemoScenario scenario, string sampleData)
+    public static DemoRegisterSummary Build(IRegister store, DemoScenario scenario, string sampleData)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(scenario);

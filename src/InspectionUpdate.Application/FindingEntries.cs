@@ -53,7 +53,7 @@ public static class FindingEntries
     public static string Text(FindingKind kind) => RegisterStore.KindText(kind);
 
     /// <summary>Logs a new finding, recorded by <paramref name="actor"/>.</summary>
-    public static FindingWrite Log(RegisterStore store, FindingInput input, string actor)
+    public static FindingWrite Log(IRegister store, FindingInput input, string actor)
     {
         ArgumentNullException.ThrowIfNull(store);
         var (finding, problems) = Parse(input);
@@ -64,7 +64,7 @@ public static class FindingEntries
     }
 
     /// <summary>Corrects a finding: a new revision with who and why; the old one is kept.</summary>
-    public static FindingWrite Correct(RegisterStore store, long findingId, FindingInput input, string actor, string? reason)
+    public static FindingWrite Correct(IRegister store, long findingId, FindingInput input, string actor, string? reason)
     {
         ArgumentNullException.ThrowIfNull(store);
         var (finding, problems) = Parse(input);
@@ -75,7 +75,7 @@ public static class FindingEntries
     }
 
     /// <summary>Withdraws a finding logged in error: a new revision marked withdrawn, with who and why.</summary>
-    public static FindingWrite Withdraw(RegisterStore store, long findingId, string actor, string? reason)
+    public static FindingWrite Withdraw(IRegister store, long findingId, string actor, string? reason)
     {
         ArgumentNullException.ThrowIfNull(store);
         if (string.IsNullOrWhiteSpace(reason)) return new FindingWrite(null, [new ValidationProblem("reason", reason, "a withdrawal needs a reason")]);
@@ -84,7 +84,7 @@ public static class FindingEntries
     }
 
     /// <summary>Imports a CSV of findings (the register's import: all rows or none, every problem with its line).</summary>
-    public static ImportResult Import(RegisterStore store, TextReader csv, string sourceName, string actor)
+    public static ImportResult Import(IRegister store, TextReader csv, string sourceName, string actor)
     {
         ArgumentNullException.ThrowIfNull(store);
         return store.ImportFindingsCsv(csv, sourceName, actor, "imported in the web view from " + sourceName);
@@ -124,7 +124,7 @@ public static class FindingEntries
     }
 
     /// <summary>Parsing problems plus the register's own problems on the fields that did parse; nothing is written.</summary>
-    private static FindingWrite Merge(RegisterStore store, List<ValidationProblem> problems, FindingInput input, NewFinding? finding = null, long? self = null)
+    private static FindingWrite Merge(IRegister store, List<ValidationProblem> problems, FindingInput input, NewFinding? finding = null, long? self = null)
     {
         if (finding is null)
         {

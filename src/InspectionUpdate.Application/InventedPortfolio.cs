@@ -20,7 +20,7 @@ public static class InventedPortfolio
     /// <param name="count">Number of components (≥ 1).</param>
     /// <param name="seed">Seed of the invention.</param>
     /// <param name="latestFinding">No finding after this date.</param>
-    public static void Create(RegisterStore store, int count, int seed, DateOnly latestFinding)
+    public static void Create(IRegister store, int count, int seed, DateOnly latestFinding)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentOutOfRangeException.ThrowIfLessThan(count, 1);
@@ -72,7 +72,7 @@ public static class InventedPortfolio
         Flush(store, csv, actor);
     }
 
-    private static void Flush(RegisterStore store, StringBuilder csv, string actor)
+    private static void Flush(IRegister store, StringBuilder csv, string actor)
     {
         if (csv.Length == 0) return;
         var text = "component_code,inspection_date,kind,method,measured_size_mm,remaining_wall_mm,location,note\n" + csv;

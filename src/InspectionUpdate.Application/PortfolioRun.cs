@@ -68,7 +68,7 @@ public static class PortfolioRun
 {
     /// <summary>Runs over <paramref name="store"/>, writing to <paramref name="sink"/> (the register itself, or a shard results file).</summary>
     /// <exception cref="ApplicationFailureException">The sink refused a write (register problem).</exception>
-    public static PortfolioSummary Run(RegisterStore store, IResultSink sink, PortfolioOptions options, IProgress<PortfolioProgress>? progress = null, CancellationToken cancellation = default)
+    public static PortfolioSummary Run(IRegister store, IResultSink sink, PortfolioOptions options, IProgress<PortfolioProgress>? progress = null, CancellationToken cancellation = default)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(sink);
@@ -112,7 +112,7 @@ public static class PortfolioRun
 
                 Save(sink, batch, failures, downgraded);
             }
-            catch (Exception e) when (e is Microsoft.Data.Sqlite.SqliteException or IOException or InvalidOperationException)
+            catch (Exception e) when (e is System.Data.Common.DbException or IOException or InvalidOperationException)
             {
                 writeFailure = e;
                 stop.Cancel();
@@ -183,7 +183,7 @@ public static class PortfolioRun
         {
             sink.Save(batch);
         }
-        catch (Microsoft.Data.Sqlite.SqliteException) when (batch.Count > 1 || batch[0].Status != ResultStatus.Failed)
+        catch (System.Data.Common.DbException) when (batch.Count > 1 || batch[0].Status != ResultStatus.Failed)
         {
             foreach (var row in batch)
             {
@@ -191,7 +191,7 @@ public static class PortfolioRun
                 {
                     sink.Save([row]);
                 }
-                catch (Microsoft.Data.Sqlite.SqliteException e) when (row.Status != ResultStatus.Failed)
+                catch (System.Data.Common.DbException e) when (row.Status != ResultStatus.Failed)
                 {
                     var reason = "result could not be stored: " + e.Message;
                     failures.Add(new PortfolioFailure(row.ComponentCode, reason));

@@ -34,7 +34,7 @@ public sealed record RegisterOverviewData(DateOnly AsOf, string OptionsKey, doub
 public static class RegisterOverview
 {
     /// <summary>Every component in service as of the options' date with its stored result (computed by <see cref="PortfolioRun"/> or <see cref="ComponentRefresh"/>).</summary>
-    public static RegisterOverviewData Read(RegisterStore store, PortfolioOptions options)
+    public static RegisterOverviewData Read(IRegister store, PortfolioOptions options)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(options);

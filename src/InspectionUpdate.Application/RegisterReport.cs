@@ -58,7 +58,7 @@ public static class RegisterReport
 
     /// <summary>Writes index.html and the CSV into <paramref name="folder"/>, and the requested component pages.</summary>
     /// <exception cref="ApplicationFailureException">A requested component or site has no stored result, or no result is stored for these options.</exception>
-    public static RegisterReportSummary Write(RegisterStore store, string folder, string title, RegisterReportOptions options)
+    public static RegisterReportSummary Write(IRegister store, string folder, string title, RegisterReportOptions options)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(options);

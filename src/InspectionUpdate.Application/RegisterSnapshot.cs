@@ -16,7 +16,7 @@ public sealed class RegisterSnapshot
     /// Creates the snapshot of <paramref name="store"/> as recorded at the end of <paramref name="knownOn"/> (default:
     /// <paramref name="asOf"/>), for evidence up to <paramref name="asOf"/>.
     /// </summary>
-    public RegisterSnapshot(RegisterStore store, DateOnly asOf, DateOnly? knownOn = null)
+    public RegisterSnapshot(IRegister store, DateOnly asOf, DateOnly? knownOn = null)
     {
         ArgumentNullException.ThrowIfNull(store);
         Store = store;
@@ -29,7 +29,7 @@ public sealed class RegisterSnapshot
     }
 
     /// <summary>The register.</summary>
-    public RegisterStore Store { get; }
+    public IRegister Store { get; }
 
     /// <summary>The evidence date.</summary>
     public DateOnly AsOf { get; }

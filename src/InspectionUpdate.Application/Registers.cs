@@ -1,6 +1,5 @@
 using System.Globalization;
 using InspectionUpdate.Register;
-using Microsoft.Data.Sqlite;
 
 namespace InspectionUpdate.Application;
 
@@ -10,18 +9,21 @@ public static class Registers
     /// <summary>The post-repair prior that renews nothing beyond the model's own renewed inputs (which restart with their original prior).</summary>
     public const string OriginalPostRepairPrior = "{\"inputs\": {}}";
 
-    /// <summary>Opens a register; a missing, foreign or newer file is a register failure.</summary>
-    public static RegisterStore Open(string path, RegisterOpenMode mode, TimeProvider clock)
+    /// <summary>
+    /// Opens a register; a missing, foreign or newer file is a register failure. The store follows the location: a
+    /// <c>postgresql://</c> (or <c>postgres://</c>) URI opens the PostgreSQL store, anything else the SQLite file.
+    /// </summary>
+    public static IRegister Open(string path, RegisterOpenMode mode, TimeProvider clock)
     {
         try
         {
-            return RegisterStore.Open(path, mode, new RegisterOptions(clock));
+            return RegisterLocation.Open(path, mode, new RegisterOptions(clock));
         }
         catch (RegisterFileException e)
         {
             throw ApplicationFailureException.Register(e.Message, e);
         }
-        catch (SqliteException e)
+        catch (System.Data.Common.DbException e)
         {
             throw ApplicationFailureException.Register($"The register '{path}' cannot be used: {e.Message}", e);
         }
@@ -57,7 +59,7 @@ public static class Registers
     public static DateTimeOffset AsKnownOn(DateOnly date) => RegisterStore.EndOfDay(date);
 
     /// <summary>A component by code, or bad input naming the code.</summary>
-    public static Component Component(RegisterStore store, string code)
+    public static Component Component(IRegister store, string code)
     {
         ArgumentNullException.ThrowIfNull(store);
         return store.FindComponent(code) ?? throw ApplicationFailureException.BadInput("component", code, "is not in the register.");
@@ -68,7 +70,7 @@ public static class Registers
     /// recorded after that date is bad input naming the option, the component, the date and the recording date; an
     /// unknown code names the code.
     /// </summary>
-    public static Component Component(RegisterStore store, string code, DateOnly asOf, string option = "--as-of")
+    public static Component Component(IRegister store, string code, DateOnly asOf, string option = "--as-of")
     {
         ArgumentNullException.ThrowIfNull(store);
         if (store.FindComponent(code, AsKnownOn(asOf)) is { } known) return known;

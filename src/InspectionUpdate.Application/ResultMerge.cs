@@ -25,7 +25,7 @@ public sealed record StoredResultsCheck(int Stored, IReadOnlyList<StaleResult> S
 public static class StoredResults
 {
     /// <summary>Why <paramref name="row"/> no longer holds for the register (null when its key matches the key computed now).</summary>
-    public static string? WhyStale(RegisterStore store, StoredResult row)
+    public static string? WhyStale(IRegister store, StoredResult row)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(row);
@@ -45,7 +45,7 @@ public static class StoredResults
     }
 
     /// <summary>Checks every stored result of the register against its key.</summary>
-    public static StoredResultsCheck Check(RegisterStore store)
+    public static StoredResultsCheck Check(IRegister store)
     {
         ArgumentNullException.ThrowIfNull(store);
         var rows = store.Results();
@@ -60,7 +60,7 @@ public static class StoredResults
     /// Writing is in batches, each one transaction; findings are never touched.
     /// </summary>
     /// <exception cref="ApplicationFailureException">A file is missing or not a shard results file (nothing of it is written).</exception>
-    public static MergeSummary Merge(RegisterStore store, IReadOnlyList<string> files)
+    public static MergeSummary Merge(IRegister store, IReadOnlyList<string> files)
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(files);

@@ -38,8 +38,8 @@ public static class CliApp
             strict.Branch("register");
             config.AddBranch("register", b =>
             {
-                b.SetDescription("Create, check and assess a register (the SQLite file of sites, components, methods, findings, repairs and stored results).");
-                Add<RegisterCreateCommand>(b, "register create").WithDescription("Create an empty register file.")
+                b.SetDescription("Create, check and assess a register (a SQLite file or a PostgreSQL database of sites, components, methods, findings, repairs and stored results).");
+                Add<RegisterCreateCommand>(b, "register create").WithDescription("Create an empty register: a SQLite file, or a PostgreSQL database named by a postgresql:// URI (tables, roles and grants).")
                     .WithExample("register", "create", "plant.register");
                 Add<RegisterCheckCommand>(b, "register check").WithDescription("Check the register's integrity and print its fingerprint.")
                     .WithExample("register", "check", "-r", "plant.register");
@@ -51,6 +51,8 @@ public static class CliApp
                 Add<RegisterReportCommand>(b, "register report").WithDescription("Write the register report from stored results (ranking, due dates, distributions, due inspections per year and site); component pages only on request.")
                     .WithExample("register", "report", "--as-of", "2025-06-30", "-r", "plant.register", "-o", "reports")
                     .WithExample("register", "report", "--as-of", "2025-06-30", "-r", "plant.register", "--above", "1e-4");
+                Add<RegisterCopyCommand>(b, "register copy").WithDescription("Copy a whole register (all revisions, audit trail, stored results) between a SQLite file and a PostgreSQL database; the fingerprints match.")
+                    .WithExample("register", "copy", "plant.register", "postgresql://owner@db.example:5432/plant");
                 Add<RegisterInventCommand>(b, "register invent").WithDescription("Create a register of invented components (benchmarks and trials).")
                     .WithExample("register", "invent", "trial.register", "--components", "1000");
             });

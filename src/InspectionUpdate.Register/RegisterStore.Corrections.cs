@@ -1,5 +1,5 @@
+using System.Data.Common;
 using InspectionUpdate.Inspection;
-using Microsoft.Data.Sqlite;
 
 namespace InspectionUpdate.Register;
 
@@ -114,18 +114,21 @@ public sealed partial class RegisterStore
         return (IReadOnlyList<StoredMethod>)[method, .. corrections];
     });
 
-    private static Site WithSiteCorrection(SqliteConnection c, SqliteTransaction t, Site site, string asOfText) =>
+    private static Site WithSiteCorrection(DbConnection c, DbTransaction t, Site site, string asOfText) =>
         LatestSiteRevision(c, t, site.Id, asOfText) is { } latest ? site with { Name = latest.Name, Revision = latest.Revision } : site;
 
-    private static bool HoldsCorrections(SqliteConnection c, SqliteTransaction t) => Schema.Migrations.ReadVersion(c, t) >= Schema.Migrations.CorrectionsVersion;
+    // A PostgreSQL register is migrated to the current version when opened; a SQLite file may be older in migration tests.
+    private static bool HoldsCorrections(DbConnection c, DbTransaction t) =>
+        c is not Microsoft.Data.Sqlite.SqliteConnection sqlite
+        || Schema.Migrations.ReadVersion(sqlite, (Microsoft.Data.Sqlite.SqliteTransaction)t) >= Schema.Migrations.CorrectionsVersion;
 
-    private static (long RevisionId, int Revision, string Name, DateTimeOffset Recorded)? LatestSiteRevision(SqliteConnection c, SqliteTransaction t, long siteId, string asOfText) =>
+    private static (long RevisionId, int Revision, string Name, DateTimeOffset Recorded)? LatestSiteRevision(DbConnection c, DbTransaction t, long siteId, string asOfText) =>
         !HoldsCorrections(c, t) ? null : Sql.Query(c, t, "SELECT site_revision_id, revision, name, recorded_utc FROM site_revision WHERE site_id = $id AND recorded_utc <= $asOf ORDER BY revision DESC LIMIT 1",
             r => ((long RevisionId, int Revision, string Name, DateTimeOffset Recorded)?)(r.Long("site_revision_id"), (int)r.Long("revision"), r.Text("name"), Sql.ParseUtc(r.Text("recorded_utc"))),
             ("$id", siteId), ("$asOf", asOfText)).SingleOrDefault();
 
     // The base row's id, name and first-recorded provenance, with the parameters of the latest correction recorded by then.
-    private static StoredMethod WithMethodCorrection(SqliteConnection c, SqliteTransaction t, StoredMethod method, string asOfText) =>
+    private static StoredMethod WithMethodCorrection(DbConnection c, DbTransaction t, StoredMethod method, string asOfText) =>
         !HoldsCorrections(c, t) ? method : Sql.Query(c, t,
             $"SELECT revision, {MethodParameterColumns} FROM inspection_method_revision WHERE method_id = $id AND recorded_utc <= $asOf ORDER BY revision DESC LIMIT 1",
             r => MethodParameters(r, method.Id, method.Name, method.Recorded) with { Revision = (int)r.Long("revision") },

@@ -1,6 +1,6 @@
+using System.Data.Common;
 using System.Globalization;
 using InspectionUpdate.Inspection;
-using Microsoft.Data.Sqlite;
 
 namespace InspectionUpdate.Register;
 
@@ -36,7 +36,7 @@ public sealed partial class RegisterStore
             var now = NowText();
             var id = Sql.Insert(c, t, "INSERT INTO site (code, name, recorded_utc, recorded_by) VALUES ($code, $name, $at, $by)",
                 ("$code", site.Code), ("$name", site.Name), ("$at", now), ("$by", actor));
-            return (WriteResult<Site>.Ok(new Site(id, site.Code, site.Name, new Provenance(Sql.ParseUtc(now), actor, ""))), true);
+            return (WriteResult<Site>.Ok(new Site(id, site.Code, site.Name, new Provenance(Sql.ParseUtc(now), Who(actor), ""))), true);
         });
     }
 
@@ -168,7 +168,7 @@ public sealed partial class RegisterStore
                 ("$component", id), ("$revision", latest.Revision + 1), ("$supersedes", latest.RevisionId), ("$json", definitionJson),
                 ("$version", modelVersion), ("$at", now), ("$by", actor), ("$reason", reason));
             return (WriteResult<ComponentModelRevision>.Ok(new ComponentModelRevision(revisionId, id.Value, latest.Revision + 1, definitionJson, modelVersion,
-                new Provenance(Sql.ParseUtc(now), actor, reason))), true);
+                new Provenance(Sql.ParseUtc(now), Who(actor), reason))), true);
         });
 
     /// <summary>
@@ -192,7 +192,7 @@ public sealed partial class RegisterStore
         var status = retired ? "retired" : "in-service";
         var statusId = Sql.Insert(c, t, "INSERT INTO component_status (component_id, status, recorded_utc, recorded_by, reason) VALUES ($id, $status, $at, $by, $reason)",
             ("$id", id), ("$status", status), ("$at", now), ("$by", actor), ("$reason", reason));
-        return (WriteResult<ComponentStatusChange>.Ok(new ComponentStatusChange(statusId, id!.Value, componentCode!, status, new Provenance(Sql.ParseUtc(now), actor, reason))), true);
+        return (WriteResult<ComponentStatusChange>.Ok(new ComponentStatusChange(statusId, id!.Value, componentCode!, status, new Provenance(Sql.ParseUtc(now), Who(actor), reason))), true);
     });
 
     /// <summary>Whether the component was retired as known on <paramref name="asOf"/> (now when null).</summary>
@@ -206,7 +206,7 @@ public sealed partial class RegisterStore
     /// <summary>Components in service (not retired) as known on <paramref name="asOf"/>: the ones reports and runs cover.</summary>
     public IReadOnlyList<Component> ComponentsInService(DateTimeOffset? asOf = null) => Components(asOf).Where(x => !IsRetired(x.Id, asOf)).ToList();
 
-    private static bool RetiredAsOf(SqliteConnection c, SqliteTransaction t, long componentId, DateTimeOffset asOf) =>
+    private static bool RetiredAsOf(DbConnection c, DbTransaction t, long componentId, DateTimeOffset asOf) =>
         Sql.Scalar(c, t, "SELECT status FROM component_status WHERE component_id = $id AND recorded_utc <= $asOf ORDER BY recorded_utc DESC, status_id DESC LIMIT 1",
             ("$id", componentId), ("$asOf", Sql.Utc(asOf))) as string == "retired";
 
@@ -288,14 +288,14 @@ public sealed partial class RegisterStore
         Read((c, t) => ReadMethods(c, t, AsOfText(null), "name = $name", ("$name", name ?? "")).SingleOrDefault());
 
     /// <summary>Methods selected by <paramref name="where"/>, each with its latest correction recorded on or before <paramref name="asOfText"/>.</summary>
-    private static List<StoredMethod> ReadMethods(SqliteConnection c, SqliteTransaction t, string asOfText, string where, params (string, object?)[] parameters) =>
+    private static List<StoredMethod> ReadMethods(DbConnection c, DbTransaction t, string asOfText, string where, params (string, object?)[] parameters) =>
         Sql.Query(c, t, $"SELECT {MethodColumns} FROM inspection_method WHERE {where} ORDER BY name", MethodFromRow, parameters)
             .Select(m => WithMethodCorrection(c, t, m, asOfText)).ToList();
 
     // Reads the method columns shared by inspection_method and inspection_method_revision (name, id and provenance from the caller's columns).
-    private static StoredMethod MethodFromRow(SqliteDataReader r) => MethodParameters(r, r.Long("method_id"), r.Text("name"), r.Provenance(false));
+    private static StoredMethod MethodFromRow(DbDataReader r) => MethodParameters(r, r.Long("method_id"), r.Text("name"), r.Provenance(false));
 
-    private static StoredMethod MethodParameters(SqliteDataReader r, long id, string name, Provenance recorded)
+    private static StoredMethod MethodParameters(DbDataReader r, long id, string name, Provenance recorded)
     {
         var additive = r.Text("sizing_kind") == "additive-normal";
         var sizing = additive
@@ -306,7 +306,7 @@ public sealed partial class RegisterStore
         return new StoredMethod(id, name, r.Text("description"), pod, sizing, recorded);
     }
 
-    private static Component? ReadComponent(SqliteConnection c, SqliteTransaction t, long id, DateTimeOffset asOf)
+    private static Component? ReadComponent(DbConnection c, DbTransaction t, long id, DateTimeOffset asOf)
     {
         var model = LatestModel(c, t, id, asOf);
         if (model is null)
@@ -320,12 +320,12 @@ public sealed partial class RegisterStore
             ("$id", id), ("$asOf", Sql.Utc(asOf))).SingleOrDefault();
     }
 
-    private static ComponentModelRevision? LatestModel(SqliteConnection c, SqliteTransaction t, long componentId, DateTimeOffset asOf) =>
+    private static ComponentModelRevision? LatestModel(DbConnection c, DbTransaction t, long componentId, DateTimeOffset asOf) =>
         Sql.Query(c, t,
             "SELECT * FROM component_model_revision WHERE component_id = $id AND recorded_utc <= $asOf ORDER BY revision DESC LIMIT 1",
             ReadModel, ("$id", componentId), ("$asOf", Sql.Utc(asOf))).SingleOrDefault();
 
-    private static ComponentModelRevision ReadModel(SqliteDataReader r) =>
+    private static ComponentModelRevision ReadModel(DbDataReader r) =>
         new(r.Long("model_revision_id"), r.Long("component_id"), (int)r.Long("revision"), r.Text("definition_json"), r.Text("model_version"), r.Provenance(true));
 
     private static void ValidateModel(List<ValidationProblem> problems, string? json, string? version)

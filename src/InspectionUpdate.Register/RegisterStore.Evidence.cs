@@ -1,10 +1,10 @@
+using System.Data.Common;
 using System.Globalization;
 using System.Security.Cryptography;
 using System.Text;
 using InspectionUpdate.Inspection;
 using InspectionUpdate.Time;
 using InspectionUpdate.Updating;
-using Microsoft.Data.Sqlite;
 
 namespace InspectionUpdate.Register;
 
@@ -39,7 +39,7 @@ public sealed partial class RegisterStore
         return (IReadOnlyDictionary<long, IReadOnlyList<InspectionOutcome>>)ids.ToDictionary(id => id, id => (IReadOnlyList<InspectionOutcome>)Evidence(c, t, id, asOf));
     });
 
-    private static List<InspectionOutcome> Evidence(SqliteConnection c, SqliteTransaction t, long componentId, DateTimeOffset asOf)
+    private static List<InspectionOutcome> Evidence(DbConnection c, DbTransaction t, long componentId, DateTimeOffset asOf)
     {
         var component = ReadComponent(c, t, componentId, asOf)
             ?? throw new ArgumentException(FormattableString.Invariant($"No component with id {componentId} in the register as of {Sql.Utc(asOf)}."), nameof(componentId));
@@ -82,7 +82,9 @@ public sealed partial class RegisterStore
     /// model revisions, methods, every finding and repair revision recorded by then (the audit trail is not included).
     /// Equal fingerprints mean an assessment run as of that instant sees the same data; print it in reports.
     /// </summary>
-    public string Fingerprint(DateTimeOffset asOf) => Read((c, t) => Hash(c, t, "inspection-update register schema " + SchemaVersion.ToString(CultureInfo.InvariantCulture),
+    public string Fingerprint(DateTimeOffset asOf) => Read((c, t) => FingerprintIn(c, t, asOf));
+
+    private string FingerprintIn(DbConnection c, DbTransaction t, DateTimeOffset asOf) => Hash(c, t, "inspection-update register schema " + SchemaVersion.ToString(CultureInfo.InvariantCulture),
     [
         ("site", "SELECT site_id, code, name, recorded_utc, recorded_by FROM site WHERE recorded_utc <= $asOf ORDER BY site_id"),
         ("component", "SELECT component_id, site_id, code, description, install_date, wall_thickness_mm, parameter_group, recorded_utc, recorded_by FROM component WHERE recorded_utc <= $asOf ORDER BY component_id"),
@@ -92,7 +94,7 @@ public sealed partial class RegisterStore
         ("repair_revision", "SELECT rr.repair_revision_id, rr.repair_id, r.component_id, rr.revision, rr.supersedes_revision_id, rr.repair_date, rr.description, rr.post_repair_prior_json, rr.withdrawn, rr.recorded_utc, rr.recorded_by, rr.reason FROM repair_revision rr JOIN repair r ON r.repair_id = rr.repair_id WHERE rr.recorded_utc <= $asOf ORDER BY rr.repair_revision_id"),
         ("site_revision", "SELECT site_revision_id, site_id, revision, name, recorded_utc, recorded_by, reason FROM site_revision WHERE recorded_utc <= $asOf ORDER BY site_revision_id"),
         ("inspection_method_revision", $"SELECT method_revision_id, method_id, revision, {MethodParameterColumns}, recorded_utc, recorded_by, reason FROM inspection_method_revision WHERE recorded_utc <= $asOf ORDER BY method_revision_id"),
-    ], ("$asOf", Sql.Utc(asOf))));
+    ], ("$asOf", Sql.Utc(asOf)));
 
     /// <summary>
     /// SHA-256 (hex) of what one component's numbers rest on, as known on <paramref name="asOf"/>: the component row,
@@ -115,7 +117,7 @@ public sealed partial class RegisterStore
         ("inspection_method_revision", $"SELECT method_id, revision, {MethodParameterColumns} FROM inspection_method_revision WHERE recorded_utc <= $asOf AND method_id IN (SELECT fr.method_id FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE f.component_id = $id AND fr.recorded_utc <= $asOf) ORDER BY method_revision_id"),
     ], ("$id", componentId), ("$asOf", Sql.Utc(asOf))));
 
-    private static string Hash(SqliteConnection c, SqliteTransaction t, string header, IReadOnlyList<(string Name, string Sql)> tables, params (string Name, object? Value)[] parameters)
+    private static string Hash(DbConnection c, DbTransaction t, string header, IReadOnlyList<(string Name, string Sql)> tables, params (string Name, object? Value)[] parameters)
     {
         var text = new StringBuilder();
         text.Append(header).Append('\n');
@@ -154,7 +156,7 @@ public sealed partial class RegisterStore
 
     /// <summary>The audit trail, oldest first, optionally limited to entries at or after <paramref name="since"/> and to one entity kind.</summary>
     public IReadOnlyList<AuditEntry> AuditTrail(DateTimeOffset? since = null, string? entity = null) => Read((c, t) => Sql.Query(c, t,
-        "SELECT * FROM audit_log WHERE at_utc >= $since AND ($entity IS NULL OR entity = $entity) ORDER BY audit_id",
+        "SELECT * FROM audit_log WHERE at_utc >= $since AND (CAST($entity AS TEXT) IS NULL OR entity = $entity) ORDER BY audit_id",
         r => new AuditEntry(r.Long("audit_id"), Sql.ParseUtc(r.Text("at_utc")), r.Text("actor"), r.Text("action"), r.Text("entity"), r.Long("entity_id"), r.Text("detail")),
         ("$since", Sql.Utc(since ?? DateTimeOffset.MinValue)), ("$entity", entity)));
 
@@ -164,25 +166,41 @@ public sealed partial class RegisterStore
     /// </summary>
     public RegisterCheckResult Check() => Read((c, t) =>
     {
-        var integrity = Sql.Query(c, t, "PRAGMA integrity_check", r => r.GetString(0));
-        var foreign = Sql.Query(c, t, "PRAGMA foreign_key_check", r =>
-            FormattableString.Invariant($"{r.GetString(0)} row {(r.IsDBNull(1) ? "?" : r.GetInt64(1).ToString(CultureInfo.InvariantCulture))} refers to a missing {r.GetString(2)} (constraint {r.GetInt64(3)})"));
+        IReadOnlyList<string> integrity, foreign;
         var invariants = new List<string>();
-        var version = Schema.Migrations.ReadVersion(c, t);
-        if (version != Schema.Migrations.Current)
+        int version;
+        HashSet<string> triggers;
+        if (Kind == RegisterStoreKind.PostgreSql)
         {
-            invariants.Add(FormattableString.Invariant($"schema version {version}, expected {Schema.Migrations.Current}"));
+            // PostgreSQL checks its own pages and enforces the foreign keys; unvalidated constraints are listed.
+            (integrity, foreign, version, invariants, triggers) = PostgresCheckFacts(c, t);
+            if (version != Schema.Migrations.Current)
+            {
+                invariants.Add(FormattableString.Invariant($"schema version {version}, expected {Schema.Migrations.Current}"));
+            }
+        }
+        else
+        {
+            integrity = Sql.Query(c, t, "PRAGMA integrity_check", r => r.GetString(0));
+            foreign = Sql.Query(c, t, "PRAGMA foreign_key_check", r =>
+                FormattableString.Invariant($"{r.GetString(0)} row {(r.IsDBNull(1) ? "?" : r.GetInt64(1).ToString(CultureInfo.InvariantCulture))} refers to a missing {r.GetString(2)} (constraint {r.GetInt64(3)})"));
+            version = Schema.Migrations.ReadVersion((Microsoft.Data.Sqlite.SqliteConnection)c, (Microsoft.Data.Sqlite.SqliteTransaction)t);
+            if (version != Schema.Migrations.Current)
+            {
+                invariants.Add(FormattableString.Invariant($"schema version {version}, expected {Schema.Migrations.Current}"));
+            }
+
+            // An immutable (read-only) connection reports its own journal mode: the file header tells the file's.
+            var journal = IsReadOnly ? (Schema.RegisterIdentity.IsWalFile(Path) ? "wal" : "delete")
+                : Convert.ToString(Sql.Scalar(c, t, "PRAGMA journal_mode"), CultureInfo.InvariantCulture);
+            if (!string.Equals(journal, "wal", StringComparison.OrdinalIgnoreCase))
+            {
+                invariants.Add($"journal mode is '{journal}', expected 'wal'");
+            }
+
+            triggers = Sql.Query(c, t, "SELECT name FROM sqlite_master WHERE type = 'trigger'", r => r.GetString(0)).ToHashSet(StringComparer.Ordinal);
         }
 
-        // An immutable (read-only) connection reports its own journal mode: the file header tells the file's.
-        var journal = IsReadOnly ? (Schema.RegisterIdentity.IsWalFile(Path) ? "wal" : "delete")
-            : Convert.ToString(Sql.Scalar(c, t, "PRAGMA journal_mode"), CultureInfo.InvariantCulture);
-        if (!string.Equals(journal, "wal", StringComparison.OrdinalIgnoreCase))
-        {
-            invariants.Add($"journal mode is '{journal}', expected 'wal'");
-        }
-
-        var triggers = Sql.Query(c, t, "SELECT name FROM sqlite_master WHERE type = 'trigger'", r => r.GetString(0)).ToHashSet(StringComparer.Ordinal);
         foreach (var table in Schema.Migrations.AppendOnlyTables)
         {
             foreach (var trigger in new[] { table + "_no_update", table + "_no_delete" })

@@ -1,5 +1,5 @@
+using System.Data.Common;
 using System.Globalization;
-using Microsoft.Data.Sqlite;
 
 namespace InspectionUpdate.Register;
 
@@ -79,7 +79,19 @@ public sealed partial class RegisterStore
     /// Records a correction: a new revision of the finding with the corrected content, superseding the latest one.
     /// The component cannot change (withdraw and add instead). The old revision stays readable.
     /// </summary>
-    public WriteResult<FindingRevision> ReviseFinding(long findingId, NewFinding corrected, string actor, string reason)
+    public WriteResult<FindingRevision> ReviseFinding(long findingId, NewFinding corrected, string actor, string reason) =>
+        Revise(findingId, corrected, actor, reason, null);
+
+    /// <summary>
+    /// Records a correction of revision <paramref name="ofRevision"/> of the finding (the revision the user read). When
+    /// another user has superseded that revision in the meantime, the correction is refused (field <c>revision</c>,
+    /// naming who recorded the newer revision and when) and nothing is written: no correction is applied over one the
+    /// user has not seen.
+    /// </summary>
+    public WriteResult<FindingRevision> ReviseFinding(long findingId, NewFinding corrected, string actor, string reason, int ofRevision) =>
+        Revise(findingId, corrected, actor, reason, ofRevision);
+
+    private WriteResult<FindingRevision> Revise(long findingId, NewFinding corrected, string actor, string reason, int? ofRevision)
     {
         ArgumentNullException.ThrowIfNull(corrected);
         return Write((c, t) =>
@@ -88,6 +100,13 @@ public sealed partial class RegisterStore
             if (latest is null)
             {
                 return (WriteResult<FindingRevision>.Refused([new("finding_id", findingId.ToString(CultureInfo.InvariantCulture), "no finding with this id")]), false);
+            }
+
+            if (ofRevision is { } seen && seen != latest.Revision)
+            {
+                return (WriteResult<FindingRevision>.Refused([new("revision", seen.ToString(CultureInfo.InvariantCulture), seen > latest.Revision || seen < 1
+                    ? FormattableString.Invariant($"finding {findingId} has no revision {seen} (its latest is {latest.Revision})")
+                    : FormattableString.Invariant($"finding {findingId} revision {seen} was superseded by revision {latest.Revision}, recorded by {latest.Recorded.RecordedBy} at {Sql.Utc(latest.Recorded.RecordedUtc)}: nothing was written; read the finding again and correct revision {latest.Revision}"))]), false);
             }
 
             var validation = new FindingValidation(this, c, t);
@@ -157,7 +176,7 @@ public sealed partial class RegisterStore
             $"f.component_id = $component AND {LatestAsOf}{(includeWithdrawn ? "" : " AND fr.withdrawn = 0")} ORDER BY fr.inspection_date, fr.finding_id",
             ("$component", componentId), ("$asOf", AsOfText(asOf))));
 
-    private static List<FindingRevision> ReadRevisions(SqliteConnection c, SqliteTransaction t, string where, params (string, object?)[] parameters) =>
+    private static List<FindingRevision> ReadRevisions(DbConnection c, DbTransaction t, string where, params (string, object?)[] parameters) =>
         Sql.Query(c, t, RevisionSelect + "WHERE " + where, r =>
         {
             if (!TryParseKind(r.Text("kind"), out var kind))
@@ -172,7 +191,7 @@ public sealed partial class RegisterStore
                 r.NullableLong("import_batch_id"), r.Provenance(true));
         }, parameters);
 
-    private static long InsertNewFinding(SqliteConnection c, SqliteTransaction t, FindingValidation validation, NewFinding finding,
+    private static long InsertNewFinding(DbConnection c, DbTransaction t, FindingValidation validation, NewFinding finding,
         string actor, string reason, long? importBatchId, string now)
     {
         var resolved = validation.Resolve(finding);
@@ -183,7 +202,7 @@ public sealed partial class RegisterStore
         return id;
     }
 
-    private static void InsertRevision(SqliteConnection c, SqliteTransaction t, long findingId, int revision, long? supersedes, NewFinding f,
+    private static void InsertRevision(DbConnection c, DbTransaction t, long findingId, int revision, long? supersedes, NewFinding f,
         long? methodId, bool withdrawn, string actor, string reason, long? importBatchId, string now) =>
         Sql.Insert(c, t,
             "INSERT INTO finding_revision (finding_id, revision, supersedes_revision_id, inspection_date, kind, method_id, measured_size_mm, " +
@@ -195,7 +214,7 @@ public sealed partial class RegisterStore
             ("$at", now), ("$by", actor), ("$reason", reason), ("$batch", importBatchId));
 
     /// <summary>Validation of findings inside one transaction, caching components, methods and live duplicate keys.</summary>
-    private sealed class FindingValidation(RegisterStore store, SqliteConnection c, SqliteTransaction t)
+    private sealed class FindingValidation(RegisterStore store, DbConnection c, DbTransaction t)
     {
         private readonly Dictionary<string, (long Id, DateOnly Install, double? WallMm)?> _components = new(StringComparer.Ordinal);
         private readonly Dictionary<string, long?> _methods = new(StringComparer.Ordinal);

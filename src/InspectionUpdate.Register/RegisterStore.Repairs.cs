@@ -1,5 +1,5 @@
+using System.Data.Common;
 using System.Globalization;
-using Microsoft.Data.Sqlite;
 
 namespace InspectionUpdate.Register;
 
@@ -94,7 +94,7 @@ public sealed partial class RegisterStore
     public IReadOnlyList<RepairRevision> RepairHistory(long repairId) =>
         Read((c, t) => ReadRepairs(c, t, "rr.repair_id = $id ORDER BY rr.revision", ("$id", repairId)));
 
-    private List<ValidationProblem> ValidateRepair(SqliteConnection c, SqliteTransaction t, NewRepair repair, string actor, string reason, out long componentId,
+    private List<ValidationProblem> ValidateRepair(DbConnection c, DbTransaction t, NewRepair repair, string actor, string reason, out long componentId,
         string? storedPriorJson = null)
     {
         var problems = new List<ValidationProblem>();
@@ -127,7 +127,7 @@ public sealed partial class RegisterStore
         return problems;
     }
 
-    private static void InsertRepairRevision(SqliteConnection c, SqliteTransaction t, long repairId, int revision, long? supersedes, NewRepair r,
+    private static void InsertRepairRevision(DbConnection c, DbTransaction t, long repairId, int revision, long? supersedes, NewRepair r,
         bool withdrawn, string actor, string reason, string now) =>
         Sql.Insert(c, t,
             "INSERT INTO repair_revision (repair_id, revision, supersedes_revision_id, repair_date, description, post_repair_prior_json, withdrawn, " +
@@ -136,7 +136,7 @@ public sealed partial class RegisterStore
             ("$description", r.Description ?? ""), ("$prior", r.PostRepairPriorJson), ("$withdrawn", withdrawn ? 1 : 0),
             ("$at", now), ("$by", actor), ("$reason", reason));
 
-    private static List<RepairRevision> ReadRepairs(SqliteConnection c, SqliteTransaction t, string where, params (string, object?)[] parameters) =>
+    private static List<RepairRevision> ReadRepairs(DbConnection c, DbTransaction t, string where, params (string, object?)[] parameters) =>
         Sql.Query(c, t, RepairSelect + "WHERE " + where, r => new RepairRevision(
             r.Long("repair_id"), (int)r.Long("revision"), r.Long("repair_revision_id"), r.Long("component_id"), r.Text("component_code"),
             Sql.ParseDate(r.Text("repair_date")), r.Text("description"), r.Text("post_repair_prior_json"), r.Long("withdrawn") == 1, r.Provenance(true)),

@@ -49,7 +49,7 @@ public sealed class RegisterFileException : Exception
 /// foreign keys, a busy timeout and synchronous=FULL; the file is in WAL mode. All SQL is parameterized. The instance
 /// is thread-safe: each operation opens its own pooled connection. Dispose it to release the pool (and the file).
 /// </remarks>
-public sealed partial class RegisterStore : IDisposable
+public sealed partial class RegisterStore : IRegister
 {
     private const string Actor = "inspection-update";
     private readonly string _connectionString;
@@ -68,6 +68,9 @@ public sealed partial class RegisterStore : IDisposable
 
     /// <summary>The schema version this code reads and writes.</summary>
     public static int CurrentSchemaVersion => Migrations.Current;
+
+    /// <summary>Which database holds the register.</summary>
+    public RegisterStoreKind Kind => _dataSource is null ? RegisterStoreKind.Sqlite : RegisterStoreKind.PostgreSql;
 
     /// <summary>Full path of the register file.</summary>
     public string Path { get; }
@@ -128,7 +131,7 @@ public sealed partial class RegisterStore : IDisposable
         var store = new RegisterStore(full, builder.ToString(), clock, busy, targetVersion);
         try
         {
-            using var connection = store.Connect();
+            using var connection = (SqliteConnection)store.Connect();
             using (var wal = connection.CreateCommand())
             {
                 wal.CommandText = "PRAGMA journal_mode = WAL";
@@ -220,15 +223,22 @@ public sealed partial class RegisterStore : IDisposable
     public static DateTimeOffset EndOfDay(DateOnly date) =>
         new DateTimeOffset(date.AddDays(1).ToDateTime(TimeOnly.MinValue), TimeSpan.Zero).AddTicks(-1);
 
-    /// <summary>Releases pooled connections to the file.</summary>
+    /// <summary>Releases pooled connections to the file (or the PostgreSQL data source).</summary>
     public void Dispose()
     {
+        if (_dataSource is not null)
+        {
+            _dataSource.Dispose();
+            return;
+        }
+
         using var connection = new SqliteConnection(_connectionString);
         SqliteConnection.ClearPool(connection);
     }
 
-    internal SqliteConnection Connect()
+    internal System.Data.Common.DbConnection Connect()
     {
+        if (_dataSource is not null) return _dataSource.OpenConnection();
         var connection = new SqliteConnection(_connectionString);
         connection.Open();
         using var command = connection.CreateCommand();
@@ -241,14 +251,16 @@ public sealed partial class RegisterStore : IDisposable
     }
 
     /// <summary>Runs <paramref name="work"/> in one IMMEDIATE write transaction; commits only when it returns a value to keep.</summary>
-    internal T Write<T>(Func<SqliteConnection, SqliteTransaction, (T Result, bool Commit)> work)
+    internal T Write<T>(Func<System.Data.Common.DbConnection, System.Data.Common.DbTransaction, (T Result, bool Commit)> work)
     {
         if (IsReadOnly)
         {
             throw ReadOnly(Path);
         }
 
-        using var connection = Connect();
+        if (_dataSource is not null) return PostgresWrite(work);
+
+        using var connection = (SqliteConnection)Connect();
         using var transaction = connection.BeginTransaction(deferred: false);
         var (result, commit) = work(connection, transaction);
         if (commit)
@@ -264,9 +276,10 @@ public sealed partial class RegisterStore : IDisposable
     }
 
     /// <summary>Runs a read in one snapshot (deferred transaction).</summary>
-    internal T Read<T>(Func<SqliteConnection, SqliteTransaction, T> work)
+    internal T Read<T>(Func<System.Data.Common.DbConnection, System.Data.Common.DbTransaction, T> work)
     {
-        using var connection = Connect();
+        if (_dataSource is not null) return PostgresRead(work);
+        using var connection = (SqliteConnection)Connect();
         using var transaction = connection.BeginTransaction(deferred: true);
         var result = work(connection, transaction);
         transaction.Commit();

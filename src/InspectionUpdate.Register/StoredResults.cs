@@ -1,3 +1,4 @@
+using System.Data.Common;
 using System.Globalization;
 using InspectionUpdate.Register.Schema;
 using Microsoft.Data.Sqlite;
@@ -104,34 +105,38 @@ internal static class ResultRows
         _ => ResultStatus.Failed,
     };
 
-    public static void Save(SqliteConnection c, SqliteTransaction t, IReadOnlyList<StoredResult> batch)
+    public static void Save(DbConnection c, DbTransaction t, IReadOnlyList<StoredResult> batch)
     {
         // Column list and placeholders are constants of this class; every value is a parameter.
         var names = Columns.Split(", ");
-        using var command = Sql.Command(c, t, $"INSERT OR REPLACE INTO component_result ({Columns}) VALUES ({string.Join(", ", names.Select(n => "$" + n))})");
-        var parameters = names.ToDictionary(n => n, n => command.Parameters.Add(new SqliteParameter("$" + n, null)));
-        command.Prepare();
+        var postgres = Sql.IsPostgres(c);
+        var values = $"VALUES ({string.Join(", ", names.Select(n => "$" + n))})";
+        // SQLite replaces the row; PostgreSQL spells the same as an upsert on the primary key.
+        var sql = postgres
+            ? $"INSERT INTO component_result ({Columns}) {values} ON CONFLICT (component_id, as_of, options_key) DO UPDATE SET " +
+              string.Join(", ", names.Where(n => n is not ("component_id" or "as_of" or "options_key")).Select(n => $"{n} = excluded.{n}"))
+            : $"INSERT OR REPLACE INTO component_result ({Columns}) {values}";
         foreach (var r in batch)
         {
             object? D(DateOnly? d) => d is { } v ? Sql.Date(v) : null;
-            object?[] values =
+            object?[] row =
             [
                 r.ComponentId, r.ComponentCode, r.SiteCode, Sql.Date(r.AsOf), r.OptionsKey, r.ModelRevision, r.ComponentFingerprint, r.ToolVersion, r.ResultKey,
                 StatusText(r.Status), r.Error, r.AnnualPf, D(r.AnnualPfYearEnding), r.CumulativePf, r.Beta, r.Route, r.Converged ? 1 : 0, r.Cov, D(r.NextDue), r.NextStatus,
                 r.YearsToTarget, r.TargetReached is { } b ? (b ? 1 : 0) : null, r.RemainingLifeYears, r.ProfilesJson, Sql.Utc(r.ComputedUtc),
             ];
-            for (var i = 0; i < names.Length; i++) parameters[names[i]].Value = values[i] ?? DBNull.Value;
+            using var command = Sql.Command(c, t, sql, names.Select((n, i) => ("$" + n, row[i])).ToArray());
             command.ExecuteNonQuery();
         }
     }
 
-    public static List<StoredResult> Read(SqliteConnection c, SqliteTransaction t, DateOnly? asOf, string? optionsKey, bool withProfiles) =>
+    public static List<StoredResult> Read(DbConnection c, DbTransaction t, DateOnly? asOf, string? optionsKey, bool withProfiles) =>
         Sql.Query(c, t,
             $"SELECT {Columns.Replace("profiles_json", withProfiles ? "profiles_json" : "NULL AS profiles_json", StringComparison.Ordinal)} FROM component_result " +
-            "WHERE ($asOf IS NULL OR as_of = $asOf) AND ($options IS NULL OR options_key = $options) ORDER BY as_of, options_key, component_code",
+            "WHERE (CAST($asOf AS TEXT) IS NULL OR as_of = $asOf) AND (CAST($options AS TEXT) IS NULL OR options_key = $options) ORDER BY as_of, options_key, component_code",
             Map, ("$asOf", asOf is { } d ? Sql.Date(d) : null), ("$options", optionsKey));
 
-    private static StoredResult Map(SqliteDataReader r)
+    private static StoredResult Map(DbDataReader r)
     {
         DateOnly? D(string col) => r.NullableString(col) is { } s ? Sql.ParseDate(s) : null;
         return new StoredResult(r.Long("component_id"), r.Text("component_code"), r.Text("site_code"), Sql.ParseDate(r.Text("as_of")), r.Text("options_key"),
@@ -154,7 +159,7 @@ internal static class ResultRows
         };
     }
 
-    public static Dictionary<long, (string Key, ResultStatus Status)> Keys(SqliteConnection c, SqliteTransaction t, DateOnly asOf, string optionsKey) =>
+    public static Dictionary<long, (string Key, ResultStatus Status)> Keys(DbConnection c, DbTransaction t, DateOnly asOf, string optionsKey) =>
         Sql.Query(c, t, "SELECT component_id, result_key, status FROM component_result WHERE as_of = $asOf AND options_key = $options",
             r => (Id: r.GetInt64(0), Key: r.GetString(1), Status: ParseStatus(r.GetString(2))), ("$asOf", Sql.Date(asOf)), ("$options", optionsKey))
             .ToDictionary(x => x.Id, x => (x.Key, x.Status));

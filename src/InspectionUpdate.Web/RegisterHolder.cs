@@ -9,7 +9,7 @@ namespace InspectionUpdate.Web;
 /// </summary>
 public sealed class RegisterHolder : IDisposable
 {
-    private readonly Lazy<RegisterStore> _store;
+    private readonly Lazy<IRegister> _store;
 
     /// <summary>Creates the holder; the register is opened on first use (a missing or foreign file is a register failure then).</summary>
     public RegisterHolder(WebViewOptions options, TimeProvider clock)
@@ -17,7 +17,7 @@ public sealed class RegisterHolder : IDisposable
         ArgumentNullException.ThrowIfNull(options);
         Options = options;
         Clock = clock;
-        _store = new Lazy<RegisterStore>(() => Registers.Open(options.RegisterPath, RegisterOpenMode.OpenExisting, clock), LazyThreadSafetyMode.ExecutionAndPublication);
+        _store = new Lazy<IRegister>(() => Registers.Open(options.RegisterPath, RegisterOpenMode.OpenExisting, clock), LazyThreadSafetyMode.ExecutionAndPublication);
     }
 
     /// <summary>The options the view was started with.</summary>
@@ -27,7 +27,7 @@ public sealed class RegisterHolder : IDisposable
     public TimeProvider Clock { get; }
 
     /// <summary>The register.</summary>
-    public RegisterStore Store => _store.Value;
+    public IRegister Store => _store.Value;
 
     /// <summary>The run options as of today (or the fixed evidence date).</summary>
     public PortfolioOptions Run => Options.Run(DateOnly.FromDateTime(Clock.GetUtcNow().UtcDateTime));

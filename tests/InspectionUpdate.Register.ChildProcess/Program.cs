@@ -6,13 +6,16 @@ using InspectionUpdate.Register;
 //       <register>.go, then writes one transaction per finding (in rounds of ten kept in step with the partner's);
 //       prints "done <count>"
 //   import-and-hang <register> <csv> <hangAtRow>                  prints "hanging" inside the import transaction, then blocks
+// <register> is a SQLite file or a postgresql:// URI; the signal files (.go, rounds) are named after
+// IU_TEST_SIGNAL when set (a URI is no file name), else after <register>.
 if (args.Length < 1)
 {
     Console.Error.WriteLine("usage: add-findings | import-and-hang ...");
     return 2;
 }
 
-using var store = RegisterStore.Open(args[1], RegisterOpenMode.OpenExisting);
+using var store = RegisterLocation.Open(args[1], RegisterOpenMode.OpenExisting);
+var signal = Environment.GetEnvironmentVariable("IU_TEST_SIGNAL") ?? args[1];
 switch (args[0])
 {
     case "add-findings":
@@ -23,7 +26,7 @@ switch (args[0])
             Console.WriteLine("ready");
             Console.Out.Flush();
             var deadline = DateTime.UtcNow.AddMinutes(2);
-            while (!File.Exists(args[1] + ".go"))
+            while (!File.Exists(signal + ".go"))
             {
                 if (DateTime.UtcNow > deadline)
                 {
@@ -49,8 +52,8 @@ switch (args[0])
                 if (partner is not null && i % 10 == 9)
                 {
                     var round = (i / 10).ToString(CultureInfo.InvariantCulture);
-                    File.WriteAllText($"{args[1]}.{args[5]}.{round}", "");
-                    while (!File.Exists($"{args[1]}.{partner}.{round}"))
+                    File.WriteAllText($"{signal}.{args[5]}.{round}", "");
+                    while (!File.Exists($"{signal}.{partner}.{round}"))
                     {
                         if (DateTime.UtcNow > deadline.AddMinutes(2))
                         {

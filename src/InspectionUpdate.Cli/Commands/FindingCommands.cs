@@ -170,6 +170,11 @@ public sealed class FindingCorrectSettings : RegisterSettings
     [Description("Corrected remaining wall reading in mm.")]
     public double? RemainingWallMm { get; init; }
 
+    /// <summary>The revision being corrected.</summary>
+    [CommandOption("--of-revision <N>")]
+    [Description("The revision you read and correct (default: the latest, read by this command). Refused, nothing written, when another user has superseded it meanwhile.")]
+    public int? OfRevision { get; init; }
+
     /// <summary>Withdraw.</summary>
     [CommandOption("--withdraw")]
     [Description("Withdraw the finding (a new revision that marks it withdrawn; nothing is deleted).")]
@@ -215,7 +220,7 @@ public sealed class FindingCorrectCommand(CliHost host) : CliCommand<FindingCorr
                 kind == FindingKind.SizedIndication ? settings.SizeMm ?? current.MeasuredSizeMm : null,
                 kind == FindingKind.WallThickness ? settings.RemainingWallMm ?? current.RemainingWallMm : null,
                 current.Location, current.Note);
-            stored = RegisterAccess.Require(store.ReviseFinding(id, corrected, actor, reason), "finding correct");
+            stored = RegisterAccess.Require(store.ReviseFinding(id, corrected, actor, reason, settings.OfRevision ?? current.Revision), "finding correct");
         }
 
         if (settings.Json) WriteJson(FindingRow.From(stored));

@@ -14,7 +14,7 @@ public sealed class RegisterCreateSettings : CommonSettings
 {
     /// <summary>File to create.</summary>
     [CommandArgument(0, "<FILE>")]
-    [Description("The register file to create (must not exist).")]
+    [Description("The register to create: a SQLite file that must not exist, or a postgresql:// URI of an empty database.")]
     public string File { get; init; } = string.Empty;
 }
 
@@ -29,6 +29,57 @@ public sealed class RegisterCreateCommand(CliHost host) : CliCommand<RegisterCre
         var result = new RegisterCreated(store.Path, store.SchemaVersion);
         if (settings.Json) WriteJson(result);
         else Line($"Created register {store.Path} (schema {store.SchemaVersion}).");
+        if (!settings.Json && store.Kind == RegisterStoreKind.PostgreSql)
+        {
+            var db = RegisterStore.PostgresDatabase(store.Path);
+            Line($"Roles {db}_reader, {db}_recorder (findings, repairs) and {db}_modeller (models, methods) hold the grants; give them to logins with GRANT (docs/register.md).");
+        }
+
+        return ExitCodes.Ok;
+    }
+}
+
+/// <summary>Settings of <c>register copy</c>.</summary>
+public sealed class RegisterCopySettings : CommonSettings
+{
+    /// <summary>Source.</summary>
+    [CommandArgument(0, "<FROM>")]
+    [Description("The register to copy: a SQLite file or a postgresql:// URI.")]
+    public string From { get; init; } = string.Empty;
+
+    /// <summary>Target.</summary>
+    [CommandArgument(1, "<TO>")]
+    [Description("The new register: a SQLite file that must not exist, or a postgresql:// URI of an empty database.")]
+    public string To { get; init; } = string.Empty;
+}
+
+/// <summary>Copies a whole register between stores (SQLite and PostgreSQL).</summary>
+public sealed class RegisterCopyCommand(CliHost host) : CliCommand<RegisterCopySettings>(host)
+{
+    /// <inheritdoc />
+    protected override int Run(RegisterCopySettings settings, CancellationToken cancellation)
+    {
+        RegisterCopyResult result;
+        try
+        {
+            result = RegisterStore.Copy(Host.Resolve(settings.From), Host.Resolve(settings.To), new RegisterOptions(Host.Clock));
+        }
+        catch (System.Data.Common.DbException e)
+        {
+            throw new CliException(ExitCodes.RegisterError, $"register copy: {e.Message}; nothing was written.", e);
+        }
+
+        if (settings.Json)
+        {
+            WriteJson(result);
+        }
+        else
+        {
+            Line(string.Create(CultureInfo.InvariantCulture,
+                $"Copied {result.From} to {result.To}: {result.RowsByTable.GetValueOrDefault("finding_revision")} finding revisions, {result.RowsByTable.GetValueOrDefault("repair_revision")} repair revisions, {result.RowsByTable.GetValueOrDefault("audit_log")} audit entries, {result.RowsByTable.GetValueOrDefault("component_result")} stored results."));
+            Line($"Fingerprint of both: {result.Fingerprint}");
+        }
+
         return ExitCodes.Ok;
     }
 }
@@ -63,7 +114,9 @@ public sealed class RegisterCheckCommand(CliHost host) : CliCommand<RegisterChec
             Table(["check", "result"],
             [
                 ["schema version", check.SchemaVersion.ToString(System.Globalization.CultureInfo.InvariantCulture)],
-                ["SQLite integrity", string.Join("; ", check.IntegrityCheck)],
+                store.Kind == RegisterStoreKind.PostgreSql
+                    ? ["page integrity", "not checked by this program on PostgreSQL (use pg_amcheck)"]
+                    : ["SQLite integrity", string.Join("; ", check.IntegrityCheck)],
                 ["foreign keys", check.ForeignKeyViolations.Count == 0 ? "ok" : string.Join("; ", check.ForeignKeyViolations)],
                 ["register invariants", check.InvariantViolations.Count == 0 ? "ok" : string.Join("; ", check.InvariantViolations)],
                 ["component models", check.InvalidModels.Count == 0 ? "ok" : $"{check.InvalidModels.Count.ToString(System.Globalization.CultureInfo.InvariantCulture)} do not pass (listed below)"],
@@ -190,7 +243,7 @@ public sealed class RegisterAssessCommand(CliHost host) : CliCommand<RegisterAss
         return doc.Failed > 0 ? ExitCodes.BadInput : doc.NotConverged > 0 ? ExitCodes.NotConverged : ExitCodes.Ok;
     }
 
-    private PortfolioSummary Run(RegisterStore store, IResultSink sink, PortfolioOptions options, bool quiet, CancellationToken cancellation)
+    private PortfolioSummary Run(IRegister store, IResultSink sink, PortfolioOptions options, bool quiet, CancellationToken cancellation)
     {
         if (quiet || !Host.ShowProgress) return PortfolioRun.Run(store, sink, options, null, cancellation);
         PortfolioSummary summary = null!;
@@ -268,7 +321,7 @@ public sealed class RegisterInventSettings : CommonSettings
 {
     /// <summary>File to create.</summary>
     [CommandArgument(0, "<FILE>")]
-    [Description("The register file to create (must not exist).")]
+    [Description("The register to create: a SQLite file that must not exist, or a postgresql:// URI of an empty database.")]
     public string File { get; init; } = string.Empty;
 
     /// <summary>Component count.</summary>

@@ -1,4 +1,5 @@
 using InspectionUpdate.Application;
+using InspectionUpdate.Register;
 using Spectre.Console;
 
 namespace InspectionUpdate.Cli.Infrastructure;
@@ -84,5 +85,18 @@ public sealed class CliHost
     public CliHost WithClock(TimeProvider clock) => new(Console, RawOut, Error, ShowProgress, Today, WorkingDirectory, clock);
 
     /// <summary>An absolute path for a user-given one.</summary>
-    public string Resolve(string path) => Path.GetFullPath(path, WorkingDirectory);
+    /// <remarks>
+    /// A PostgreSQL register URI (postgresql://, postgres://) is returned as it is; one with a password is refused:
+    /// a command-line argument shows in ps (use PGPASSWORD, ~/.pgpass, or the URI in INSPECTION_UPDATE_REGISTER).
+    /// </remarks>
+    public string Resolve(string path)
+    {
+        if (!RegisterLocation.IsPostgres(path)) return Path.GetFullPath(path, WorkingDirectory);
+        if (RegisterStore.UriHasPassword(path))
+        {
+            throw new CliException("A register URI on the command line must not carry a password (ps shows the command line to every user): use PGPASSWORD, ~/.pgpass, or put the URI in INSPECTION_UPDATE_REGISTER.");
+        }
+
+        return path;
+    }
 }

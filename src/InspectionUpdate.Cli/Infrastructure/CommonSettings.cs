@@ -1,4 +1,5 @@
 using System.ComponentModel;
+using InspectionUpdate.Register;
 using Spectre.Console.Cli;
 
 namespace InspectionUpdate.Cli.Infrastructure;
@@ -25,7 +26,7 @@ public class RegisterSettings : CommonSettings
 
     /// <summary>The register file.</summary>
     [CommandOption("-r|--register <FILE>")]
-    [Description("The register file (SQLite). Defaults to the INSPECTION_UPDATE_REGISTER environment variable.")]
+    [Description("The register: a SQLite file, or a PostgreSQL URI postgresql://user@host:port/database (password from PGPASSWORD or ~/.pgpass, never here). Defaults to the INSPECTION_UPDATE_REGISTER environment variable.")]
     public string? Register { get; init; }
 
     /// <summary>The register path, resolved, or a bad-input error when none was given.</summary>
@@ -35,9 +36,10 @@ public class RegisterSettings : CommonSettings
         var path = Register ?? Environment.GetEnvironmentVariable(EnvironmentVariable);
         if (string.IsNullOrWhiteSpace(path))
         {
-            throw new CliException("--register is missing: name the register file with --register FILE or set INSPECTION_UPDATE_REGISTER.");
+            throw new CliException("--register is missing: name the register file (or a postgresql:// URI) with --register FILE or set INSPECTION_UPDATE_REGISTER.");
         }
 
-        return host.Resolve(path);
+        // A URI from the environment may carry its password (the environment is not shown by ps); one given with -r may not.
+        return Register is null && RegisterLocation.IsPostgres(path) ? path : host.Resolve(path);
     }
 }

@@ -8,7 +8,7 @@ namespace InspectionUpdate.Cli.Infrastructure;
 internal static class RegisterAccess
 {
     /// <summary>Opens a register on the host's clock; a missing, foreign or newer file is a register error.</summary>
-    public static RegisterStore Open(CliHost host, string path, RegisterOpenMode mode = RegisterOpenMode.OpenExisting) =>
+    public static IRegister Open(CliHost host, string path, RegisterOpenMode mode = RegisterOpenMode.OpenExisting) =>
         Registers.Open(path, mode, host.Clock);
 
     /// <summary>The written record, or bad input listing every problem.</summary>
@@ -22,13 +22,13 @@ internal static class RegisterAccess
     public static DateTimeOffset AsKnownOn(DateOnly date) => Registers.AsKnownOn(date);
 
     /// <summary>A component by code, or bad input naming the code.</summary>
-    public static Component Component(RegisterStore store, string code) => Registers.Component(store, code);
+    public static Component Component(IRegister store, string code) => Registers.Component(store, code);
 
     /// <summary>
     /// A component by code as known on <paramref name="knownOn"/> (the --known-on date); a component recorded after that
-    /// date is bad input naming --known-on (see <see cref="Registers.Component(RegisterStore, string, DateOnly, string)"/>).
+    /// date is bad input naming --known-on (see <see cref="Registers.Component(IRegister, string, DateOnly, string)"/>).
     /// </summary>
-    public static Component Component(RegisterStore store, string code, DateOnly knownOn) => Registers.Component(store, code, knownOn, "--known-on");
+    public static Component Component(IRegister store, string code, DateOnly knownOn) => Registers.Component(store, code, knownOn, "--known-on");
 
     /// <summary>Parses an ISO 8601 date option, or bad input naming the option.</summary>
     public static DateOnly Date(string option, string? value)

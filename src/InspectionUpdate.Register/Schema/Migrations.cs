@@ -8,7 +8,7 @@ namespace InspectionUpdate.Register.Schema;
 /// migrations applied; each runs in its own write transaction together with the version bump, so a file is always
 /// at one whole version. Migrations are never edited once released: a change is a new migration.
 /// </summary>
-internal static class Migrations
+internal static partial class Migrations
 {
     private const string Utc = "CHECK ({0} GLOB '[0-9][0-9][0-9][0-9]-[0-9][0-9]-[0-9][0-9]T[0-9][0-9]:[0-9][0-9]:[0-9][0-9].[0-9][0-9][0-9][0-9][0-9][0-9][0-9]Z')";
     private const string NonBlank = "CHECK (length(trim({0})) > 0)";
@@ -25,27 +25,25 @@ internal static class Migrations
     /// <summary>Tables added after version 1 (their append-only triggers come with their own migration).</summary>
     private static readonly string[] LaterTables = ["import_batch", "model_check", "component_status", "site_revision", "inspection_method_revision"];
 
+
     /// <summary>
-    /// The migration that adds <c>model_check</c>; after its SQL, every stored model revision is checked in C# in the
-    /// same transaction. Found by reference, so the migration keeps its step when it is renumbered.
+    /// The migrations, in order: index i takes the schema from version i to i + 1. Each is written once, in SQLite's
+    /// words; its PostgreSQL text is derived from the same method (<see cref="PostgresScripts"/>). A new migration is
+    /// appended here (docs/register.md, "Adding a migration").
     /// </summary>
-    private static readonly string ModelCheckScript = ModelChecks();
+    private static readonly Func<string>[] Definitions = [Version1, Version2, StoredResults, ModelChecks, SiteAndMethodCorrections];
 
-    /// <summary>The migration that adds site and method corrections, found by reference (see <see cref="CorrectionsVersion"/>).</summary>
-    private static readonly string CorrectionsScript = SiteAndMethodCorrections();
+    /// <summary>Migration scripts (SQLite); index i takes the schema from version i to i + 1.</summary>
+    public static IReadOnlyList<string> Scripts { get; } = Definitions.Select(d => d()).ToList();
+
+    /// <summary>Index in <see cref="Scripts"/> of the migration that adds model checks (its C# step follows the SQL).</summary>
+    private static int ModelCheckIndex => Array.IndexOf(Definitions, (Func<string>)ModelChecks);
 
     /// <summary>
-    /// The schema version from which a file holds site and method corrections; a store opened at an earlier version
+    /// The schema version from which a register holds site and method corrections; a store opened at an earlier version
     /// (tests of migrations) reads sites and methods as first recorded.
     /// </summary>
-    public static int CorrectionsVersion => Scripts.ToList().FindIndex(x => ReferenceEquals(x, CorrectionsScript)) + 1;
-
-    /// <summary>Migration scripts; index i takes the schema from version i to i + 1.</summary>
-    /// <remarks>
-    /// <see cref="SiteAndMethodCorrections"/> is meant to be migration 6 once the migration planned as 5 on another
-    /// branch lands before it: it is self-contained, so it keeps its meaning when it moves one place down the list.
-    /// </remarks>
-    public static IReadOnlyList<string> Scripts { get; } = [Version1(), Version2(), StoredResults(), ModelCheckScript, CorrectionsScript];
+    public static int CorrectionsVersion => Array.IndexOf(Definitions, (Func<string>)SiteAndMethodCorrections) + 1;
 
     /// <summary>The schema version this code writes and reads.</summary>
     public static int Current => Scripts.Count;
@@ -58,7 +56,7 @@ internal static class Migrations
           recorded_by TEXT NOT NULL {F(NonBlank, "recorded_by")}{(withReason ? $",\n  reason TEXT NOT NULL {F(NonBlank, "reason")}" : "")}
         """;
 
-    private static string AppendOnly(string table) =>
+    private static string AppendOnly(string table) => Postgres ? PgAppendOnly(table) :
         $"""
         CREATE TRIGGER {table}_no_update BEFORE UPDATE ON {table}
         BEGIN SELECT RAISE(ABORT, '{table} is append-only: rows are never updated; record a new revision instead'); END;
@@ -66,7 +64,7 @@ internal static class Migrations
         BEGIN SELECT RAISE(ABORT, '{table} is append-only: rows are never deleted; record a withdrawal instead'); END;
         """;
 
-    private static string Audit(string table, string entity, string idColumn, string action, string detail) =>
+    private static string Audit(string table, string entity, string idColumn, string action, string detail) => Postgres ? PgAudit(table, entity, idColumn, action, detail) :
         $"""
         CREATE TRIGGER {table}_audit AFTER INSERT ON {table}
         BEGIN
@@ -75,7 +73,7 @@ internal static class Migrations
         END;
         """;
 
-    private static string RevisionChain(string table, string parent, string idColumn) =>
+    private static string RevisionChain(string table, string parent, string idColumn) => Postgres ? PgRevisionChain(table, parent, idColumn) :
         $"""
         CREATE TRIGGER {table}_chain BEFORE INSERT ON {table}
         WHEN NEW.revision > 1 AND (
@@ -376,7 +374,7 @@ internal static class Migrations
         """;
 
     /// <summary>Checks every model revision that has no check row yet (within the migration's transaction).</summary>
-    private static void CheckStoredModels(SqliteConnection connection, SqliteTransaction transaction, string at, string actor)
+    private static void CheckStoredModels(System.Data.Common.DbConnection connection, System.Data.Common.DbTransaction transaction, string at, string actor)
     {
         var revisions = Sql.Query(connection, transaction,
             "SELECT r.model_revision_id, r.definition_json FROM component_model_revision r LEFT JOIN model_check m ON m.model_revision_id = r.model_revision_id WHERE m.model_revision_id IS NULL",
@@ -425,7 +423,7 @@ internal static class Migrations
                 command.ExecuteNonQuery();
             }
 
-            if (ReferenceEquals(Scripts[version], ModelCheckScript)) CheckStoredModels(connection, transaction, utcNow(), actor);
+            if (version == ModelCheckIndex) CheckStoredModels(connection, transaction, utcNow(), actor);
 
             using (var audit = connection.CreateCommand())
             {

@@ -4,15 +4,16 @@ using InspectionUpdate.Register;
 
 namespace InspectionUpdate.Tests.Register;
 
-public class CsvImportTests
+public abstract class CsvImportTests
 {
+    protected abstract RegisterStoreKind Kind { get; }
     private static string DataFile(string name) => Path.Combine(AppContext.BaseDirectory, "data", "register", name);
 
-    [Fact]
+    [SkippableFact]
     [Reference("data/register/findings-good.csv (invented scenario, README.md); SHA-256 of the file computed in the test")]
     public void A_good_file_is_imported_whole_as_one_batch()
     {
-        using var r = new TestRegister();
+        using var r = new TestRegister(Kind);
         var result = r.Store.ImportFindingsCsv(DataFile("findings-good.csv"), "inspector A", "2022 campaign upload");
 
         Assert.True(result.Succeeded, string.Join("; ", result.Problems));
@@ -26,11 +27,11 @@ public class CsvImportTests
         Assert.True(r.Store.Check().IsHealthy);
     }
 
-    [Fact]
+    [SkippableFact]
     [Reference("data/register/findings-bad.csv: one problem per line 3–12, each listed with its line number and field")]
     public void A_bad_file_is_refused_with_each_line_and_field_and_nothing_is_written()
     {
-        using var r = new TestRegister();
+        using var r = new TestRegister(Kind);
         var counts = new[] { "finding", "finding_revision", "import_batch", "audit_log" }.Select(r.Count).ToArray();
 
         var result = r.Store.ImportFindingsCsv(DataFile("findings-bad.csv"), "inspector A", "bad upload");
@@ -48,11 +49,11 @@ public class CsvImportTests
         Assert.Equal(counts, new[] { "finding", "finding_revision", "import_batch", "audit_log" }.Select(r.Count).ToArray());
     }
 
-    [Fact]
+    [SkippableFact]
     [Reference("All-or-nothing import with duplicate detection against the register")]
     public void Importing_the_same_file_twice_is_refused_as_duplicates()
     {
-        using var r = new TestRegister();
+        using var r = new TestRegister(Kind);
         Assert.True(r.Store.ImportFindingsCsv(DataFile("findings-good.csv"), "inspector A", "upload").Succeeded);
         var again = r.Store.ImportFindingsCsv(DataFile("findings-good.csv"), "inspector A", "upload again");
         Assert.False(again.Succeeded);
@@ -61,7 +62,7 @@ public class CsvImportTests
         Assert.Equal(5, r.Count("finding"));
     }
 
-    [Theory]
+    [SkippableTheory]
     [InlineData("component_code,inspection_date,kind,method,depth\nP-101-W3,2019-01-01,no-indication,UT-PA,1\n", 1, "header", "depth")]
     [InlineData("component_code,kind\nP-101-W3,no-indication\n", 1, "header", "inspection_date")]
     [InlineData("component_code,inspection_date,kind,method\nP-101-W3,2019-01-01,no-indication,UT-PA\nP-101-W3,2019-01-02,\"no-indication,UT-PA\n", 3, "row", null)]
@@ -70,11 +71,23 @@ public class CsvImportTests
     [Reference("Format problems are reported with the line and the column (docs/register.md, CSV import)")]
     public void Format_problems_name_the_line_and_the_field(string csv, int line, string field, string? value)
     {
-        using var r = new TestRegister();
+        using var r = new TestRegister(Kind);
         var result = r.Store.ImportFindingsCsv(new StringReader(csv), "inline.csv", "inspector A", "test");
         Assert.False(result.Succeeded);
         var problem = Assert.Single(result.Problems);
         Assert.Equal((line, field, value), (problem.LineNumber!.Value, problem.Field, problem.Value));
         Assert.Equal(0, r.Count("finding"));
     }
+}
+
+/// <summary><see cref="CsvImportTests"/> on a SQLite file.</summary>
+public sealed class CsvImportTestsOnSqlite : CsvImportTests
+{
+    protected override RegisterStoreKind Kind => RegisterStoreKind.Sqlite;
+}
+
+/// <summary><see cref="CsvImportTests"/> on PostgreSQL (skips, saying why, without a server).</summary>
+public sealed class CsvImportTestsOnPostgres : CsvImportTests
+{
+    protected override RegisterStoreKind Kind => RegisterStoreKind.PostgreSql;
 }

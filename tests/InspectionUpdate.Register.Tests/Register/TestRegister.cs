@@ -33,16 +33,41 @@ internal sealed class TestRegister : IDisposable
         """;
 
     public TestRegister(bool seed = true)
+        : this(RegisterStoreKind.Sqlite, seed)
     {
+    }
+
+    /// <summary>
+    /// A register of the given kind: a temporary SQLite file, or a new PostgreSQL database on the test server
+    /// (<see cref="PostgresServer"/>; the test skips, saying why, when no server is available).
+    /// </summary>
+    public TestRegister(RegisterStoreKind kind, bool seed = true)
+    {
+        Kind = kind;
         Path = TempPath();
         Clock = new ManualClock(new DateTimeOffset(2026, 3, 1, 8, 0, 0, TimeSpan.Zero));
-        Store = RegisterStore.Open(Path, RegisterOpenMode.CreateNew, new RegisterOptions(Clock));
+        if (kind == RegisterStoreKind.PostgreSql)
+        {
+            Database = PostgresServer.CreateDatabase();
+            Location = PostgresServer.Uri(Database);
+        }
+        else
+        {
+            Location = Path;
+        }
+
+        Store = kind == RegisterStoreKind.PostgreSql
+            ? RegisterStore.OpenPostgres(Location, RegisterOpenMode.CreateNew, new RegisterOptions(Clock))
+            : RegisterStore.Open(Path, RegisterOpenMode.CreateNew, new RegisterOptions(Clock));
         if (seed)
         {
             Seed(Store);
         }
     }
 
+    public RegisterStoreKind Kind { get; }
+
+    /// <summary>A temporary file path: the register on SQLite; side files (CSV) on both.</summary>
     public string Path { get; }
 
     public ManualClock Clock { get; }
@@ -50,6 +75,33 @@ internal sealed class TestRegister : IDisposable
     public RegisterStore Store { get; }
 
     public long ComponentId => Store.FindComponent(Component)!.Id;
+
+    /// <summary>The register's location: the SQLite file, or the PostgreSQL URI.</summary>
+    public string Location { get; }
+
+    /// <summary>The PostgreSQL database (null for SQLite).</summary>
+    public string? Database { get; }
+
+    /// <summary>Who a row's recorded_by names: the actor on SQLite, the database user on PostgreSQL.</summary>
+    public string By(string actor) => Kind == RegisterStoreKind.PostgreSql ? PostgresServer.User : actor;
+
+    /// <summary>Runs SQL through a separate raw connection (the test's independent view of the database).</summary>
+    public void Exec(string sql)
+    {
+        using var connection = RawConnection();
+        using var command = connection.CreateCommand();
+        command.CommandText = sql;
+        command.ExecuteNonQuery();
+    }
+
+    private System.Data.Common.DbConnection RawConnection()
+    {
+        System.Data.Common.DbConnection connection = Kind == RegisterStoreKind.PostgreSql
+            ? new Npgsql.NpgsqlConnection(PostgresServer.ConnectionString(Database!))
+            : new SqliteConnection($"Data Source={Path};Pooling=False;Foreign Keys=True");
+        connection.Open();
+        return connection;
+    }
 
     public static string TempPath() => System.IO.Path.Combine(System.IO.Path.GetTempPath(), $"iu-register-test-{Guid.NewGuid():N}.sqlite");
 
@@ -67,11 +119,10 @@ internal sealed class TestRegister : IDisposable
     /// <summary>Counts rows of a table through a separate raw connection (the test's independent view of the file).</summary>
     public long Count(string table)
     {
-        using var connection = new SqliteConnection($"Data Source={Path};Pooling=False");
-        connection.Open();
+        using var connection = RawConnection();
         using var command = connection.CreateCommand();
         command.CommandText = "SELECT COUNT(*) FROM " + table; // table names are test constants
-        return (long)command.ExecuteScalar()!;
+        return Convert.ToInt64(command.ExecuteScalar(), System.Globalization.CultureInfo.InvariantCulture);
     }
 
     public static void Delete(string path)
@@ -87,5 +138,6 @@ internal sealed class TestRegister : IDisposable
     {
         Store.Dispose();
         Delete(Path);
+        if (Database is not null) PostgresServer.DropDatabase(Database);
     }
 }

@@ -3,8 +3,9 @@ using InspectionUpdate.Register;
 
 namespace InspectionUpdate.Tests.Register;
 
-public class ValidationTests
+public abstract class ValidationTests
 {
+    protected abstract RegisterStoreKind Kind { get; }
     private static readonly DateOnly Date = new(2020, 5, 4);
 
     public static TheoryData<string, NewFinding, string, string?> InvalidFindings() => new()
@@ -24,12 +25,12 @@ public class ValidationTests
         { "duplicate", new NewFinding(TestRegister.Component, new DateOnly(2019, 4, 1), FindingKind.NoIndication, TestRegister.Ut, Location: " Weld toe "), "inspection_date", "2019-04-01" },
     };
 
-    [Theory]
+    [SkippableTheory]
     [MemberData(nameof(InvalidFindings))]
     [Reference("Issue 5 register rules: every invalid finding is refused with a clear message naming the field and value, nothing written")]
     public void An_invalid_finding_is_refused_naming_the_field_and_value_and_nothing_is_written(string because, NewFinding finding, string field, string? value)
     {
-        using var r = new TestRegister();
+        using var r = new TestRegister(Kind);
         // The existing finding the duplicate case collides with (location compared trimmed, case-insensitive).
         r.Store.AddFinding(new NewFinding(TestRegister.Component, new DateOnly(2019, 4, 1), FindingKind.NoIndication, TestRegister.Ut, Location: "weld toe"), "inspector A", "report IR-0").Require();
         var findings = r.Count("finding");
@@ -50,30 +51,30 @@ public class ValidationTests
         Assert.Contains(field, e.Message, StringComparison.Ordinal);
     }
 
-    [Fact]
+    [SkippableFact]
     [Reference("STYLE.md: a validation result lists every problem with its field, not only the first")]
     public void Every_problem_of_a_finding_is_listed_at_once()
     {
-        using var r = new TestRegister();
+        using var r = new TestRegister(Kind);
         var result = r.Store.AddFinding(new NewFinding(TestRegister.Component, new DateOnly(2009, 1, 1), FindingKind.SizedIndication, "EDDY-X", MeasuredSizeMm: -1), " ", "");
         Assert.Equal(["inspection_date", "measured_size_mm", "method", "reason", "recorded_by"], result.Problems.Select(p => p.Field).Order(StringComparer.Ordinal));
     }
 
-    [Fact]
+    [SkippableFact]
     [Reference("Validation of a wall reading: it needs the component's nominal wall to become a depth")]
     public void A_wall_reading_on_a_component_without_a_nominal_wall_is_refused()
     {
-        using var r = new TestRegister();
+        using var r = new TestRegister(Kind);
         r.Store.AddComponent(new NewComponent("NORTH", "SUPPORT-7", "Pipe support", TestRegister.InstallDate, null, TestRegister.ModelJson, "none"), "tester").Require();
         var result = r.Store.AddFinding(new NewFinding("SUPPORT-7", Date, FindingKind.WallThickness, TestRegister.Ut, RemainingWallMm: 8.0), "A", "r");
         Assert.Contains(result.Problems, p => p.Field == "remaining_wall_mm" && p.Message.Contains("no nominal wall", StringComparison.Ordinal));
     }
 
-    [Fact]
+    [SkippableFact]
     [Reference("Validation of a revision: the corrected content is checked like a new finding, except against itself")]
     public void A_revision_is_validated_but_does_not_collide_with_the_finding_it_corrects()
     {
-        using var r = new TestRegister();
+        using var r = new TestRegister(Kind);
         var f = r.Store.AddFinding(new NewFinding(TestRegister.Component, Date, FindingKind.SizedIndication, TestRegister.Ut, 2.0), "A", "r").Require();
         Assert.True(r.Store.ReviseFinding(f.FindingId, new NewFinding(TestRegister.Component, Date, FindingKind.SizedIndication, TestRegister.Ut, 2.2), "B", "fix").Succeeded);
         var bad = r.Store.ReviseFinding(f.FindingId, new NewFinding("P-101-W4", Date, FindingKind.SizedIndication, TestRegister.Ut, 20.0), "B", "fix");
@@ -81,11 +82,11 @@ public class ValidationTests
         Assert.Equal(2, r.Count("finding_revision"));
     }
 
-    [Fact]
+    [SkippableFact]
     [Reference("Validation of components, methods and repairs at the public boundary (STYLE.md)")]
     public void Invalid_components_methods_and_repairs_are_refused_with_every_problem()
     {
-        using var r = new TestRegister();
+        using var r = new TestRegister(Kind);
         var component = r.Store.AddComponent(new NewComponent("SOUTH", TestRegister.Component, "", new DateOnly(2030, 1, 1), -3, "{not json", " "), "tester");
         Assert.Equal(["code", "install_date", "model $", "model_version", "site_code", "wall_thickness_mm"], component.Problems.Select(p => p.Field).Order(StringComparer.Ordinal));
 
@@ -100,4 +101,16 @@ public class ValidationTests
         Assert.Equal(2, r.Count("inspection_method"));
         Assert.Equal(2, r.Count("component"));
     }
+}
+
+/// <summary><see cref="ValidationTests"/> on a SQLite file.</summary>
+public sealed class ValidationTestsOnSqlite : ValidationTests
+{
+    protected override RegisterStoreKind Kind => RegisterStoreKind.Sqlite;
+}
+
+/// <summary><see cref="ValidationTests"/> on PostgreSQL (skips, saying why, without a server).</summary>
+public sealed class ValidationTestsOnPostgres : ValidationTests
+{
+    protected override RegisterStoreKind Kind => RegisterStoreKind.PostgreSql;
 }

@@ -27,7 +27,7 @@ internal static partial class DemoRegisters
     public static TimeProvider Clock { get; } = new FixedClock(Scenario.EvidenceDate);
 
     /// <summary>A new demo register in a new temporary folder; <paramref name="extra"/> adds rows after the scenario.</summary>
-    public static string Create(Action<RegisterStore>? extra = null)
+    public static string Create(Action<IRegister>? extra = null)
     {
         var folder = Path.Combine(Path.GetTempPath(), "iu-web-tests", Guid.NewGuid().ToString("N")[..12]);
         Directory.CreateDirectory(folder);
