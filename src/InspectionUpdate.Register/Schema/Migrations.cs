@@ -362,7 +362,7 @@ internal static partial class Migrations
 
     // Corrections of a base row (revision 1) kept in a table of their own: revision 2 supersedes the base row (no
     // supersedes id), each later one the previous correction; none is recorded before what it supersedes.
-    private static string CorrectionChain(string table, string baseTable, string parent, string idColumn) =>
+    private static string CorrectionChain(string table, string baseTable, string parent, string idColumn) => Postgres ? PgCorrectionChain(table, baseTable, parent, idColumn) :
         $"""
         CREATE TRIGGER {table}_chain BEFORE INSERT ON {table}
         WHEN (NEW.revision = 2 AND (EXISTS (SELECT 1 FROM {table} WHERE {parent} = NEW.{parent})

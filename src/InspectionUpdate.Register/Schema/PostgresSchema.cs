@@ -166,6 +166,24 @@ internal static partial class Migrations
         CREATE TRIGGER {table}_chain BEFORE INSERT ON {table} FOR EACH ROW EXECUTE FUNCTION {table}_chain();
         """;
 
+    // A correction (revision 2, 3, ...) supersedes the latest revision of the same site or method (revision 1 is the
+    // base row) and is recorded no earlier than it.
+    private static string PgCorrectionChain(string table, string baseTable, string parent, string idColumn) =>
+        $"""
+        CREATE FUNCTION {table}_chain() RETURNS trigger LANGUAGE plpgsql AS $f$
+        BEGIN
+          IF (NEW.revision = 2 AND (EXISTS (SELECT 1 FROM {table} WHERE {parent} = NEW.{parent})
+                                   OR NEW.recorded_utc < (SELECT recorded_utc FROM {baseTable} WHERE {parent} = NEW.{parent})))
+             OR (NEW.revision > 2 AND (
+                  NEW.supersedes_revision_id IS DISTINCT FROM (SELECT {idColumn} FROM {table} WHERE {parent} = NEW.{parent} AND revision = NEW.revision - 1)
+               OR NEW.recorded_utc < (SELECT recorded_utc FROM {table} WHERE {parent} = NEW.{parent} AND revision = NEW.revision - 1))) THEN
+            RAISE EXCEPTION '{table}: a correction must supersede the latest revision of the same record and be recorded no earlier' USING ERRCODE = 'check_violation';
+          END IF;
+          RETURN NEW;
+        END $f$;
+        CREATE TRIGGER {table}_chain BEFORE INSERT ON {table} FOR EACH ROW EXECUTE FUNCTION {table}_chain();
+        """;
+
     /// <summary>The register's version on PostgreSQL: the largest applied migration, 0 when none; null when the schema holds no register.</summary>
     public static int? ReadPostgresVersion(DbConnection connection, DbTransaction? transaction)
     {
