@@ -165,7 +165,21 @@ public static class ComponentStudy
             NotAvailable = notAvailable,
             NotRequested = notRequested ?? [],
             Provenance = new ReportProvenance(ToolInfo.Version, c.Fingerprint, c.Source, DateTimeOffset.UtcNow, r.AsOf),
+            Flags = Flags(r, o, plan),
         };
+    }
+
+    /// <summary>
+    /// The component's marks: not converged (any profile step or planning estimate), overdue (the next inspection's
+    /// latest date on or before the evidence date), above target (the annual Pf now at or above the plan's target).
+    /// The register page, the component page and every export take them from here.
+    /// </summary>
+    public static ReportMark Flags(AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan)
+    {
+        ArgumentNullException.ThrowIfNull(r);
+        ArgumentNullException.ThrowIfNull(o);
+        var current = Current(o.Current, r.AsOfYears);
+        return ReportMarks.Of(o.AllConverged && (plan?.AllConverged ?? true), current?.AnnualPf, plan?.Next.Date, plan?.Next.Target.AnnualPf, r.AsOf);
     }
 
     /// <summary>The methods whose PoD the report draws: those of the component's current findings, then the schedule's method.</summary>
@@ -180,12 +194,14 @@ public static class ComponentStudy
     public static PortfolioRow Row(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, string? reportFile)
     {
         var current = Current(o.Current, r.AsOfYears);
-        var route = current is null ? "-" : HtmlReportWriter.RouteText(HtmlReportWriter.PointAt(o.Current, r.AsOfYears)!);
+        // The route of the number only: whether the component converged is its not-converged mark, one rule for every page.
+        var route = current is null ? "-" : HtmlReportWriter.RouteAndCov(HtmlReportWriter.PointAt(o.Current, r.AsOfYears)!);
         double? years = plan is null ? null
             : plan.RemainingLife.UntilAnnualTarget.Reached ? plan.RemainingLife.UntilAnnualTarget.RemainingYears : double.PositiveInfinity;
         return new PortfolioRow(c.Id, c.Name, c.Site, current?.AnnualPf, route, years, plan?.Next.Date, plan?.Next.Message ?? "not planned", reportFile)
         {
             CurrentYearEnding = current is null ? null : ServiceTime.DateAt(c.InServiceDate, current.TimeYears),
+            FlagSet = Flags(r, o, plan),
         };
     }
 

@@ -101,6 +101,8 @@ public static class RegisterReport
             r.NextDue, r.YearsToTarget, r.TargetReached, r.Error)
         {
             ReportFile = pages.TryGetValue(r.ComponentCode, out var f) ? f : null,
+            Flags = r.Status == ResultStatus.Failed ? ReportMark.None
+                : ReportMarks.Of(r.Status == ResultStatus.Assessed, r.AnnualPf, r.NextDue, options.Target.AnnualPf, options.AsOf),
         }).ToArray();
 
         var csv = Path.Combine(folder, CsvName);
@@ -166,13 +168,13 @@ public static class RegisterReport
         static string N(double? v) => v is { } x ? x.ToString("R", CultureInfo.InvariantCulture) : string.Empty;
         static string D(DateOnly? d) => d?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? string.Empty;
         using var w = new StreamWriter(path, false, new UTF8Encoding(false));
-        w.Write("rank,component_code,site_code,status,annual_pf,annual_pf_year_ending,beta,route,years_to_target,target_reached,next_due,stale,error\n");
+        w.Write("rank,component_code,site_code,status,annual_pf,annual_pf_year_ending,beta,route,years_to_target,target_reached,next_due,stale,flags,error\n");
         var rank = 0;
         foreach (var r in rows.OrderByDescending(r => r.AnnualPf ?? -1).ThenBy(r => r.ComponentId, StringComparer.Ordinal))
         {
             rank++;
             w.Write(string.Join(',', rank.ToString(CultureInfo.InvariantCulture), Q(r.ComponentId), Q(r.Site), r.Status, N(r.AnnualPf), D(r.YearEnding), N(r.Beta), Q(r.Route),
-                N(r.YearsToTarget), r.TargetReached is { } b ? (b ? "true" : "false") : string.Empty, D(r.NextDue), stale.Contains(r.ComponentId) ? "true" : "false", Q(r.Error)));
+                N(r.YearsToTarget), r.TargetReached is { } b ? (b ? "true" : "false") : string.Empty, D(r.NextDue), stale.Contains(r.ComponentId) ? "true" : "false", ReportMarks.CsvCell(r.Flags), Q(r.Error)));
             w.Write('\n');
         }
     }

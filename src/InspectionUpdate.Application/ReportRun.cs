@@ -86,6 +86,11 @@ public static class ReportRun
         };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.Portfolio(portfolio));
+        using (var w = new StreamWriter(Path.Combine(folder, CsvName)))
+        {
+            ProfileExport.WriteRegisterCsv(w, rows);
+        }
+
         File.WriteAllText(Path.Combine(folder, "register.json"), JsonSerializer.Serialize(new RegisterExport("inspection-update/register-export/1", title, options.AsOf,
             ToolInfo.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
         return index;
@@ -127,6 +132,9 @@ public static class ReportRun
     /// <summary>What a report without --schedule says of the life-cycle schedule: not requested, and how to request it.</summary>
     public const string ScheduleNotRequested =
         "Life-cycle schedule: not requested in this run; the plan shows the next inspection only. Request it with report --schedule (every component) or plan COMPONENT (this one).";
+
+    /// <summary>File name of the register CSV of a report run (one row per component, with its marks).</summary>
+    public const string CsvName = "register.csv";
 
     /// <summary>A component code as a file name.</summary>
     public static string Safe(string id) => string.Concat(id.Select(c => char.IsLetterOrDigit(c) || c is '-' or '_' or '.' ? c : '_'));

@@ -146,6 +146,9 @@ public sealed record ComponentReportData
 
     /// <summary>Provenance.</summary>
     public required ReportProvenance Provenance { get; init; }
+
+    /// <summary>The component's marks, the same as on the register page and in the exports.</summary>
+    public ReportMark Flags { get; init; }
 }
 
 /// <summary>One row of the register (portfolio) report.</summary>
@@ -164,6 +167,16 @@ public sealed record PortfolioRow(string ComponentId, string ComponentName, stri
     /// <summary>End of the grid year whose ΔPf is <see cref="CurrentAnnualPf"/> (the first grid time at or after the assessment date); not exported.</summary>
     [System.Text.Json.Serialization.JsonIgnore]
     public DateOnly? CurrentYearEnding { get; init; }
+
+    /// <summary>The component's marks (<see cref="ReportMarks.Of"/>); not exported as such, see <see cref="Flags"/>.</summary>
+    [System.Text.Json.Serialization.JsonIgnore]
+    public ReportMark FlagSet { get; init; }
+
+    /// <summary>The marks' keys (<c>not_converged</c>, <c>overdue</c>, <c>above_target</c>), exported in register.json.</summary>
+    public IReadOnlyList<string> Flags => ReportMarks.Keys(FlagSet);
+
+    /// <summary>Whether every number behind the row converged (profiles and plan).</summary>
+    public bool AllConverged => !FlagSet.HasFlag(ReportMark.NotConverged);
 }
 
 /// <summary>Everything the register report shows.</summary>

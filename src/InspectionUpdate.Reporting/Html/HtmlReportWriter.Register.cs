@@ -31,12 +31,13 @@ public static partial class HtmlReportWriter
         h.Append("<div class=\"cards\">");
         Card(h, "Stored results", Count(rows.Count));
         Card(h, "Assessed, converged", Count(rows.Count(r => r.Status == "assessed")));
-        Card(h, "Not converged (flagged)", Count(rows.Count(r => r.Status == "not-converged")));
         Card(h, "Failed", Count(rows.Count(r => r.Status == "failed")));
         Card(h, "Target", ReportCharts.Probability(data.TargetAnnualPf) + " per year");
-        Card(h, "At or above target now", Count(assessed.Count(r => r.AnnualPf >= data.TargetAnnualPf)));
+        var counts = ReportMarks.Counts(rows.Select(r => r.Flags));
+        FlagCards(h, counts);
         Card(h, "Due within a year", Count(rows.Count(r => r.NextDue is { } d && d <= data.Provenance.AssessedAsOf.AddYears(1))));
         h.Append("</div>\n");
+        Legend(h, counts);
         if (data.Missing.Count > 0)
         {
             h.Append("<p class=\"na\">").Append(Count(data.Missing.Count)).Append(" component(s) in service have no stored result for these options and are not in this report (run register assess): ")
@@ -59,26 +60,26 @@ public static partial class HtmlReportWriter
 
         Section(h, "ranking", "Risk ranking (top " + Count(Math.Min(data.Top, assessed.Length)) + " of " + Count(assessed.Length) + ")");
         var ranked = assessed.OrderByDescending(r => r.AnnualPf).ThenBy(r => r.ComponentId, StringComparer.Ordinal).Take(data.Top).ToArray();
-        SortableTable(h, ["rank", "component", "site", "annual Pf now", "β", "years to target", "next due", "route", "status"],
+        SortableTable(h, ["rank", "component", "site", "annual Pf now", "β", "years to target", "next due", "route", "status", "marks"],
             ranked.Select((r, i) => new[]
             {
                 Cell((i + 1).ToString(CultureInfo.InvariantCulture)), Link(r, Name(r)), Cell(r.Site),
                 Cell(ReportCharts.Probability(r.AnnualPf!.Value) + (r.YearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty), r.AnnualPf.Value.ToString("R", CultureInfo.InvariantCulture)),
                 Cell(r.Beta is { } b ? Num(b, "0.00") : "-", r.Beta?.ToString("R", CultureInfo.InvariantCulture)),
-                YearsCell(r), DueCell(r), Cell(r.Route ?? "-"), Cell(r.Status),
+                YearsCell(r), DueCell(r), Cell(r.Route ?? "-"), Cell(r.Status), MarksCell(r.Flags),
             }),
-            ranked.Select(r => r.Status == "not-converged" ? "not-converged" : null).ToArray());
+            ranked.Select(r => FlagRowClass(r.Flags)).ToArray());
         EndSection(h);
 
         var due = rows.Where(r => r.NextDue is not null).OrderBy(r => r.NextDue).ThenBy(r => r.ComponentId, StringComparer.Ordinal).Take(data.Top).ToArray();
         Section(h, "due-dates", "Next due dates (soonest " + Count(due.Length) + " of " + Count(rows.Count(r => r.NextDue is not null)) + " planned)");
-        SortableTable(h, ["next due", "component", "site", "annual Pf now", "years to target", "status"],
+        SortableTable(h, ["next due", "component", "site", "annual Pf now", "years to target", "status", "marks"],
             due.Select(r => new[]
             {
                 DueCell(r), Link(r, Name(r)), Cell(r.Site),
-                Cell(r.AnnualPf is { } p ? ReportCharts.Probability(p) : "-", r.AnnualPf?.ToString("R", CultureInfo.InvariantCulture)), YearsCell(r), Cell(r.Status),
+                Cell(r.AnnualPf is { } p ? ReportCharts.Probability(p) : "-", r.AnnualPf?.ToString("R", CultureInfo.InvariantCulture)), YearsCell(r), Cell(r.Status), MarksCell(r.Flags),
             }),
-            due.Select(r => r.Status == "not-converged" ? "not-converged" : null).ToArray());
+            due.Select(r => FlagRowClass(r.Flags)).ToArray());
         EndSection(h);
 
         Section(h, "distributions", "Distributions");
@@ -129,7 +130,7 @@ public static partial class HtmlReportWriter
         else
         {
             h.Append("<ul>");
-            foreach (var r in pages) h.Append("<li><a href=\"").Append(E(r.ReportFile!)).Append("\">").Append(E(r.ComponentId)).Append("</a> (").Append(E(r.Site)).Append(")</li>");
+            foreach (var r in pages) h.Append("<li><a href=\"").Append(E(r.ReportFile!)).Append("\">").Append(E(r.ComponentId)).Append("</a> (").Append(E(r.Site)).Append(") ").Append(FlagMarks(r.Flags)).Append("</li>");
             h.Append("</ul>\n");
         }
 
@@ -148,6 +149,8 @@ public static partial class HtmlReportWriter
 
     private static HtmlCell Cell(string text, string? sortKey = null) => new(E(text), sortKey);
 
+    private static HtmlCell MarksCell(ReportMark flags) => new(FlagMarks(flags), ReportMarks.CsvCell(flags));
+
     private static HtmlCell Link(RegisterResultRow r, string text) =>
         new(r.ReportFile is null ? E(text) : "<a href=\"" + E(r.ReportFile) + "\">" + E(text) + "</a>", text);
 
@@ -162,10 +165,10 @@ public static partial class HtmlReportWriter
     private static string Shorten(IReadOnlyList<string> items, int max) =>
         string.Join(", ", items.Take(max)) + (items.Count > max ? $", … ({Count(items.Count - max)} more)" : string.Empty);
 
-    private static void SortableTable(StringBuilder h, IReadOnlyList<string> headers, IEnumerable<HtmlCell[]> rows, string?[]? rowClasses)
+    private static void SortableTable(StringBuilder h, IReadOnlyList<string> headers, IEnumerable<HtmlCell[]> rows, string?[]? rowClasses, bool sortable = true)
     {
-        h.Append("<table class=\"sortable\"><thead><tr>");
-        foreach (var c in headers) h.Append("<th title=\"sort\" style=\"cursor:pointer\">").Append(E(c)).Append(" ⇅</th>");
+        h.Append(sortable ? "<table class=\"sortable\"><thead><tr>" : "<table><thead><tr>");
+        foreach (var c in headers) h.Append(sortable ? "<th title=\"sort\" style=\"cursor:pointer\">" : "<th>").Append(E(c)).Append(sortable ? " ⇅</th>" : "</th>");
         h.Append("</tr></thead><tbody>\n");
         var i = 0;
         foreach (var r in rows)

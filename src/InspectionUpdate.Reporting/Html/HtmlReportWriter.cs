@@ -34,7 +34,7 @@ public static partial class HtmlReportWriter
         h.Append("<header><div class=\"kicker\">Component integrity report</div><h1>")
             .Append(E(data.ComponentId)).Append(" · ").Append(E(data.ComponentName)).Append("</h1><div class=\"sub\">")
             .Append(E(data.Site)).Append(" · ").Append(E(data.Model)).Append(" · evidence to ")
-            .Append(Date(data.Provenance.AssessedAsOf)).Append("</div></header>\n");
+            .Append(Date(data.Provenance.AssessedAsOf)).Append("</div><div class=\"marks\">Marks: ").Append(FlagMarks(data.Flags)).Append("</div></header>\n");
         CautionBanner(h);
 
         Section(h, "summary", "Summary");
@@ -45,9 +45,11 @@ public static partial class HtmlReportWriter
         Card(h, "In service since", Date(data.InServiceDate));
         Card(h, point is null ? "Annual Pf" : AnnualPfLabel(data.InServiceDate, point, data.Updated is null ? "prior" : "updated"),
             point is null ? "not available" : ReportCharts.Probability(point.IntervalPf));
-        Card(h, "Route", point is null ? "-" : RouteText(point));
+        Card(h, "Route of this number", point is null ? "-" : RouteText(point));
         Card(h, "Next inspection", data.Plan?.Schedule.Count > 0 ? Date(data.Plan.Schedule[0].Date) : "not planned");
+        h.Append("<div class=\"card card-flag\"><div class=\"k\">Marks</div><div class=\"v\">").Append(FlagMarks(data.Flags)).Append("</div></div>");
         h.Append("</div>\n");
+        Legend(h);
         NotAvailable(h, data.NotAvailable);
         NotRequested(h, data.NotRequested);
         EndSection(h);
@@ -175,13 +177,14 @@ public static partial class HtmlReportWriter
 
         Section(h, "summary", "Summary");
         var assessed = data.Rows.Where(r => r.CurrentAnnualPf is not null).ToArray();
+        var counts = ReportMarks.Counts(data.Rows.Select(r => r.FlagSet));
         h.Append("<div class=\"cards\">");
         Card(h, "Components", data.Rows.Count.ToString(CultureInfo.InvariantCulture));
         Card(h, "Assessed", assessed.Length.ToString(CultureInfo.InvariantCulture));
         Card(h, "Target", data.TargetAnnualPf is { } t ? ReportCharts.Probability(t) + " per year" : "none");
-        var above = data.TargetAnnualPf is { } tt ? assessed.Count(r => r.CurrentAnnualPf >= tt) : 0;
-        Card(h, "At or above target (grid year at or after the evidence date)", above.ToString(CultureInfo.InvariantCulture));
+        FlagCards(h, counts);
         h.Append("</div>\n");
+        Legend(h, counts);
         NotAvailable(h, data.NotAvailable);
         EndSection(h);
 
@@ -192,21 +195,28 @@ public static partial class HtmlReportWriter
                 "Current annual failure probability against the years left until it reaches the target; top left is most urgent.");
         }
         else h.Append("<p class=\"na\">No component has both a current annual Pf and a time to target.</p>\n");
-        Table(h, ["rank", "component", "site", "annual Pf (grid year at or after the evidence date)", "route", "years to target"],
-            data.Rows.OrderByDescending(r => r.CurrentAnnualPf ?? -1).Select((r, i) => new[]
+        var ranked = data.Rows.OrderByDescending(r => r.CurrentAnnualPf ?? -1).ToArray();
+        SortableTable(h, ["rank", "component", "site", "annual Pf now (grid year at or after the evidence date)", "route", "years to target", "marks"],
+            ranked.Select((r, i) => new[]
             {
-                (i + 1).ToString(CultureInfo.InvariantCulture), r.ComponentId, r.Site,
-                r.CurrentAnnualPf is { } p ? ReportCharts.Probability(p) + (r.CurrentYearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty) : "not available", r.Route,
-                r.YearsToTarget is { } y ? (double.IsPositiveInfinity(y) ? "beyond horizon" : Num(y, "0.0")) : "-",
-            }));
+                Cell((i + 1).ToString(CultureInfo.InvariantCulture)), Cell(r.ComponentId), Cell(r.Site),
+                Cell(r.CurrentAnnualPf is { } p ? ReportCharts.Probability(p) + (r.CurrentYearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty) : "not available"),
+                Cell(r.Route),
+                Cell(r.YearsToTarget is { } y ? (double.IsPositiveInfinity(y) ? "beyond horizon" : Num(y, "0.0")) : "-"),
+                new HtmlCell(FlagMarks(r.FlagSet), ReportMarks.CsvCell(r.FlagSet)),
+            }),
+            ranked.Select(r => FlagRowClass(r.FlagSet)).ToArray(), sortable: false);
         EndSection(h);
 
         Section(h, "due-dates", "Next due dates");
-        Table(h, ["next due", "component", "site", "status"],
-            data.Rows.OrderBy(r => r.NextDue ?? DateOnly.MaxValue).Select(r => new[]
+        var byDue = data.Rows.OrderBy(r => r.NextDue ?? DateOnly.MaxValue).ToArray();
+        SortableTable(h, ["next due", "component", "site", "status", "marks"],
+            byDue.Select(r => new[]
             {
-                r.NextDue is { } d ? Date(d) : "not planned", r.ComponentId, r.Site, r.Status,
-            }));
+                Cell(r.NextDue is { } d ? Date(d) : "not planned"), Cell(r.ComponentId), Cell(r.Site), Cell(r.Status),
+                new HtmlCell(FlagMarks(r.FlagSet), ReportMarks.CsvCell(r.FlagSet)),
+            }),
+            byDue.Select(r => FlagRowClass(r.FlagSet)).ToArray(), sortable: false);
         EndSection(h);
 
         Section(h, "components", "Components");
@@ -216,7 +226,7 @@ public static partial class HtmlReportWriter
             h.Append("<li>");
             if (r.ReportFile is not null) h.Append("<a href=\"").Append(E(r.ReportFile)).Append("\">").Append(E(r.ComponentId)).Append("</a>");
             else h.Append(E(r.ComponentId));
-            h.Append(" — ").Append(E(r.ComponentName)).Append(" (").Append(E(r.Site)).Append(")</li>");
+            h.Append(" — ").Append(E(r.ComponentName)).Append(" (").Append(E(r.Site)).Append(") ").Append(FlagMarks(r.FlagSet)).Append("</li>");
         }
 
         h.Append("</ul>\n");
@@ -285,6 +295,10 @@ public static partial class HtmlReportWriter
         _ => route.ToString(),
     };
 
+    /// <summary>Route and CoV of one number, without a word on convergence (that is the component's not-converged mark).</summary>
+    public static string RouteAndCov(ProfilePoint p) =>
+        RouteName(p.Route) + (p.CoefficientOfVariation is { } c ? ", CoV " + Num(c, "0.000") : string.Empty);
+
     /// <summary>Route, convergence and CoV of one point in words.</summary>
     public static string RouteText(ProfilePoint p) =>
         RouteName(p.Route) + (p.Converged ? ", converged" : ", NOT converged")
@@ -321,7 +335,13 @@ public static partial class HtmlReportWriter
         th { text-align: left; background: #eef0f4; border-bottom: 2px solid #3d5a80; padding: 4px 6px; }
         td { border-bottom: 1px solid #e3e5ea; padding: 3px 6px; font-variant-numeric: tabular-nums; }
         tr.superseded td { text-decoration: line-through; color: #8a8d91; }
-        tr.not-converged td { background: #fbe9ec; }
+        tr.not-converged td { background: #fbe9ec; } tr.above-target td { background: #fff3e0; }
+        .flag { display: inline-block; white-space: nowrap; border-radius: 3px; padding: 0 5px; font-size: 12px; font-weight: bold; border: 1px solid; }
+        .flag-not_converged { color: #7a1c2e; border-color: #9b2335; background: #fbe9ec; }
+        .flag-overdue { color: #5b2a00; border-color: #b35900; background: #ffe6cc; }
+        .flag-above_target { color: #3d1f66; border-color: #5e3a99; background: #efe6fa; }
+        .flag-none { color: #5b6275; font-size: 12px; } .marks { margin-top: 4px; }
+        .legend { font-size: 13px; } .legend dl { grid-template-columns: max-content auto; }
         figure { margin: 16px 0; page-break-inside: avoid; } figure img { width: 100%; border: 1px solid #e3e5ea; }
         figcaption { font-size: 13px; color: #5b6275; }
         .na { color: #9b2335; font-weight: bold; } .small { font-size: 12px; color: #5b6275; }

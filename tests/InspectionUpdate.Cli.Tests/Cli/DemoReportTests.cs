@@ -1,0 +1,136 @@
+using System.Globalization;
+using System.Text.Json;
+using System.Text.RegularExpressions;
+using InspectionUpdate.Cli.Infrastructure;
+
+namespace InspectionUpdate.Tests.Cli;
+
+/// <summary>The demo run once with --schedule; its pages and exports are read by the checks below.</summary>
+public sealed class DemoReportFixture : IDisposable
+{
+    private readonly CliRunner cli = new();
+
+    public DemoReportFixture()
+    {
+        Run = cli.Run("demo", "--out", "demo", "--schedule", "--json");
+        Assert.True(Run.ExitCode == ExitCodes.Ok, Run.Error);
+        Json = Run.Json();
+        Folder = Path.GetDirectoryName(Json.GetProperty("portfolio_report").GetString()!)!;
+        Index = File.ReadAllText(Path.Combine(Folder, "index.html"));
+        Register = JsonDocument.Parse(File.ReadAllText(Path.Combine(Folder, "register.json"))).RootElement.Clone();
+        Scenario = JsonDocument.Parse(File.ReadAllText(Path.Combine(AppContext.BaseDirectory, "sample-data", "scenario.json"))).RootElement.Clone();
+    }
+
+    internal CliRun Run { get; }
+
+    public JsonElement Json { get; }
+
+    public string Folder { get; }
+
+    public string Index { get; }
+
+    public JsonElement Register { get; }
+
+    public JsonElement Scenario { get; }
+
+    public IEnumerable<JsonElement> Components => Register.GetProperty("components").EnumerateArray();
+
+    public string Page(string code) => File.ReadAllText(Path.Combine(Folder, code + ".html"));
+
+    /// <summary>The marks' keys of a set of flag spans in an HTML fragment.</summary>
+    public static string[] Marks(string html) =>
+        Regex.Matches(html, "<span class=\"flag flag-([a-z_]+)\"").Select(m => m.Groups[1].Value).ToArray();
+
+    /// <summary>The HTML of the table row of <paramref name="code"/> in the section <paramref name="section"/> of a page.</summary>
+    public static string Row(string html, string section, string code)
+    {
+        var start = html.IndexOf("<section id=\"" + section + "\">", StringComparison.Ordinal);
+        Assert.True(start >= 0, section);
+        var end = html.IndexOf("</section>", start, StringComparison.Ordinal);
+        var rows = Regex.Matches(html[start..end], "<tr[^>]*>.*?</tr>", RegexOptions.Singleline).Select(m => m.Value);
+        return Assert.Single(rows, r => r.Contains("<td>" + code + "</td>", StringComparison.Ordinal));
+    }
+
+    public void Dispose() => cli.Dispose();
+}
+
+public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<DemoReportFixture>
+{
+    [Fact]
+    public void Every_component_carries_the_same_marks_on_the_register_page_its_own_page_register_json_and_both_csv_files()
+    {
+        var csv = File.ReadAllLines(Path.Combine(demo.Folder, "register.csv"));
+        var header = csv[0].Split(',');
+        var flagsColumn = Array.IndexOf(header, "flags");
+        Assert.True(flagsColumn >= 0);
+        foreach (var c in demo.Components)
+        {
+            var code = c.GetProperty("component_id").GetString()!;
+            var json = c.GetProperty("flags").EnumerateArray().Select(f => f.GetString()!).ToArray();
+            Assert.Equal(json, DemoReportFixture.Marks(DemoReportFixture.Row(demo.Index, "ranking", code)));
+            Assert.Equal(json, DemoReportFixture.Marks(DemoReportFixture.Row(demo.Index, "due-dates", code)));
+            var page = demo.Page(code);
+            var header0 = page[..page.IndexOf("</header>", StringComparison.Ordinal)];
+            Assert.Equal(json, DemoReportFixture.Marks(header0));
+            var export = JsonDocument.Parse(File.ReadAllText(Path.Combine(demo.Folder, code + ".json"))).RootElement;
+            Assert.Equal(json, export.GetProperty("flags").EnumerateArray().Select(f => f.GetString()!).ToArray());
+            var line = Assert.Single(csv, l => l.StartsWith(code + ",", StringComparison.Ordinal));
+            Assert.Contains("," + string.Join(';', json) + ",", line, StringComparison.Ordinal);
+        }
+    }
+
+    [Fact]
+    public void The_marks_follow_the_numbers_in_register_json_and_the_command_lines_convergence_verdict()
+    {
+        // The rule written out (docs/reports.md): above target ⇔ annual Pf now ≥ target; overdue ⇔ next due ≤ evidence date;
+        // not converged ⇔ the command line's all_converged is false.
+        var target = demo.Register.GetProperty("target_annual_pf").GetDouble();
+        var asOf = DateOnly.Parse(demo.Register.GetProperty("assessed_as_of").GetString()!, CultureInfo.InvariantCulture);
+        var cliConverged = demo.Json.GetProperty("summary").EnumerateArray()
+            .ToDictionary(r => r.GetProperty("component_id").GetString()!, r => r.GetProperty("all_converged").GetBoolean());
+        foreach (var c in demo.Components)
+        {
+            var code = c.GetProperty("component_id").GetString()!;
+            var flags = c.GetProperty("flags").EnumerateArray().Select(f => f.GetString()).ToHashSet();
+            var pf = c.GetProperty("current_annual_pf").GetDouble();
+            Assert.Equal(pf >= target, flags.Contains("above_target"));
+            var due = c.GetProperty("next_due").GetString() is { } d ? DateOnly.Parse(d, CultureInfo.InvariantCulture) : (DateOnly?)null;
+            Assert.Equal(due <= asOf, flags.Contains("overdue"));
+            Assert.Equal(!cliConverged[code], flags.Contains("not_converged"));
+            // The register page never calls a component converged that the command line calls not converged.
+            var rowText = Regex.Replace(DemoReportFixture.Row(demo.Index, "ranking", code), "<[^>]+>", " ");
+            if (!cliConverged[code]) Assert.DoesNotContain("converged", rowText.Replace("not converged", string.Empty, StringComparison.Ordinal), StringComparison.Ordinal);
+        }
+    }
+
+    [Fact]
+    public void The_summary_cards_count_each_mark_and_a_legend_explains_them()
+    {
+        var summary = demo.Index[demo.Index.IndexOf("<section id=\"summary\">", StringComparison.Ordinal)..demo.Index.IndexOf("<section id=\"ranking\">", StringComparison.Ordinal)];
+        foreach (var key in new[] { "not_converged", "overdue", "above_target" })
+        {
+            var expected = demo.Components.Count(c => c.GetProperty("flags").EnumerateArray().Any(f => f.GetString() == key));
+            var card = Regex.Match(summary, "<div class=\"card card-flag\"><div class=\"k\"><span class=\"flag flag-" + key + "\">[^<]*</span></div><div class=\"v\">(\\d+)</div>");
+            Assert.True(card.Success, key);
+            Assert.Equal(expected, int.Parse(card.Groups[1].Value, CultureInfo.InvariantCulture));
+            Assert.Matches("<dt><span class=\"flag flag-" + key + "\">[^<]+</span></dt><dd>[^<]{20,}", summary);
+        }
+
+        // The demo has a component above its target (HR1-J118 at the evidence date): the check above is not vacuous.
+        Assert.Contains(demo.Components, c => c.GetProperty("flags").EnumerateArray().Any(f => f.GetString() == "above_target"));
+    }
+
+    [Fact]
+    public void Sister_components_sharing_a_model_file_carry_their_own_names()
+    {
+        // HR1-J112/HR1-J118 share one crack-growth file titled for J-112; IL3-KP42/IL3-KP38 one corrosion file titled for KP 4.2.
+        foreach (var (code, other) in new[] { ("HR1-J118", "J-112"), ("IL3-KP38", "KP 4.2") })
+        {
+            var name = demo.Scenario.GetProperty("components").EnumerateArray().Single(c => c.GetProperty("id").GetString() == code).GetProperty("name").GetString()!;
+            var page = Regex.Replace(demo.Page(code), "data:image/png;base64,[A-Za-z0-9+/=]+", string.Empty);
+            Assert.Contains(System.Net.WebUtility.HtmlEncode(name), page, StringComparison.Ordinal);
+            Assert.DoesNotContain(other, page, StringComparison.Ordinal);
+            Assert.DoesNotContain(other, File.ReadAllText(Path.Combine(demo.Folder, code + ".json")), StringComparison.Ordinal);
+        }
+    }
+}
