@@ -78,7 +78,11 @@ public static class ReportMapping
         if (plan.Schedule is not null) notes.Add(plan.Schedule.Message);
         notes.AddRange(notRequested ?? []);
         if (!plan.AllConverged) notes.Add("Some estimates behind this plan did not converge: treat its dates as provisional.");
-        return new ReportPlan(plan.Next.Target.AnnualPf, plan.Next.Target.Describe(), schedule, plan.Next.Message, notes);
+        // The status never lets a schedule that misses the target pass as keeping it.
+        var status = plan.Schedule is { } sch && (!sch.Verification.WithinTarget || sch.Status != ScheduleStatus.Complete)
+            ? plan.Next.Message + " " + sch.Message
+            : plan.Next.Message;
+        return new ReportPlan(plan.Next.Target.AnnualPf, plan.Next.Target.Describe(), schedule, status, notes);
     }
 
     private static string G(double v) => v.ToString("G4", CultureInfo.InvariantCulture);

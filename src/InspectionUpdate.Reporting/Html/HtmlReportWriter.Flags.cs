@@ -30,7 +30,7 @@ public static partial class HtmlReportWriter
         {
             h.Append("<dt><span class=\"").Append(FlagClass(f)).Append("\">").Append(E(ReportMarks.Words(f))).Append("</span></dt><dd>")
                 .Append(E(ReportMarks.Meaning(f)));
-            if (counts is not null) h.Append(" (").Append(counts[f].ToString(System.Globalization.CultureInfo.InvariantCulture)).Append(')');
+            if (counts is not null) h.Append(" (").Append(T(counts[f].ToString(System.Globalization.CultureInfo.InvariantCulture))).Append(')');
             h.Append("</dd>");
         }
 
@@ -45,7 +45,7 @@ public static partial class HtmlReportWriter
         foreach (var f in ReportMarks.All)
         {
             h.Append("<div class=\"card card-flag\"><div class=\"k\"><span class=\"").Append(FlagClass(f)).Append("\">").Append(E(ReportMarks.Words(f)))
-                .Append("</span></div><div class=\"v\">").Append(counts[f].ToString(System.Globalization.CultureInfo.InvariantCulture)).Append("</div></div>");
+                .Append("</span></div><div class=\"v\">").Append(T(counts[f].ToString(System.Globalization.CultureInfo.InvariantCulture))).Append("</div></div>");
         }
     }
 }

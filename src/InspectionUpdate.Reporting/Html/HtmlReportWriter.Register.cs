@@ -32,7 +32,7 @@ public static partial class HtmlReportWriter
         Card(h, "Stored results", Count(rows.Count));
         Card(h, "Assessed, converged", Count(rows.Count(r => r.Status == "assessed")));
         Card(h, "Failed", Count(rows.Count(r => r.Status == "failed")));
-        Card(h, "Target", ReportCharts.Probability(data.TargetAnnualPf) + " per year");
+        Card(h, "Target", NumberText.Format(data.TargetAnnualPf) + " per year");
         var counts = ReportMarks.Counts(rows.Select(r => r.Flags));
         FlagCards(h, counts);
         Card(h, "Due within a year", Count(rows.Count(r => r.NextDue is { } d && d <= data.Provenance.AssessedAsOf.AddYears(1))));
@@ -64,8 +64,8 @@ public static partial class HtmlReportWriter
             ranked.Select((r, i) => new[]
             {
                 Cell((i + 1).ToString(CultureInfo.InvariantCulture)), Link(r, Name(r)), Cell(r.Site),
-                Cell(ReportCharts.Probability(r.AnnualPf!.Value) + (r.YearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty), r.AnnualPf.Value.ToString("R", CultureInfo.InvariantCulture)),
-                Cell(r.Beta is { } b ? Num(b, "0.00") : "-", r.Beta?.ToString("R", CultureInfo.InvariantCulture)),
+                Cell(NumberText.Format(r.AnnualPf!.Value) + (r.YearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty), r.AnnualPf.Value.ToString("R", CultureInfo.InvariantCulture)),
+                Cell(r.Beta is { } b ? NumberText.Format(b) : "-", r.Beta?.ToString("R", CultureInfo.InvariantCulture)),
                 YearsCell(r), DueCell(r), Cell(r.Route ?? "-"), Cell(r.Status), MarksCell(r.Flags),
             }),
             ranked.Select(r => FlagRowClass(r.Flags)).ToArray());
@@ -77,7 +77,7 @@ public static partial class HtmlReportWriter
             due.Select(r => new[]
             {
                 DueCell(r), Link(r, Name(r)), Cell(r.Site),
-                Cell(r.AnnualPf is { } p ? ReportCharts.Probability(p) : "-", r.AnnualPf?.ToString("R", CultureInfo.InvariantCulture)), YearsCell(r), Cell(r.Status), MarksCell(r.Flags),
+                Cell(r.AnnualPf is { } p ? NumberText.Format(p) : "-", r.AnnualPf?.ToString("R", CultureInfo.InvariantCulture)), YearsCell(r), Cell(r.Status), MarksCell(r.Flags),
             }),
             due.Select(r => FlagRowClass(r.Flags)).ToArray());
         EndSection(h);
@@ -147,7 +147,7 @@ public static partial class HtmlReportWriter
 
     private readonly record struct HtmlCell(string Html, string? SortKey);
 
-    private static HtmlCell Cell(string text, string? sortKey = null) => new(E(text), sortKey);
+    private static HtmlCell Cell(string text, string? sortKey = null) => new(T(text), sortKey);
 
     private static HtmlCell MarksCell(ReportMark flags) => new(FlagMarks(flags), ReportMarks.CsvCell(flags));
 
@@ -155,7 +155,7 @@ public static partial class HtmlReportWriter
         new(r.ReportFile is null ? E(text) : "<a href=\"" + E(r.ReportFile) + "\">" + E(text) + "</a>", text);
 
     private static HtmlCell YearsCell(RegisterResultRow r) => r.YearsToTarget is { } y && double.IsFinite(y)
-        ? Cell(Num(y, "0.0"), y.ToString("R", CultureInfo.InvariantCulture))
+        ? Cell(NumberText.Format(y), y.ToString("R", CultureInfo.InvariantCulture))
         : Cell(r.TargetReached == false ? "beyond horizon" : "-", r.TargetReached == false ? "1e9" : "-1");
 
     private static HtmlCell DueCell(RegisterResultRow r) => r.NextDue is { } d ? Cell(Date(d), d.ToString("yyyyMMdd", CultureInfo.InvariantCulture)) : Cell("not planned", "99999999");

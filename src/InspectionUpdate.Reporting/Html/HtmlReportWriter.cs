@@ -44,7 +44,7 @@ public static partial class HtmlReportWriter
         h.Append("<div class=\"cards\">");
         Card(h, "In service since", Date(data.InServiceDate));
         Card(h, point is null ? "Annual Pf" : AnnualPfLabel(data.InServiceDate, point, data.Updated is null ? "prior" : "updated"),
-            point is null ? "not available" : ReportCharts.Probability(point.IntervalPf));
+            point is null ? "not available" : NumberText.Format(point.IntervalPf));
         Card(h, "Route of this number", point is null ? "-" : RouteText(point));
         Card(h, "Next inspection", data.Plan?.Schedule.Count > 0 ? Date(data.Plan.Schedule[0].Date) : "not planned");
         h.Append("<div class=\"card card-flag\"><div class=\"k\">Marks</div><div class=\"v\">").Append(FlagMarks(data.Flags)).Append("</div></div>");
@@ -67,8 +67,8 @@ public static partial class HtmlReportWriter
                 data.Findings.OrderBy(f => f.Date).ThenBy(f => f.Reference, StringComparer.Ordinal).ThenBy(f => f.Revision)
                     .Select(f => new[]
                     {
-                        f.Reference, Date(f.Date), Num(f.TimeYears, "0.00"), f.Outcome, f.Method,
-                        f.MeasuredSizeMm is { } m ? Num(m, "0.00") : "-", f.Revision.ToString(CultureInfo.InvariantCulture),
+                        f.Reference, Date(f.Date), NumberText.Format(f.TimeYears), f.Outcome, f.Method,
+                        f.MeasuredSizeMm is { } m ? NumberText.Format(m) : "-", f.Revision.ToString(CultureInfo.InvariantCulture),
                         f.RecordedBy, f.Reason ?? (f.Revision == 1 ? OriginalRecord : "-"),
                     }),
                 data.Findings.OrderBy(f => f.Date).ThenBy(f => f.Reference, StringComparer.Ordinal).ThenBy(f => f.Revision).Select(f => f.Superseded ? "superseded" : null).ToArray());
@@ -77,7 +77,7 @@ public static partial class HtmlReportWriter
         if (data.Repairs.Count > 0)
         {
             h.Append("<h3>Repairs</h3>\n");
-            Table(h, ["date", "time (years)", "description"], data.Repairs.Select(r => new[] { Date(r.Date), Num(r.TimeYears, "0.00"), r.Description }));
+            Table(h, ["date", "time (years)", "description"], data.Repairs.Select(r => new[] { Date(r.Date), NumberText.Format(r.TimeYears), r.Description }));
         }
 
         EndSection(h);
@@ -88,7 +88,7 @@ public static partial class HtmlReportWriter
         {
             if (profile is null) continue;
             h.Append("<h3>").Append(E(profile.Label)).Append("</h3>\n");
-            ProfileTable(h, profile);
+            ProfileTable(h, profile, profile == data.Prior ? "prior" : "updated");
         }
 
         if (data.Prior is null && data.Updated is null) h.Append("<p class=\"na\">No profile available.</p>\n");
@@ -99,7 +99,7 @@ public static partial class HtmlReportWriter
             Table(h, ["input", "prior mean", "prior sd", "posterior mean", "posterior sd", "posterior 5 %", "posterior 95 %"],
                 data.PosteriorSummaries.Select(p => new[]
                 {
-                    p.Variable, G(p.PriorMean), G(p.PriorStandardDeviation), G(p.PosteriorMean), G(p.PosteriorStandardDeviation), G(p.Quantile05), G(p.Quantile95),
+                    p.Variable, NumberText.Format(p.PriorMean), NumberText.Format(p.PriorStandardDeviation), NumberText.Format(p.PosteriorMean), NumberText.Format(p.PosteriorStandardDeviation), NumberText.Format(p.Quantile05), NumberText.Format(p.Quantile95),
                 }));
         }
         EndSection(h);
@@ -137,15 +137,15 @@ public static partial class HtmlReportWriter
         if (data.Plan is null) h.Append("<p class=\"na\">No plan: the planner was not run or is not available in this build.</p>\n");
         else
         {
-            h.Append("<p><strong>").Append(E(data.Plan.Status)).Append("</strong></p>\n<p>Target annual failure probability ")
-                .Append(E(ReportCharts.Probability(data.Plan.TargetAnnualPf))).Append(" per year (").Append(E(data.Plan.TargetSource)).Append(").</p>\n");
-            h.Append("<p class=\"small\">").Append(E(PlanAnnualNote(data.InServiceDate, data.Provenance.AssessedAsOf, point))).Append("</p>\n");
+            h.Append("<p><strong>").Append(T(data.Plan.Status)).Append("</strong></p>\n<p>Target annual failure probability ")
+                .Append(T(NumberText.Format(data.Plan.TargetAnnualPf))).Append(" per year (").Append(T(data.Plan.TargetSource)).Append(").</p>\n");
+            h.Append("<p class=\"small\">").Append(T(PlanAnnualNote(data.InServiceDate, data.Provenance.AssessedAsOf, point))).Append("</p>\n");
             if (data.Plan.Schedule.Count > 0)
             {
                 Table(h, ["#", "date", "time (years)", "method", "basis"],
                     data.Plan.Schedule.Select((s, i) => new[]
                     {
-                        (i + 1).ToString(CultureInfo.InvariantCulture), Date(s.Date), Num(s.TimeYears, "0.00"), s.Method.Length > 0 ? s.Method : NoMethod, s.Basis,
+                        (i + 1).ToString(CultureInfo.InvariantCulture), Date(s.Date), NumberText.Format(s.TimeYears), s.Method.Length > 0 ? s.Method : NoMethod, s.Basis,
                     }));
             }
 
@@ -181,7 +181,7 @@ public static partial class HtmlReportWriter
         h.Append("<div class=\"cards\">");
         Card(h, "Components", data.Rows.Count.ToString(CultureInfo.InvariantCulture));
         Card(h, "Assessed", assessed.Length.ToString(CultureInfo.InvariantCulture));
-        Card(h, "Target", data.TargetAnnualPf is { } t ? ReportCharts.Probability(t) + " per year" : "none");
+        Card(h, "Target", data.TargetAnnualPf is { } t ? NumberText.Format(t) + " per year" : "none");
         FlagCards(h, counts);
         h.Append("</div>\n");
         Legend(h, counts);
@@ -200,9 +200,9 @@ public static partial class HtmlReportWriter
             ranked.Select((r, i) => new[]
             {
                 Cell((i + 1).ToString(CultureInfo.InvariantCulture)), Cell(r.ComponentId), Cell(r.Site),
-                Cell(r.CurrentAnnualPf is { } p ? ReportCharts.Probability(p) + (r.CurrentYearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty) : "not available"),
+                Cell(r.CurrentAnnualPf is { } p ? NumberText.Format(p) + (r.CurrentYearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty) : "not available"),
                 Cell(r.Route),
-                Cell(r.YearsToTarget is { } y ? (double.IsPositiveInfinity(y) ? "beyond horizon" : Num(y, "0.0")) : "-"),
+                Cell(r.YearsToTarget is { } y ? (double.IsPositiveInfinity(y) ? "beyond horizon" : NumberText.Format(y)) : "-"),
                 new HtmlCell(FlagMarks(r.FlagSet), ReportMarks.CsvCell(r.FlagSet)),
             }),
             ranked.Select(r => FlagRowClass(r.FlagSet)).ToArray(), sortable: false);
@@ -241,21 +241,43 @@ public static partial class HtmlReportWriter
         return h.ToString();
     }
 
-    private static void ProfileTable(StringBuilder h, ReliabilityProfile profile)
+    private static void ProfileTable(StringBuilder h, ReliabilityProfile profile, string id)
     {
         // Long grids are thinned for reading; the CSV export carries every step.
         var points = profile.Points;
         var step = Math.Max(1, (int)Math.Ceiling(points.Count / 30.0));
         var shown = points.Where((_, i) => i % step == 0 || i == points.Count - 1).ToArray();
-        Table(h, ["time (years)", "β", "Pf(t)", "ΔPf", "hazard", "route", "converged", "CoV", "note"],
-            shown.Select(p => new[]
+        var notes = new ProfileNotes();
+        var rows = shown.Select(p =>
+        {
+            var (samples, firstOrder, refs) = notes.Split(p.Note);
+            var simulated = p.Route is ComputationRoute.MonteCarlo or ComputationRoute.ImportanceSampling or ComputationRoute.SubsetSimulation;
+            return new[]
             {
-                Num(p.TimeYears, "0.##"), Num(p.Beta, "0.000"), ReportCharts.Probability(p.CumulativePf), ReportCharts.Probability(p.IntervalPf),
-                ReportCharts.Probability(p.Hazard), RouteName(p.Route), p.Converged ? "yes" : "NO",
-                p.CoefficientOfVariation is { } c ? Num(c, "0.000") : "-", p.Note ?? string.Empty,
-            }),
-            shown.Select(p => p.Converged ? null : "not-converged").ToArray());
-        if (step > 1) h.Append("<p class=\"small\">").Append(E(ThinnedNote(step, points.Count))).Append("</p>\n");
+                Cell(NumberText.Format(p.TimeYears)), Cell(double.IsFinite(p.Beta) ? NumberText.Format(p.Beta) : p.Beta > 0 ? "∞" : "−∞"),
+                Cell(NumberText.Probability(p.CumulativePf, p.UpperBound, simulated)), Cell(NumberText.Format(p.IntervalPf)), Cell(NumberText.Format(p.Hazard)),
+                Cell(RouteName(p.Route)), Cell(p.Converged ? "yes" : "NO"),
+                Cell(p.CoefficientOfVariation is { } c && double.IsFinite(c) ? NumberText.Format(c) : "-"),
+                Cell(samples ?? "-"), Cell(firstOrder is { } f ? NumberText.Format(f) : "-"),
+                new HtmlCell(string.Join(" ", refs.Select(r => "<a class=\"fn\" href=\"#" + id + "-note-" + r.ToString(CultureInfo.InvariantCulture) + "\"><span class=\"num\">" + r.ToString(CultureInfo.InvariantCulture) + "</span></a>")), null),
+            };
+        }).ToArray();
+        SortableTable(h, ["time (years)", "β", "Pf(t)", "ΔPf", "hazard", "route", "converged", "CoV", "effective failure samples", "first order (check)", "notes"],
+            rows, shown.Select(p => p.Converged ? null : "not-converged").ToArray(), sortable: false);
+        if (notes.Texts.Count > 0)
+        {
+            h.Append("<ol class=\"notes\">");
+            for (var i = 0; i < notes.Texts.Count; i++)
+            {
+                h.Append("<li id=\"").Append(id).Append("-note-").Append((i + 1).ToString(CultureInfo.InvariantCulture)).Append("\">").Append(T(notes.Texts[i])).Append("</li>");
+            }
+
+            h.Append("</ol>\n");
+        }
+
+        h.Append("<p class=\"small\">Pf(t) “&lt; x”: no failure sampled at this step, bounded above by x (three standard errors); “")
+            .Append(E(NumberText.ExactZero)).Append("”: an exact zero. “Effective failure samples”: effective number of weighted samples that failed by t (at least 30 behind a converged number). “First order (check)”: the first-order value where it disagrees with the sampled one beyond three standard errors and 10 %.</p>\n");
+        if (step > 1) h.Append("<p class=\"small\">").Append(T(ThinnedNote(step, points.Count))).Append("</p>\n");
         if (!profile.AllConverged) h.Append("<p class=\"na\">Some steps did not converge: their numbers are best estimates only and must not be relied on.</p>\n");
     }
 
@@ -297,12 +319,12 @@ public static partial class HtmlReportWriter
 
     /// <summary>Route and CoV of one number, without a word on convergence (that is the component's not-converged mark).</summary>
     public static string RouteAndCov(ProfilePoint p) =>
-        RouteName(p.Route) + (p.CoefficientOfVariation is { } c ? ", CoV " + Num(c, "0.000") : string.Empty);
+        RouteName(p.Route) + (p.CoefficientOfVariation is { } c && double.IsFinite(c) ? ", CoV " + NumberText.Format(c) : string.Empty);
 
     /// <summary>Route, convergence and CoV of one point in words.</summary>
     public static string RouteText(ProfilePoint p) =>
         RouteName(p.Route) + (p.Converged ? ", converged" : ", NOT converged")
-        + (p.CoefficientOfVariation is { } c ? ", CoV " + Num(c, "0.000") : string.Empty);
+        + (p.CoefficientOfVariation is { } c && double.IsFinite(c) ? ", CoV " + NumberText.Format(c) : string.Empty);
 
     /// <summary>The point of <paramref name="profile"/> at the first time at or after <paramref name="timeYears"/> (the last point beyond the grid).</summary>
     public static ProfilePoint? PointAt(ReliabilityProfile profile, double timeYears)
@@ -336,6 +358,7 @@ public static partial class HtmlReportWriter
         td { border-bottom: 1px solid #e3e5ea; padding: 3px 6px; font-variant-numeric: tabular-nums; }
         tr.superseded td { text-decoration: line-through; color: #8a8d91; }
         tr.not-converged td { background: #fbe9ec; } tr.above-target td { background: #fff3e0; }
+        .num { white-space: nowrap; } a.fn { font-size: 11px; margin-right: 3px; } ol.notes { font-size: 12px; color: #3b4150; }
         .flag { display: inline-block; white-space: nowrap; border-radius: 3px; padding: 0 5px; font-size: 12px; font-weight: bold; border: 1px solid; }
         .flag-not_converged { color: #7a1c2e; border-color: #9b2335; background: #fbe9ec; }
         .flag-overdue { color: #5b2a00; border-color: #b35900; background: #ffe6cc; }
@@ -393,7 +416,7 @@ public static partial class HtmlReportWriter
     private static void EndSection(StringBuilder h) => h.Append("</section>\n");
 
     private static void Card(StringBuilder h, string key, string value) =>
-        h.Append("<div class=\"card\"><div class=\"k\">").Append(E(key)).Append("</div><div class=\"v\">").Append(E(value)).Append("</div></div>");
+        h.Append("<div class=\"card\"><div class=\"k\">").Append(E(key)).Append("</div><div class=\"v\">").Append(T(value)).Append("</div></div>");
 
     private static void Figure(StringBuilder h, byte[] png, string caption) =>
         h.Append("<figure><img alt=\"").Append(E(caption)).Append("\" src=\"data:image/png;base64,").Append(Convert.ToBase64String(png))
@@ -402,7 +425,7 @@ public static partial class HtmlReportWriter
     private static void List(StringBuilder h, IEnumerable<string> items)
     {
         h.Append("<ul>");
-        foreach (var i in items) h.Append("<li>").Append(E(i)).Append("</li>");
+        foreach (var i in items) h.Append("<li>").Append(T(i)).Append("</li>");
         h.Append("</ul>\n");
     }
 
@@ -416,7 +439,7 @@ public static partial class HtmlReportWriter
         {
             var cls = rowClasses is not null && i < rowClasses.Length ? rowClasses[i] : null;
             h.Append(cls is null ? "<tr>" : "<tr class=\"" + cls + "\">");
-            foreach (var c in r) h.Append("<td>").Append(E(c)).Append("</td>");
+            foreach (var c in r) h.Append("<td>").Append(T(c)).Append("</td>");
             h.Append("</tr>\n");
             i++;
         }
@@ -426,9 +449,11 @@ public static partial class HtmlReportWriter
 
     private static string E(string s) => WebUtility.HtmlEncode(s);
 
+    /// <summary>Text content: encoded, numbers in the report format, each number and date in one unbreakable span.</summary>
+    private static string T(string s) => NumberText.Html(s);
+
     private static string Date(DateOnly d) => d.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
 
-    private static string G(double v) => v.ToString("G4", CultureInfo.InvariantCulture);
 
-    private static string Num(double v, string format) => v.ToString(format, CultureInfo.InvariantCulture);
+
 }

@@ -295,11 +295,7 @@ public static class ReportCharts
     }
 
     /// <summary>A probability as text: 3 significant digits, exponent form below 1e-3.</summary>
-    public static string Probability(double p) =>
-        !double.IsFinite(p) ? p.ToString(CultureInfo.InvariantCulture)
-        : p == 0 ? "0"
-        : Math.Abs(p) < 1e-3 ? p.ToString("0.00e0", CultureInfo.InvariantCulture)
-        : p.ToString("0.####", CultureInfo.InvariantCulture);
+    public static string Probability(double p) => NumberText.Format(p);
 
     private static double Value(ProfileQuantity quantity, ProfilePoint p) => quantity switch
     {

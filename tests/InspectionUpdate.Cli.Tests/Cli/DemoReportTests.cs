@@ -110,7 +110,7 @@ public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<Demo
         foreach (var key in new[] { "not_converged", "overdue", "above_target" })
         {
             var expected = demo.Components.Count(c => c.GetProperty("flags").EnumerateArray().Any(f => f.GetString() == key));
-            var card = Regex.Match(summary, "<div class=\"card card-flag\"><div class=\"k\"><span class=\"flag flag-" + key + "\">[^<]*</span></div><div class=\"v\">(\\d+)</div>");
+            var card = Regex.Match(summary, "<div class=\"card card-flag\"><div class=\"k\"><span class=\"flag flag-" + key + "\">[^<]*</span></div><div class=\"v\"><span class=\"num\">(\\d+)</span></div>");
             Assert.True(card.Success, key);
             Assert.Equal(expected, int.Parse(card.Groups[1].Value, CultureInfo.InvariantCulture));
             Assert.Matches("<dt><span class=\"flag flag-" + key + "\">[^<]+</span></dt><dd>[^<]{20,}", summary);
@@ -131,6 +131,45 @@ public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<Demo
             Assert.Contains(System.Net.WebUtility.HtmlEncode(name), page, StringComparison.Ordinal);
             Assert.DoesNotContain(other, page, StringComparison.Ordinal);
             Assert.DoesNotContain(other, File.ReadAllText(Path.Combine(demo.Folder, code + ".json")), StringComparison.Ordinal);
+        }
+    }
+
+    [Fact]
+    public void Every_number_in_the_pages_text_sits_in_one_unbreakable_span_and_no_page_uses_another_number_format()
+    {
+        foreach (var file in Directory.GetFiles(demo.Folder, "*.html"))
+        {
+            var html = Regex.Replace(File.ReadAllText(file), "<img[^>]*>", string.Empty);
+            var body = html[html.IndexOf("<main>", StringComparison.Ordinal)..];
+            body = Regex.Replace(body, "<script.*?</script>", string.Empty, RegexOptions.Singleline);
+            // The CSS rule that makes the span unbreakable is on the page.
+            Assert.Contains(".num { white-space: nowrap; }", html, StringComparison.Ordinal);
+            // Inside tables and the summary cards, no number is left outside a span.
+            foreach (Match table in Regex.Matches(body, "<tbody>.*?</tbody>|<div class=\"v\">.*?</div>", RegexOptions.Singleline))
+            {
+                var text = Regex.Replace(table.Value, "<span class=\"num\">[^<]*</span>", " ");
+                text = Regex.Replace(text, "<[^>]+>", " ");
+                var loose = Regex.Match(text, @"(?<![\w.\-#&;])\d+(?:\.\d+)?(?:e-?\d+)?(?![\w])");
+                Assert.False(loose.Success, $"{Path.GetFileName(file)}: unwrapped number '{loose.Value}' in: {text.Trim()[..Math.Min(200, text.Trim().Length)]}");
+            }
+
+            // One format: no E-notation with a padded exponent (1.0E-004) or capital E anywhere in the visible text.
+            var visible = System.Net.WebUtility.HtmlDecode(Regex.Replace(body, "<[^>]+>", " "));
+            Assert.DoesNotMatch(@"\d[.\d]*E[-+]?\d", visible);
+            // A number never ends a line with its exponent on the next: "2.45e-" is always followed by its digits in the same span.
+            Assert.DoesNotMatch(@"\de-</span>", html);
+        }
+    }
+
+    [Fact]
+    public void The_plan_of_a_component_above_its_target_never_claims_to_keep_the_target()
+    {
+        foreach (var c in demo.Components.Where(c => c.GetProperty("flags").EnumerateArray().Any(f => f.GetString() == "above_target")))
+        {
+            var code = c.GetProperty("component_id").GetString()!;
+            var plan = ReportRunFixture.Section(demo.Page(code), "plan");
+            Assert.DoesNotContain("keep the annual ΔPf under the target 1.00e-4 (largest ratio", plan, StringComparison.Ordinal);
+            Assert.Contains("do NOT keep", plan, StringComparison.Ordinal);
         }
     }
 }
