@@ -129,8 +129,11 @@ public static class ComponentStudy
     public static ComponentReportData Report(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, IReadOnlyList<string> notAvailable,
         IReadOnlyList<string>? notRequested = null)
     {
-        var importance = ReportMapping.Importance(o.Current, plan?.Next.TimeYears ?? r.HorizonYears, o.Updated is null ? "prior" : "updated")
-            ?? (o.Updated is null ? null : ReportMapping.Importance(o.Prior, plan?.Next.TimeYears ?? r.HorizonYears, "prior"));
+        // The design point of the next due date (or of the evidence date when nothing is planned), never the horizon's.
+        var importanceTime = plan is not null && plan.Next.TimeYears >= r.AsOfYears ? plan.Next.TimeYears : r.AsOfYears;
+        var inputNames = c.Model.Inputs.Variables.Select(v => v.Name).ToArray();
+        var importance = ReportMapping.Importance(o.Current, importanceTime, o.Updated is null ? "prior" : "updated", inputNames, c.InServiceDate)
+            ?? (o.Updated is null ? null : ReportMapping.Importance(o.Prior, importanceTime, "prior", inputNames, c.InServiceDate));
         var maxSize = c.Model.MaximumSizeMm is { } m && double.IsFinite(m) ? m : 10;
         var assumptions = new List<string>
         {

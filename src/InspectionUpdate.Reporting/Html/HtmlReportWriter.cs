@@ -114,12 +114,20 @@ public static partial class HtmlReportWriter
             Figure(h, ReportCharts.Profile(ProfileQuantity.AnnualPf, data.Prior, data.Updated, data.Plan?.TargetAnnualPf, markers),
                 "Annual failure probability, prior (dashed) against updated (solid), with the target and the inspection, repair and planned-inspection times.");
             Figure(h, ReportCharts.Profile(ProfileQuantity.Beta, data.Prior, data.Updated, null, markers),
-                "Reliability index β(t) of the cumulative failure probability.");
+                "Reliability index β(t) of the cumulative failure probability. The cumulative Pf cannot fall, so β cannot rise except at a repair (Pf restarts): every rise is marked, a triangle where it is noise of the estimate (read the profile table's notes), a diamond at a repair.");
             Figure(h, ReportCharts.Profile(ProfileQuantity.CumulativePf, data.Prior, data.Updated, null, markers),
-                "Cumulative failure probability Pf(t).");
+                "Cumulative failure probability Pf(t), axis within [1e-12, 1]; values below 1e-12 (and zeros) are drawn at 1e-12.");
         }
 
-        if (data.Importance is not null) Figure(h, ReportCharts.Importance(data.Importance), "Importance factors α² at the design point: which inputs drive failure.");
+        if (data.Importance is not null)
+        {
+            Figure(h, ReportCharts.Importance(data.Importance),
+                "Importance factors α² of the model's inputs (with their units) at the " + data.Importance.Label + ": which inputs drive failure. The design point is that of the next due date, or of the evidence date when nothing is planned.");
+        }
+        else if (data.Prior is not null || data.Updated is not null)
+        {
+            h.Append("<p class=\"small\">No importance-factor chart: no step near the next due date or the evidence date has a first-order design point with weight on the model's inputs (sampled steps carry no design point).</p>\n");
+        }
         if (data.PodCurves.Count > 0)
         {
             Figure(h, ReportCharts.PodCurves(data.PodCurves),
