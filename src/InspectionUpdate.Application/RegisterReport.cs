@@ -5,6 +5,7 @@ using System.Text;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Register;
 using InspectionUpdate.Reporting;
+using InspectionUpdate.Reporting.Export;
 using InspectionUpdate.Reporting.Html;
 using InspectionUpdate.Updating;
 
@@ -107,6 +108,16 @@ public static class RegisterReport
 
         var csv = Path.Combine(folder, CsvName);
         WriteCsv(csv, rows, staleCodes.ToHashSet(StringComparer.Ordinal));
+        // The calendar of the stored results: each component's next due inspection (stored results keep no schedule).
+        var calendar = results.Where(r => r.NextDue is not null)
+            .Select(r => new CalendarEntry(r.ComponentCode, r.ComponentCode, r.SiteCode, 1, r.NextDue!.Value, string.Empty,
+                "the annual ΔPf reaches the target then without further inspection (stored result)")).ToArray();
+        using (var w = new StreamWriter(Path.Combine(folder, InspectionCalendar.CsvName)))
+        {
+            InspectionCalendar.WriteCsv(w, calendar, options.AsOf);
+        }
+
+        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections"));
         var data = new RegisterResultsReportData
         {
             Title = title,

@@ -63,7 +63,7 @@ public static class ReportRun
         var rows = new List<PortfolioRow>();
         foreach (var run in runs) rows.Add(WriteComponent(folder, run, options, notAvailable));
 
-        var portfolio = new PortfolioReportData
+        PortfolioReportData portfolio = new()
         {
             Title = title,
             Rows = rows,
@@ -84,6 +84,14 @@ public static class ReportRun
             NotAvailable = notAvailable,
             Provenance = new ReportProvenance(ToolInfo.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf),
         };
+        var calendar = CalendarEntries(runs);
+        using (var w = new StreamWriter(Path.Combine(folder, InspectionCalendar.CsvName)))
+        {
+            InspectionCalendar.WriteCsv(w, calendar, options.AsOf);
+        }
+
+        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections"));
+        portfolio = portfolio with { Downloads = [CsvName, InspectionCalendar.CsvName, InspectionCalendar.IcsName, "register.json"] };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.Portfolio(portfolio));
         using (var w = new StreamWriter(Path.Combine(folder, CsvName)))
@@ -127,6 +135,21 @@ public static class ReportRun
         }
 
         return ComponentStudy.Row(run.Context, run.Request, run.Outcome, run.Plan, safe + ".html");
+    }
+
+    /// <summary>Every due inspection of the runs' plans (the next inspection, and the schedule where one was computed) for the calendar.</summary>
+    public static IReadOnlyList<CalendarEntry> CalendarEntries(IEnumerable<ComponentRun> runs)
+    {
+        ArgumentNullException.ThrowIfNull(runs);
+        var entries = new List<CalendarEntry>();
+        foreach (var run in runs)
+        {
+            if (run.Context is null || run.Plan is null) continue;
+            var plan = ReportMapping.Plan(run.Plan);
+            entries.AddRange(plan.Schedule.Select((s, i) => new CalendarEntry(run.Context.Id, run.Context.Name, run.Context.SiteCode, i + 1, s.Date, s.Method, s.Basis)));
+        }
+
+        return entries;
     }
 
     /// <summary>What a report without --schedule says of the life-cycle schedule: not requested, and how to request it.</summary>

@@ -199,6 +199,9 @@ public sealed record PortfolioReportData
 
     /// <summary>Provenance.</summary>
     public required ReportProvenance Provenance { get; init; }
+
+    /// <summary>Files written beside the page (exports and the inspection calendar), linked from it.</summary>
+    public IReadOnlyList<string> Downloads { get; init; } = [];
 }
 
 /// <summary>Wording that every user-facing output carries.</summary>

@@ -225,6 +225,12 @@ public static partial class HtmlReportWriter
                 new HtmlCell(FlagMarks(r.FlagSet), ReportMarks.CsvCell(r.FlagSet)),
             }),
             byDue.Select(r => FlagRowClass(r.FlagSet)).ToArray(), sortable: false);
+        if (data.Downloads.Count > 0)
+        {
+            h.Append("<p class=\"small\">Files: ");
+            h.Append(string.Join(", ", data.Downloads.Select(f => "<a href=\"" + E(f) + "\">" + E(f) + "</a>")));
+            h.Append(". The inspection calendar (CSV and iCalendar, to import into a calendar) lists every due inspection of the plans, overdue ones first, then by site and month.</p>\n");
+        }
         EndSection(h);
 
         Section(h, "components", "Components");

@@ -172,4 +172,39 @@ public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<Demo
             Assert.Contains("do NOT keep", plan, StringComparison.Ordinal);
         }
     }
+
+    [Fact]
+    [Reference("RFC 5545 (iCalendar), parsed back with Ical.Net; the expected dates are the plans' own, read from each component's plan CSV")]
+    public void The_calendar_parses_back_with_ical_net_and_holds_every_due_date_of_the_plans_overdue_first()
+    {
+        var asOf = DateOnly.Parse(demo.Register.GetProperty("assessed_as_of").GetString()!, CultureInfo.InvariantCulture);
+        var expected = new List<(string Code, DateOnly Date)>();
+        foreach (var c in demo.Components)
+        {
+            var code = c.GetProperty("component_id").GetString()!;
+            var lines = File.ReadAllLines(Path.Combine(demo.Folder, code + ".plan.csv"));
+            var date = Array.IndexOf(lines[0].Split(','), "date");
+            expected.AddRange(lines.Skip(1).Select(l => (code, DateOnly.Parse(l.Split(',')[date], CultureInfo.InvariantCulture))));
+        }
+
+        Assert.True(expected.Count > demo.Components.Count(), "the demo with --schedule plans more than the next inspections");
+        var calendar = Ical.Net.Calendar.Load(File.ReadAllText(Path.Combine(demo.Folder, "calendar.ics")))!;
+        var events = calendar.Events.ToArray();
+        Assert.Equal(expected.Count, events.Length);
+        foreach (var (code, date) in expected)
+        {
+            var day = date <= asOf ? asOf : date;
+            Assert.Single(events, e => e.Summary!.Contains(code, StringComparison.Ordinal) && e.Summary.Contains("by " + date.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture), StringComparison.Ordinal)
+                && e.Start!.Year == day.Year && e.Start.Month == day.Month && e.Start.Day == day.Day && (date <= asOf) == e.Summary.StartsWith("OVERDUE", StringComparison.Ordinal));
+        }
+
+        // The CSV holds the same dates, overdue first, then by site and date.
+        var csv = File.ReadAllLines(Path.Combine(demo.Folder, "calendar.csv")).Skip(1).Select(l => l.Split(',')).ToArray();
+        Assert.Equal(expected.Count, csv.Length);
+        var status = csv.Select(r => r[0]).ToArray();
+        Assert.Equal(status.OrderBy(s => s == "overdue" ? 0 : 1), status);
+        var due = csv.Where(r => r[0] == "due").Select(r => (Site: r[1], Date: r[3])).ToArray();
+        Assert.Equal(due.OrderBy(d => d.Site, StringComparer.Ordinal).ThenBy(d => d.Date, StringComparer.Ordinal), due);
+        Assert.Contains(status, s => s == "overdue");
+    }
 }
