@@ -118,9 +118,12 @@ public static class RegisterReport
         }
 
         File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections"));
+        var document = OwnerRecords.DocumentControl(store);
+        title = document.Title ?? title;
         var data = new RegisterResultsReportData
         {
             Title = title,
+            DocumentControl = document with { Title = title },
             Rows = rows,
             TargetAnnualPf = options.Target.AnnualPf,
             OptionsKey = options.OptionsKey,

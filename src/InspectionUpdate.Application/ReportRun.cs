@@ -19,6 +19,9 @@ public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool S
 {
     /// <summary>Accuracy and seed of the sampling route.</summary>
     public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
+
+    /// <summary>Document control shown on every page and export (the register's, with this run's overrides).</summary>
+    public ReportDocumentControl DocumentControl { get; init; } = new();
 }
 
 /// <summary>Runs assess and plan over several components (in parallel) and writes the reports and exports.</summary>
@@ -63,9 +66,11 @@ public static class ReportRun
         var rows = new List<PortfolioRow>();
         foreach (var run in runs) rows.Add(WriteComponent(folder, run, options, notAvailable));
 
+        title = options.DocumentControl.Title ?? title;
         PortfolioReportData portfolio = new()
         {
             Title = title,
+            DocumentControl = options.DocumentControl with { Title = title },
             Rows = rows,
             TargetAnnualPf = options.Target.AnnualPf,
             Assumptions =
@@ -100,7 +105,7 @@ public static class ReportRun
         }
 
         File.WriteAllText(Path.Combine(folder, "register.json"), JsonSerializer.Serialize(new RegisterExport("inspection-update/register-export/1", title, options.AsOf,
-            ToolInfo.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
+            ToolInfo.Version, fingerprint, options.Target.AnnualPf, options.DocumentControl with { Title = title }, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
         return index;
     }
 
@@ -120,7 +125,7 @@ public static class ReportRun
         }
 
         IReadOnlyList<string> notRequested = options.Schedule || run.Plan is null ? [] : [ScheduleNotRequested];
-        var data = ComponentStudy.Report(run.Context, run.Request, run.Outcome, run.Plan, notAvailable, notRequested);
+        var data = ComponentStudy.Report(run.Context, run.Request, run.Outcome, run.Plan, notAvailable, notRequested) with { DocumentControl = options.DocumentControl };
         File.WriteAllText(Path.Combine(folder, safe + ".html"), HtmlReportWriter.Component(data));
         File.WriteAllText(Path.Combine(folder, safe + ".json"), ProfileExport.ComponentJson(data));
         using (var w = new StreamWriter(Path.Combine(folder, safe + ".profile.csv")))
@@ -162,5 +167,6 @@ public static class ReportRun
     /// <summary>A component code as a file name.</summary>
     public static string Safe(string id) => string.Concat(id.Select(c => char.IsLetterOrDigit(c) || c is '-' or '_' or '.' ? c : '_'));
 
-    private sealed record RegisterExport(string Format, string Title, DateOnly AssessedAsOf, string ToolVersion, string RegisterFingerprint, double TargetAnnualPf, IReadOnlyList<PortfolioRow> Components);
+    private sealed record RegisterExport(string Format, string Title, DateOnly AssessedAsOf, string ToolVersion, string RegisterFingerprint, double TargetAnnualPf,
+        ReportDocumentControl DocumentControl, IReadOnlyList<PortfolioRow> Components);
 }

@@ -51,6 +51,8 @@ public static class CliApp
                 Add<RegisterReportCommand>(b, "register report").WithDescription("Write the register report from stored results (ranking, due dates, distributions, due inspections per year and site); component pages only on request.")
                     .WithExample("register", "report", "--as-of", "2025-06-30", "-r", "plant.register", "-o", "reports")
                     .WithExample("register", "report", "--as-of", "2025-06-30", "-r", "plant.register", "--above", "1e-4");
+                Add<RegisterDocumentCommand>(b, "register document").WithDescription("Record the document control of the register's reports (title, owner, author, checker, approver, revision, target source), kept with its history.")
+                    .WithExample("register", "document", "--title", "Line IL-3 integrity report", "--author", "A. Author", "--revision", "2", "--revision-date", "2025-07-01", "--reason", "annual issue", "-r", "plant.register");
                 Add<RegisterInventCommand>(b, "register invent").WithDescription("Create a register of invented components (benchmarks and trials).")
                     .WithExample("register", "invent", "trial.register", "--components", "1000");
             });

@@ -54,4 +54,7 @@ public sealed record RegisterResultsReportData
 
     /// <summary>Provenance.</summary>
     public required ReportProvenance Provenance { get; init; }
+
+    /// <summary>Document control (title, owner, author, checker, approver, revision, target source).</summary>
+    public ReportDocumentControl DocumentControl { get; init; } = new();
 }

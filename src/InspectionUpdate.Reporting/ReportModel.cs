@@ -84,6 +84,33 @@ public sealed record ReportPlannedInspection(double TimeYears, DateOnly Date, st
 public sealed record ReportPlan(double TargetAnnualPf, string TargetSource, IReadOnlyList<ReportPlannedInspection> Schedule,
     string Status, IReadOnlyList<string> Notes);
 
+/// <summary>
+/// Document control of a report: what an owner signs. Null fields are not set (the page says "not set"); the register
+/// holds them with their history, a run may override each.
+/// </summary>
+/// <param name="Title">Report title of the owner's choosing.</param>
+/// <param name="Owner">Owner (duty holder).</param>
+/// <param name="Author">Who prepared the report.</param>
+/// <param name="Checker">Who checked it.</param>
+/// <param name="Approver">Who approved it.</param>
+/// <param name="Revision">Revision number or letter.</param>
+/// <param name="RevisionDate">Date of the revision.</param>
+/// <param name="TargetSource">The owner's source or justification of the target.</param>
+public sealed record ReportDocumentControl(string? Title = null, string? Owner = null, string? Author = null, string? Checker = null, string? Approver = null,
+    string? Revision = null, DateOnly? RevisionDate = null, string? TargetSource = null)
+{
+    /// <summary>Earlier records of the register's document control, oldest first, each in one line.</summary>
+    public IReadOnlyList<string> History { get; init; } = [];
+
+    /// <summary>The fields of <paramref name="over"/> that are set, else those of this record.</summary>
+    public ReportDocumentControl With(ReportDocumentControl? over) => over is null ? this : new(
+        over.Title ?? Title, over.Owner ?? Owner, over.Author ?? Author, over.Checker ?? Checker, over.Approver ?? Approver,
+        over.Revision ?? Revision, over.RevisionDate ?? RevisionDate, over.TargetSource ?? TargetSource)
+    {
+        History = History,
+    };
+}
+
 /// <summary>Everything one component report shows. Missing pieces are null and the report says they are not available.</summary>
 public sealed record ComponentReportData
 {
@@ -149,6 +176,9 @@ public sealed record ComponentReportData
 
     /// <summary>The component's marks, the same as on the register page and in the exports.</summary>
     public ReportMark Flags { get; init; }
+
+    /// <summary>Document control (title, owner, author, checker, approver, revision, target source).</summary>
+    public ReportDocumentControl DocumentControl { get; init; } = new();
 }
 
 /// <summary>One row of the register (portfolio) report.</summary>
@@ -202,6 +232,9 @@ public sealed record PortfolioReportData
 
     /// <summary>Files written beside the page (exports and the inspection calendar), linked from it.</summary>
     public IReadOnlyList<string> Downloads { get; init; } = [];
+
+    /// <summary>Document control (title, owner, author, checker, approver, revision, target source).</summary>
+    public ReportDocumentControl DocumentControl { get; init; } = new();
 }
 
 /// <summary>Wording that every user-facing output carries.</summary>

@@ -98,6 +98,9 @@ public sealed class DemoCommand(CliHost host) : CliCommand<DemoSettings>(host)
             RegisterAccess.Require(store.AddComponent(new NewComponent(c.Site, c.Id, c.Name, c.InService, c.WallMm, json, ModelFiles.DefaultVersion), by), "demo component " + c.Id);
         }
 
+        // Invented document control, so that the demo's pages show what an owner signs.
+        RegisterAccess.Require(store.SetDocumentControl(new DocumentControlChange(scenario.Title, "Sandwick and Hollin integrity owner (invented)", "demo.integrity (invented author)",
+            "demo.checker (invented checker)", "demo.approver (invented approver)", "1", scenario.EvidenceDate, scenario.TargetSource), by, "demo issue"), "demo document control");
         steps.Add(new DemoStep("register", "done", $"{scenario.Sites.Count} sites, {scenario.Methods.Count} methods, {scenario.Components.Count} components"));
         var import = store.ImportFindingsCsv(Path.Combine(sampleData, scenario.Findings), by, "demo import");
         if (!import.Succeeded) throw RegisterAccess.Problems("demo findings import", import.Problems);

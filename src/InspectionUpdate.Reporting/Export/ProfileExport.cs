@@ -112,6 +112,7 @@ public static class ProfileExport
             data.NotAvailable, Cautions.Line)
         {
             Flags = ReportMarks.Keys(data.Flags),
+            DocumentControl = data.DocumentControl,
         };
         return JsonSerializer.Serialize(doc, JsonOptions);
     }
@@ -145,6 +146,8 @@ public static class ProfileExport
         ProfileExportDocument? Updated, PlanExport? Plan, IReadOnlyList<string> NotAvailable, string Caution)
     {
         public IReadOnlyList<string> Flags { get; init; } = [];
+
+        public ReportDocumentControl? DocumentControl { get; init; }
     }
 
     private sealed record PlanExport(double TargetAnnualPf, string TargetSource, string Status, IReadOnlyList<PlannedExport> Schedule, IReadOnlyList<string> Notes);

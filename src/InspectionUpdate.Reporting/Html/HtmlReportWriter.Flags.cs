@@ -37,6 +37,30 @@ public static partial class HtmlReportWriter
         h.Append("</dl></div>\n");
     }
 
+    /// <summary>The document-control block under the title: every field, "not set" where none was given, and the history.</summary>
+    private static void DocumentControlBlock(StringBuilder h, ReportDocumentControl d)
+    {
+        static string V(string? v) => string.IsNullOrWhiteSpace(v) ? "not set" : v;
+        h.Append("<table class=\"doc-control\" id=\"document-control\"><tbody>");
+        foreach (var (k, v) in new[]
+                 {
+                     ("Title", V(d.Title)), ("Owner", V(d.Owner)), ("Author", V(d.Author)), ("Checker", V(d.Checker)), ("Approver", V(d.Approver)),
+                     ("Revision", V(d.Revision) + (d.RevisionDate is { } date ? " of " + date.ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture) : string.Empty)),
+                     ("Target source", V(d.TargetSource)),
+                 })
+        {
+            h.Append("<tr><th>").Append(E(k)).Append("</th><td>").Append(T(v)).Append("</td></tr>");
+        }
+
+        h.Append("</tbody></table>\n");
+        if (d.History.Count > 0)
+        {
+            h.Append("<details class=\"small\"><summary>Document-control history</summary>");
+            List(h, d.History);
+            h.Append("</details>\n");
+        }
+    }
+
     private static string? FlagRowClass(ReportMark flags) =>
         flags.HasFlag(ReportMark.NotConverged) ? "not-converged" : flags.HasFlag(ReportMark.AboveTarget) || flags.HasFlag(ReportMark.Overdue) ? "above-target" : null;
 

@@ -25,6 +25,7 @@ public static partial class HtmlReportWriter
         h.Append("<header><div class=\"kicker\">Register integrity report (stored results)</div><h1>").Append(E(data.Title))
             .Append("</h1><div class=\"sub\">").Append(Count(rows.Count)).Append(" components with stored results · evidence to ")
             .Append(Date(data.Provenance.AssessedAsOf)).Append("</div></header>\n");
+        DocumentControlBlock(h, data.DocumentControl);
         CautionBanner(h);
 
         Section(h, "summary", "Summary");

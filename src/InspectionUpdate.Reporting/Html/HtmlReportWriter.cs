@@ -35,6 +35,7 @@ public static partial class HtmlReportWriter
             .Append(E(data.ComponentId)).Append(" · ").Append(E(data.ComponentName)).Append("</h1><div class=\"sub\">")
             .Append(E(data.Site)).Append(" · ").Append(E(data.Model)).Append(" · evidence to ")
             .Append(Date(data.Provenance.AssessedAsOf)).Append("</div><div class=\"marks\">Marks: ").Append(FlagMarks(data.Flags)).Append("</div></header>\n");
+        DocumentControlBlock(h, data.DocumentControl);
         CautionBanner(h);
 
         Section(h, "summary", "Summary");
@@ -181,6 +182,7 @@ public static partial class HtmlReportWriter
         h.Append("<header><div class=\"kicker\">Register integrity report</div><h1>").Append(E(data.Title))
             .Append("</h1><div class=\"sub\">").Append(data.Rows.Count.ToString(CultureInfo.InvariantCulture)).Append(" components · evidence to ")
             .Append(Date(data.Provenance.AssessedAsOf)).Append("</div></header>\n");
+        DocumentControlBlock(h, data.DocumentControl);
         CautionBanner(h);
 
         Section(h, "summary", "Summary");
@@ -378,6 +380,7 @@ public static partial class HtmlReportWriter
         .flag-overdue { color: #5b2a00; border-color: #b35900; background: #ffe6cc; }
         .flag-above_target { color: #3d1f66; border-color: #5e3a99; background: #efe6fa; }
         .flag-none { color: #5b6275; font-size: 12px; } .marks { margin-top: 4px; }
+        table.doc-control { width: auto; font-size: 12px; margin: 4px 0 12px; } table.doc-control th { background: none; border-bottom: 1px solid #e3e5ea; }
         .legend { font-size: 13px; } .legend dl { grid-template-columns: max-content auto; }
         figure { margin: 16px 0; page-break-inside: avoid; } figure img { width: 100%; border: 1px solid #e3e5ea; }
         figcaption { font-size: 13px; color: #5b6275; }

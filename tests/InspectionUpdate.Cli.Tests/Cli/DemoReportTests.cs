@@ -207,4 +207,27 @@ public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<Demo
         Assert.Equal(due.OrderBy(d => d.Site, StringComparer.Ordinal).ThenBy(d => d.Date, StringComparer.Ordinal), due);
         Assert.Contains(status, s => s == "overdue");
     }
+
+    [Fact]
+    public void Every_page_and_json_export_carries_the_registers_document_control()
+    {
+        // The demo records invented document control in its register (DemoCommand); every page and JSON export shows it.
+        foreach (var file in Directory.GetFiles(demo.Folder, "*.html"))
+        {
+            var block = Regex.Match(File.ReadAllText(file), "<table class=\"doc-control\".*?</table>", RegexOptions.Singleline).Value;
+            Assert.False(string.IsNullOrEmpty(block), Path.GetFileName(file));
+            foreach (var text in new[] { "demo.approver (invented approver)", "demo.checker (invented checker)", "demo.integrity (invented author)", "Sandwick and Hollin integrity owner (invented)" })
+            {
+                Assert.Contains(text, block, StringComparison.Ordinal);
+            }
+        }
+
+        foreach (var file in Directory.GetFiles(demo.Folder, "*.json"))
+        {
+            var control = JsonDocument.Parse(File.ReadAllText(file)).RootElement.GetProperty("document_control");
+            Assert.Equal("demo.approver (invented approver)", control.GetProperty("approver").GetString());
+            Assert.Equal("1", control.GetProperty("revision").GetString());
+            Assert.Contains("demo choice", control.GetProperty("target_source").GetString(), StringComparison.Ordinal);
+        }
+    }
 }

@@ -86,7 +86,7 @@ public class MigrationTests
         var path = TestRegister.TempPath();
         try
         {
-            Assert.Equal(4, RegisterStore.CurrentSchemaVersion);
+            Assert.True(RegisterStore.CurrentSchemaVersion >= 4);
             using (RegisterStore.Open(path, RegisterOpenMode.CreateNew, null, targetVersion: 3))
             {
             }
@@ -108,7 +108,7 @@ public class MigrationTests
             {
             }
 
-            Assert.Equal(4L, Pragma(path, "user_version"));
+            Assert.Equal((long)RegisterStore.CurrentSchemaVersion, Pragma(path, "user_version"));
             Assert.Equal(["component_result", "component_status", "model_check"], Tables());
         }
         finally
