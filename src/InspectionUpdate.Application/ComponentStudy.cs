@@ -60,6 +60,9 @@ public sealed record ComponentContext
     /// <summary>The register file or model file.</summary>
     public required string Source { get; init; }
 
+    /// <summary>The owner's consequence class of the component (with its meaning, target and cost of failure), or null.</summary>
+    public ComponentConsequence? Consequence { get; init; }
+
     /// <summary>The method of the latest finding with a method, else the first known method, else null.</summary>
     public InspectionMethod? DefaultPlanMethod =>
         Evidence.Reverse().Select(e => e switch

@@ -20,6 +20,9 @@ public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool S
     /// <summary>Accuracy and seed of the sampling route.</summary>
     public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
 
+    /// <summary>The owner's consequence classes, one line each, for the register page.</summary>
+    public IReadOnlyList<string> ConsequenceClasses { get; init; } = [];
+
     /// <summary>Document control shown on every page and export (the register's, with this run's overrides).</summary>
     public ReportDocumentControl DocumentControl { get; init; } = new();
 }
@@ -40,7 +43,9 @@ public static class ReportRun
                 var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling };
                 var outcome = ComponentAssessment.Assess(request, _ => { });
                 var method = options.Schedule ? context.DefaultPlanMethod : null;
-                PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, options.Target, method, _ => { }) : null;
+                // The component's consequence class chooses its target where the class names a preset; else the run's.
+                var target = context.Consequence?.Target ?? options.Target;
+                PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, target, method, _ => { }) : null;
                 runs[i] = new ComponentRun(context.Id, context, request, outcome, plan, null);
             }
             catch (ApplicationFailureException e)
@@ -87,6 +92,7 @@ public static class ReportRun
                 }) + ".",
             ],
             NotAvailable = notAvailable,
+            ConsequenceClasses = options.ConsequenceClasses,
             Provenance = new ReportProvenance(ToolInfo.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf),
         };
         var calendar = CalendarEntries(runs);
@@ -139,7 +145,12 @@ public static class ReportRun
             ProfileExport.WritePlanCsv(w, run.ComponentId, data.Plan);
         }
 
-        return ComponentStudy.Row(run.Context, run.Request, run.Outcome, run.Plan, safe + ".html");
+        return ComponentStudy.Row(run.Context, run.Request, run.Outcome, run.Plan, safe + ".html") with
+        {
+            ConsequenceClass = run.Context.Consequence?.Class,
+            CostOfFailure = run.Context.Consequence?.CostOfFailure,
+            TargetAnnualPf = run.Plan?.Next.Target.AnnualPf ?? (run.Context.Consequence?.Target ?? options.Target).AnnualPf,
+        };
     }
 
     /// <summary>Every due inspection of the runs' plans (the next inspection, and the schedule where one was computed) for the calendar.</summary>

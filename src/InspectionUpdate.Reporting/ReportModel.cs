@@ -207,6 +207,21 @@ public sealed record PortfolioRow(string ComponentId, string ComponentName, stri
 
     /// <summary>Whether every number behind the row converged (profiles and plan).</summary>
     public bool AllConverged => !FlagSet.HasFlag(ReportMark.NotConverged);
+
+    /// <summary>The owner's consequence class 1–5, or null when none is recorded.</summary>
+    public int? ConsequenceClass { get; init; }
+
+    /// <summary>Cost of failure in the owner's currency, or null.</summary>
+    public double? CostOfFailure { get; init; }
+
+    /// <summary>The target this component was planned against (its class's, else the run's), or null.</summary>
+    public double? TargetAnnualPf { get; init; }
+
+    /// <summary>Annual Pf now over the component's target (null when either is missing): the ranking measure of the risk table.</summary>
+    public double? RatioToTarget => CurrentAnnualPf is { } p && TargetAnnualPf is { } t && t > 0 ? p / t : null;
+
+    /// <summary>Expected cost of failure per year, annual Pf now × cost of failure (null when either is missing).</summary>
+    public double? ExpectedAnnualCost => CurrentAnnualPf is { } p && CostOfFailure is { } c ? p * c : null;
 }
 
 /// <summary>Everything the register report shows.</summary>
@@ -229,6 +244,9 @@ public sealed record PortfolioReportData
 
     /// <summary>Provenance.</summary>
     public required ReportProvenance Provenance { get; init; }
+
+    /// <summary>The owner's consequence classes, one line each (meaning and target).</summary>
+    public IReadOnlyList<string> ConsequenceClasses { get; init; } = [];
 
     /// <summary>Files written beside the page (exports and the inspection calendar), linked from it.</summary>
     public IReadOnlyList<string> Downloads { get; init; } = [];

@@ -141,7 +141,9 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         // Retired components leave reports (as known on the date); naming one still reports it.
         var components = only is null ? store.ComponentsInService(snapshot.Known) : [RegisterAccess.Component(store, only, registerDate)];
         var fingerprint = snapshot.Fingerprint;
-        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(snapshot, c))).ToArray();
+        var consequences = OwnerRecords.Consequences(store, snapshot.Known);
+        options = options with { ConsequenceClasses = OwnerRecords.ClassLegend(store) };
+        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(snapshot, c) with { Consequence = consequences.GetValueOrDefault(c.Code) })).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
         var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, []);
         var rows = runs.Select(r => Row(r, folder)).ToArray();

@@ -23,7 +23,7 @@ public static partial class HtmlReportWriter
 
     /// <summary>Ids of the sections of a register report, in page order.</summary>
     public static IReadOnlyList<string> PortfolioSections { get; } =
-        ["summary", "ranking", "due-dates", "components", "assumptions", "provenance", "cautions"];
+        ["summary", "ranking", "risk", "due-dates", "components", "assumptions", "provenance", "cautions"];
 
     /// <summary>The HTML page of one component.</summary>
     public static string Component(ComponentReportData data)
@@ -218,6 +218,10 @@ public static partial class HtmlReportWriter
             ranked.Select(r => FlagRowClass(r.FlagSet)).ToArray(), sortable: false);
         EndSection(h);
 
+        Section(h, "risk", "Risk: probability and consequence");
+        RiskSection(h, data);
+        EndSection(h);
+
         Section(h, "due-dates", "Next due dates");
         var byDue = data.Rows.OrderBy(r => r.NextDue ?? DateOnly.MaxValue).ToArray();
         SortableTable(h, ["next due", "component", "site", "status", "marks"],
@@ -255,6 +259,45 @@ public static partial class HtmlReportWriter
         CautionSection(h);
         h.Append("</main></body></html>\n");
         return h.ToString();
+    }
+
+    /// <summary>
+    /// The risk section: the owner's classes, the probability–consequence chart, and the components ranked by their
+    /// annual Pf over their own class's target (then by expected annual cost of failure where a cost is given).
+    /// </summary>
+    private static void RiskSection(StringBuilder h, PortfolioReportData data)
+    {
+        var classified = data.Rows.Where(r => r.ConsequenceClass is not null).ToArray();
+        if (data.ConsequenceClasses.Count > 0)
+        {
+            h.Append("<p>The owner's consequence classes (1 least to 5 most severe):</p>");
+            List(h, data.ConsequenceClasses);
+        }
+
+        if (classified.Length == 0)
+        {
+            h.Append("<p class=\"na\">No component has a consequence class in the register: record them with <code>component consequence</code> (classes and their meanings with <code>register consequence-class</code>). Until then the register is ranked by probability alone (above).</p>\n");
+            return;
+        }
+
+        if (classified.Any(r => r.CurrentAnnualPf is not null))
+        {
+            Figure(h, Plots.ConsequenceChart.Draw(classified),
+                "Annual Pf now of each component in the column of its consequence class; the red bar across a column is that class's target. Filled red points are at or above their own target, open blue ones below.");
+        }
+
+        var ranked = classified.OrderByDescending(r => r.RatioToTarget ?? -1).ThenByDescending(r => r.ExpectedAnnualCost ?? -1)
+            .ThenBy(r => r.ComponentId, StringComparer.Ordinal).ToArray();
+        SortableTable(h, ["risk rank", "component", "class", "annual Pf now", "target of its class", "ratio to target", "cost of failure", "expected cost per year", "marks"],
+            ranked.Select((r, i) => new[]
+            {
+                Cell((i + 1).ToString(CultureInfo.InvariantCulture)), Cell(r.ComponentId), Cell(r.ConsequenceClass!.Value.ToString(CultureInfo.InvariantCulture)),
+                Cell(r.CurrentAnnualPf is { } p ? NumberText.Format(p) : "not available"), Cell(r.TargetAnnualPf is { } t ? NumberText.Format(t) : "-"),
+                Cell(r.RatioToTarget is { } q ? NumberText.Format(q) : "-"), Cell(r.CostOfFailure is { } c ? NumberText.Format(c) : "not given"),
+                Cell(r.ExpectedAnnualCost is { } e ? NumberText.Format(e) : "-"), new HtmlCell(FlagMarks(r.FlagSet), ReportMarks.CsvCell(r.FlagSet)),
+            }),
+            ranked.Select(r => FlagRowClass(r.FlagSet)).ToArray(), sortable: false);
+        h.Append("<p class=\"small\">Ranked by the annual Pf now over the target of the component's own class (the class's preset, else the run's target), then by the expected cost of failure per year (annual Pf × cost of failure, in the owner's currency) where a cost is given. Components without a class are not in this table.</p>\n");
     }
 
     private static void ProfileTable(StringBuilder h, ReliabilityProfile profile, string id)

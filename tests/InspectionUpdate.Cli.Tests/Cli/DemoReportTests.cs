@@ -230,4 +230,21 @@ public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<Demo
             Assert.Contains("demo choice", control.GetProperty("target_source").GetString(), StringComparison.Ordinal);
         }
     }
+
+    [Fact]
+    public void The_register_page_ranks_risk_by_probability_and_the_owners_consequence_class_with_a_chart()
+    {
+        var start = demo.Index.IndexOf("<section id=\"risk\">", StringComparison.Ordinal);
+        Assert.True(start >= 0);
+        var risk = demo.Index[start..demo.Index.IndexOf("</section>", start, StringComparison.Ordinal)];
+        Assert.Contains("<img", risk, StringComparison.Ordinal);
+        Assert.Contains("Class 4: release reaching open water or the public (invented)", Regex.Replace(risk, "<span class=\"num\">([^<]*)</span>", "$1"), StringComparison.Ordinal);
+        // The order of the table is the order of annual Pf now over its target, computed here from register.json.
+        var expected = demo.Components.Where(c => c.GetProperty("consequence_class").ValueKind == JsonValueKind.Number)
+            .OrderByDescending(c => c.GetProperty("current_annual_pf").GetDouble() / c.GetProperty("target_annual_pf").GetDouble())
+            .Select(c => c.GetProperty("component_id").GetString()!).ToArray();
+        var shown = Regex.Matches(risk, "<tr[^>]*><td><span class=\"num\">\\d+</span></td><td>([^<]+)</td>").Select(m => m.Groups[1].Value).ToArray();
+        Assert.Equal(expected, shown);
+        Assert.Equal(4, expected.Length);
+    }
 }
