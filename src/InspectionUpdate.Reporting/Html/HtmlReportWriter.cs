@@ -429,7 +429,17 @@ public static partial class HtmlReportWriter
         figcaption { font-size: 13px; color: #5b6275; }
         .na { color: #9b2335; font-weight: bold; } .small { font-size: 12px; color: #5b6275; }
         dl { display: grid; grid-template-columns: max-content auto; gap: 4px 16px; } dt { font-weight: bold; }
-        @media print { body { background: #fff; } main { padding: 0; max-width: none; } h2 { page-break-after: avoid; } }
+        @page { margin: 12mm; }
+        @media print, (max-width: 820px) {
+          main { padding: 8px 6px 24px; } table { font-size: 10px; } th, td { padding: 2px 3px; } th { font-size: 10px; }
+          .card { min-width: 150px; } .card .v { font-size: 15px; } .flag { font-size: 10px; }
+        }
+        @media print {
+          body { background: #fff; } main { padding: 0; max-width: none; } h2, h3 { break-after: avoid; page-break-after: avoid; }
+          thead { display: table-header-group; } tr, figure, .card, .legend, table.doc-control, ol.notes li { break-inside: avoid; page-break-inside: avoid; }
+          figure img { max-width: 100%; height: auto; } a { color: inherit; text-decoration: none; } .banner { break-inside: avoid; }
+          details > * { display: block; } details summary { list-style: none; }
+        }
 
         """;
 

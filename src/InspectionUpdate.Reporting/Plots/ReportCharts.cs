@@ -245,7 +245,8 @@ public static class ReportCharts
             yMax = Math.Max(yMax, y);
         }
 
-        var limits = (XMin: -1.0, XMax: Math.Max(xs.Max(), 1) * 1.15 + 1, YMin: Math.Floor(yMin - 0.5), YMax: Math.Ceiling(yMax + 0.5));
+        var axis = ProbabilityAxis(yMin, yMax, 0.5);
+        var limits = (XMin: -1.0, XMax: Math.Max(xs.Max(), 1) * 1.15 + 1, YMin: axis.Bottom, YMax: axis.Top);
         plot.Axes.SetLimits(limits.XMin, limits.XMax, limits.YMin, limits.YMax);
         // Labels of points at or near the same spot are stacked so that none hides another.
         foreach (var label in RankingLabels(usable.Select((r, i) => (r.ComponentId, xs[i], ys[i])).ToArray(), limits.XMin, limits.XMax, limits.YMin, limits.YMax))

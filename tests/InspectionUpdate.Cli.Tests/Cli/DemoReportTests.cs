@@ -247,4 +247,64 @@ public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<Demo
         Assert.Equal(expected, shown);
         Assert.Equal(4, expected.Length);
     }
+
+    /// <summary>Chromium on the PATH (Debian's package), or null.</summary>
+    private static string? Chromium() =>
+        new[] { "chromium", "chromium-browser", "google-chrome" }
+            .SelectMany(n => (Environment.GetEnvironmentVariable("PATH") ?? string.Empty).Split(':').Select(d => Path.Combine(d, n)))
+            .FirstOrDefault(File.Exists);
+
+    private static string RunChromium(string chromium, params string[] args)
+    {
+        var start = new System.Diagnostics.ProcessStartInfo(chromium) { RedirectStandardOutput = true, RedirectStandardError = true, UseShellExecute = false };
+        foreach (var a in new[] { "--headless", "--no-sandbox", "--disable-gpu", "--no-pdf-header-footer" }.Concat(args)) start.ArgumentList.Add(a);
+        using var process = System.Diagnostics.Process.Start(start)!;
+        var stdout = process.StandardOutput.ReadToEndAsync();
+        _ = process.StandardError.ReadToEndAsync();
+        Assert.True(process.WaitForExit(120_000), "chromium did not finish in 2 minutes");
+        return stdout.Result;
+    }
+
+    // A4 is 210 mm wide; with the page style's 12 mm margins 186 mm are printable, 703 CSS px at 96 px per inch
+    // (Letter, 215.9 mm, is wider: A4 is the narrower bound). Common practice, no source.
+    private const int A4PrintableWidthPx = 703;
+
+    [SkippableFact]
+    public void Every_page_fits_the_printable_width_of_A4_and_prints_to_pdf_on_A4_and_Letter_with_screenshots_kept_as_artefacts()
+    {
+        var chromium = Chromium();
+        Skip.If(chromium is null, "chromium is not installed (apt-get install -y chromium)");
+        var artefacts = Path.Combine(AppContext.BaseDirectory, "artefacts", "demo-report");
+        Directory.CreateDirectory(artefacts);
+        foreach (var file in Directory.GetFiles(demo.Folder, "*.html"))
+        {
+            // Layout probe: nothing (table, figure, image) reaches beyond the printable width.
+            var probe = Path.Combine(demo.Folder, "probe-" + Path.GetFileName(file));
+            File.WriteAllText(probe, File.ReadAllText(file).Replace("</body>",
+                "<script>var w=[];document.querySelectorAll('table,figure,img,section').forEach(function(e){var r=e.getBoundingClientRect();if(r.right>window.innerWidth+1)w.push(e.tagName+(e.id?'#'+e.id:'')+':'+Math.round(r.right));});"
+                + "document.body.setAttribute('data-wide',w.join(' ')||'none');</script></body>", StringComparison.Ordinal));
+            var dom = RunChromium(chromium!, $"--window-size={A4PrintableWidthPx},1000", "--dump-dom", probe);
+            File.Delete(probe);
+            Assert.Contains("data-wide=\"none\"", dom, StringComparison.Ordinal);
+        }
+
+        foreach (var page in new[] { "index.html", "HR1-J118.html" })
+        {
+            foreach (var size in new[] { "A4", "Letter" })
+            {
+                var sized = Path.Combine(demo.Folder, size + "-" + page);
+                File.WriteAllText(sized, File.ReadAllText(Path.Combine(demo.Folder, page)).Replace("</style>", "@page { size: " + size + "; }</style>", StringComparison.Ordinal));
+                var pdf = Path.Combine(artefacts, Path.GetFileNameWithoutExtension(page) + "." + size + ".pdf");
+                RunChromium(chromium!, "--print-to-pdf=" + pdf, sized);
+                File.Delete(sized);
+                var bytes = File.ReadAllBytes(pdf);
+                var pages = Regex.Count(System.Text.Encoding.Latin1.GetString(bytes), @"/Type\s*/Page[^s]");
+                // Printed, and not one figure or row per sheet: a page of this register fits on a handful of sheets.
+                Assert.InRange(pages, 1, 40);
+            }
+
+            RunChromium(chromium!, "--window-size=1000,4000", "--screenshot=" + Path.Combine(artefacts, Path.GetFileNameWithoutExtension(page) + ".png"), Path.Combine(demo.Folder, page));
+            Assert.True(new FileInfo(Path.Combine(artefacts, Path.GetFileNameWithoutExtension(page) + ".png")).Length > 10_000);
+        }
+    }
 }
