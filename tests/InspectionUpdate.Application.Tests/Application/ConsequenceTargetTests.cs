@@ -18,8 +18,17 @@ public sealed class ConsequenceTargetTests
         var model = new CorrosionModel(inputs);
         return new ComponentContext
         {
-            Id = "T-1", Name = "test line", Site = "T", InServiceDate = new DateOnly(2010, 1, 1), Model = model, ModelDescription = model.Name,
-            InputSource = "test", Evidence = [], Fingerprint = "test-fingerprint", Source = "test", Consequence = consequence,
+            Id = "T-1",
+            Name = "test line",
+            Site = "T",
+            InServiceDate = new DateOnly(2010, 1, 1),
+            Model = model,
+            ModelDescription = model.Name,
+            InputSource = "test",
+            Evidence = [],
+            Fingerprint = "test-fingerprint",
+            Source = "test",
+            Consequence = consequence,
         };
     }
 
