@@ -166,7 +166,7 @@ public static class ComponentStudy
             Posteriors = o.Samples.Select(s => new ReportPosterior(s.Name, s.Prior, s.Posterior,
                 o.Posterior is null ? "importance sampling" : string.Create(CultureInfo.InvariantCulture, $"importance sampling, ESS {o.Posterior.EffectiveSampleSize:F0}"))).ToArray(),
             PosteriorRoute = ReportMapping.PosteriorRoute(o.Posterior),
-            Plan = plan is null ? null : ReportMapping.Plan(plan, notRequested),
+            Plan = plan is null ? null : BranchStated(ReportMapping.Plan(plan, notRequested), r.Evidence),
             Assumptions = assumptions,
             NotAvailable = notAvailable,
             NotRequested = notRequested ?? [],
@@ -186,6 +186,24 @@ public static class ComponentStudy
         ArgumentNullException.ThrowIfNull(o);
         var current = Current(o.Current, r.AsOfYears);
         return ReportMarks.Of(o.AllConverged && (plan?.AllConverged ?? true), current?.AnnualPf, plan?.Next.Date, plan?.Next.Target.AnnualPf, r.AsOf);
+    }
+
+    /// <summary>
+    /// A plan after a detection or a sizing (with no repair since) states the branch it assumes: the known defect is
+    /// left in service and monitored, with the detection or sizing kept as evidence; no repair is assumed.
+    /// </summary>
+    public static ReportPlan BranchStated(ReportPlan plan, IReadOnlyList<InspectionOutcome> evidence)
+    {
+        ArgumentNullException.ThrowIfNull(plan);
+        ArgumentNullException.ThrowIfNull(evidence);
+        var lastRepair = evidence.OfType<Repair>().Select(e => e.TimeYears).DefaultIfEmpty(double.NegativeInfinity).Max();
+        var found = evidence.Where(e => e is SizedIndication or IndicationNotSized && e.TimeYears > lastRepair).ToArray();
+        if (found.Length == 0) return plan;
+        var last = found[^1];
+        var what = last is SizedIndication s ? string.Create(CultureInfo.InvariantCulture, $"a defect sized at {s.MeasuredSizeMm:0.##} mm") : "an indication (not sized)";
+        var note = string.Create(CultureInfo.InvariantCulture,
+            $"Branch assumed after the last detection ({what} at {last.TimeYears:0.##} years, {last.Reference}): the known defect is left in service and monitored, the finding kept as evidence; no repair is assumed. A repair, once logged, renews the component and the plan restarts from the post-repair prior.");
+        return plan with { Notes = [note, .. plan.Notes] };
     }
 
     /// <summary>The methods whose PoD the report draws: those of the component's current findings, then the schedule's method.</summary>

@@ -248,6 +248,14 @@ public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<Demo
         Assert.Equal(4, expected.Length);
     }
 
+    [Fact]
+    public void A_plan_after_a_sizing_states_the_branch_it_assumes_and_one_without_a_detection_does_not()
+    {
+        // IL3-KP42 has sized indications in sample-data/findings.csv; HR1-J118 only no-indication findings.
+        Assert.Contains("Branch assumed after the last detection (a defect sized at", ReportRunFixture.Section(demo.Page("IL3-KP42"), "plan"), StringComparison.Ordinal);
+        Assert.DoesNotContain("Branch assumed", ReportRunFixture.Section(demo.Page("HR1-J118"), "plan"), StringComparison.Ordinal);
+    }
+
     /// <summary>Chromium on the PATH (Debian's package), or null.</summary>
     private static string? Chromium() =>
         new[] { "chromium", "chromium-browser", "google-chrome" }
