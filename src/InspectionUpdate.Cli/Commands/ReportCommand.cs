@@ -160,6 +160,7 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
             r.Context is null ? null : Path.Combine(folder, ReportRun.Safe(r.ComponentId) + ".html"))
         {
             ConvergenceNote = ConvergenceNote(r),
+            Flags = r.Request is null || r.Outcome is null ? [] : ReportMarks.Keys(ComponentStudy.Flags(r.Request, r.Outcome, r.Plan)),
         };
     }
 
@@ -201,6 +202,9 @@ public sealed record ReportRow(string ComponentId, double? AnnualPfNow, DateOnly
 {
     /// <summary>Where the numbers did not converge (steps, their times and the largest cumulative Pf there), or null.</summary>
     public string? ConvergenceNote { get; init; }
+
+    /// <summary>The component's marks (not_converged, overdue, above_target), as on its pages and in register.json.</summary>
+    public IReadOnlyList<string> Flags { get; init; } = [];
 }
 
 /// <summary>--json of <c>report</c>.</summary>

@@ -97,6 +97,10 @@ public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<Demo
             var due = c.GetProperty("next_due").GetString() is { } d ? DateOnly.Parse(d, CultureInfo.InvariantCulture) : (DateOnly?)null;
             Assert.Equal(due <= asOf, flags.Contains("overdue"));
             Assert.Equal(!cliConverged[code], flags.Contains("not_converged"));
+            // The command line's --json carries the same marks.
+            var cliFlags = demo.Json.GetProperty("summary").EnumerateArray().Single(r => r.GetProperty("component_id").GetString() == code)
+                .GetProperty("flags").EnumerateArray().Select(f => f.GetString()).ToHashSet();
+            Assert.Equal(flags, cliFlags);
             // The register page never calls a component converged that the command line calls not converged.
             var rowText = Regex.Replace(DemoReportFixture.Row(demo.Index, "ranking", code), "<[^>]+>", " ");
             if (!cliConverged[code]) Assert.DoesNotContain("converged", rowText.Replace("not converged", string.Empty, StringComparison.Ordinal), StringComparison.Ordinal);
