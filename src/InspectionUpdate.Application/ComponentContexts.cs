@@ -65,7 +65,8 @@ public static class ComponentContexts
             SiteCode = site?.Code ?? "?",
             InServiceDate = component.InstallDate,
             Model = model,
-            ModelDescription = $"{definition.Name}, version {component.Model.ModelVersion} (revision {component.Model.Revision.ToString(CultureInfo.InvariantCulture)})",
+            // The component's own words, never the model file's title: sister components share one definition.
+            ModelDescription = $"{MechanismWords(definition.Mechanism)} model of {component.Code}, version {component.Model.ModelVersion} (revision {component.Model.Revision.ToString(CultureInfo.InvariantCulture)})",
             ModelRevision = component.Model.Revision,
             InputSource = $"model version {component.Model.ModelVersion} in the register",
             ServiceLifeYears = definition.ServiceLifeYears > 0 ? definition.ServiceLifeYears : null,
@@ -139,6 +140,16 @@ public static class ComponentContexts
             }
         }
     }
+
+    /// <summary>The mechanism of a model definition in words.</summary>
+    public static string MechanismWords(MechanismKind kind) => kind switch
+    {
+        MechanismKind.Corrosion => "wall-loss corrosion",
+        MechanismKind.CrackGrowth => "fatigue crack growth",
+        MechanismKind.SnFatigue => "S–N fatigue (Miner's rule)",
+        MechanismKind.Expression => "user-defined limit state",
+        _ => kind.ToString(),
+    };
 
     private static ReportFinding Finding(FindingRevision f, DateOnly inService, bool superseded) => new(
         $"F-{f.FindingId.ToString(CultureInfo.InvariantCulture)} r{f.Revision.ToString(CultureInfo.InvariantCulture)}", f.InspectionDate,

@@ -63,6 +63,9 @@ public sealed record ComponentContext
     /// <summary>The date the register was read as recorded on (--known-on); null for model files.</summary>
     public DateOnly? KnownOn { get; init; }
 
+    /// <summary>The owner's consequence class of the component (with its meaning, target and cost of failure), or null.</summary>
+    public ComponentConsequence? Consequence { get; init; }
+
     /// <summary>The method of the latest finding with a method, else the first known method, else null.</summary>
     public InspectionMethod? DefaultPlanMethod =>
         Evidence.Reverse().Select(e => e switch
@@ -142,8 +145,11 @@ public static class ComponentStudy
     public static ComponentReportData Report(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, IReadOnlyList<string> notAvailable,
         IReadOnlyList<string>? notRequested = null)
     {
-        var importance = ReportMapping.Importance(o.Current, plan?.Next.TimeYears ?? r.HorizonYears, o.Updated is null ? "prior" : "updated")
-            ?? (o.Updated is null ? null : ReportMapping.Importance(o.Prior, plan?.Next.TimeYears ?? r.HorizonYears, "prior"));
+        // The design point of the next due date (or of the evidence date when nothing is planned), never the horizon's.
+        var importanceTime = plan is not null && plan.Next.TimeYears >= r.AsOfYears ? plan.Next.TimeYears : r.AsOfYears;
+        var inputNames = c.Model.Inputs.Variables.Select(v => v.Name).ToArray();
+        var importance = ReportMapping.Importance(o.Current, importanceTime, o.Updated is null ? "prior" : "updated", inputNames, c.InServiceDate)
+            ?? (o.Updated is null ? null : ReportMapping.Importance(o.Prior, importanceTime, "prior", inputNames, c.InServiceDate));
         var maxSize = c.Model.MaximumSizeMm is { } m && double.IsFinite(m) ? m : 10;
         var assumptions = new List<string>
         {
@@ -174,12 +180,44 @@ public static class ComponentStudy
             Posteriors = o.Samples.Select(s => new ReportPosterior(s.Name, s.Prior, s.Posterior,
                 o.Posterior is null ? "importance sampling" : string.Create(CultureInfo.InvariantCulture, $"importance sampling, ESS {o.Posterior.EffectiveSampleSize:F0}"))).ToArray(),
             PosteriorRoute = ReportMapping.PosteriorRoute(o.Posterior),
-            Plan = plan is null ? null : ReportMapping.Plan(plan, notRequested),
+            Plan = plan is null ? null : BranchStated(ReportMapping.Plan(plan, notRequested), r.Evidence),
             Assumptions = assumptions,
             NotAvailable = notAvailable,
             NotRequested = notRequested ?? [],
             Provenance = new ReportProvenance(ToolInfo.Version, c.Fingerprint, c.Source, DateTimeOffset.UtcNow, r.AsOf) { RegisterKnownOn = c.KnownOn },
+            Flags = Flags(r, o, plan),
         };
+    }
+
+    /// <summary>
+    /// The component's marks: not converged (any profile step or planning estimate), overdue (the next inspection's
+    /// latest date on or before the evidence date), above target (the annual Pf now at or above the plan's target).
+    /// The register page, the component page and every export take them from here.
+    /// </summary>
+    public static ReportMark Flags(AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan)
+    {
+        ArgumentNullException.ThrowIfNull(r);
+        ArgumentNullException.ThrowIfNull(o);
+        var current = Current(o.Current, r.AsOfYears);
+        return ReportMarks.Of(o.AllConverged && (plan?.AllConverged ?? true), current?.AnnualPf, plan?.Next.Date, plan?.Next.Target.AnnualPf, r.AsOf);
+    }
+
+    /// <summary>
+    /// A plan after a detection or a sizing (with no repair since) states the branch it assumes: the known defect is
+    /// left in service and monitored, with the detection or sizing kept as evidence; no repair is assumed.
+    /// </summary>
+    public static ReportPlan BranchStated(ReportPlan plan, IReadOnlyList<InspectionOutcome> evidence)
+    {
+        ArgumentNullException.ThrowIfNull(plan);
+        ArgumentNullException.ThrowIfNull(evidence);
+        var lastRepair = evidence.OfType<Repair>().Select(e => e.TimeYears).DefaultIfEmpty(double.NegativeInfinity).Max();
+        var found = evidence.Where(e => e is SizedIndication or IndicationNotSized && e.TimeYears > lastRepair).ToArray();
+        if (found.Length == 0) return plan;
+        var last = found[^1];
+        var what = last is SizedIndication s ? string.Create(CultureInfo.InvariantCulture, $"a defect sized at {s.MeasuredSizeMm:0.##} mm") : "an indication (not sized)";
+        var note = string.Create(CultureInfo.InvariantCulture,
+            $"Branch assumed after the last detection ({what} at {last.TimeYears:0.##} years, {last.Reference}): the known defect is left in service and monitored, the finding kept as evidence; no repair is assumed. A repair, once logged, renews the component and the plan restarts from the post-repair prior.");
+        return plan with { Notes = [note, .. plan.Notes] };
     }
 
     /// <summary>The methods whose PoD the report draws: those of the component's current findings, then the schedule's method.</summary>
@@ -194,12 +232,14 @@ public static class ComponentStudy
     public static PortfolioRow Row(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, string? reportFile)
     {
         var current = Current(o.Current, r.AsOfYears);
-        var route = current is null ? "-" : HtmlReportWriter.RouteText(HtmlReportWriter.PointAt(o.Current, r.AsOfYears)!);
+        // The route of the number only: whether the component converged is its not-converged mark, one rule for every page.
+        var route = current is null ? "-" : HtmlReportWriter.RouteAndCov(HtmlReportWriter.PointAt(o.Current, r.AsOfYears)!);
         double? years = plan is null ? null
             : plan.RemainingLife.UntilAnnualTarget.Reached ? plan.RemainingLife.UntilAnnualTarget.RemainingYears : double.PositiveInfinity;
         return new PortfolioRow(c.Id, c.Name, c.Site, current?.AnnualPf, route, years, plan?.Next.Date, plan?.Next.Message ?? "not planned", reportFile)
         {
             CurrentYearEnding = current is null ? null : ServiceTime.DateAt(c.InServiceDate, current.TimeYears),
+            FlagSet = Flags(r, o, plan),
         };
     }
 

@@ -97,6 +97,21 @@ public static class DemoRegister
             Registers.Require(store.AddComponent(new NewComponent(c.Site, c.Id, c.Name, c.InService, c.WallMm, json, ModelFiles.DefaultVersion), By), "demo component " + c.Id);
         }
 
+        // Invented document control, so that the demo's pages show what an owner signs.
+        Registers.Require(store.SetDocumentControl(new DocumentControlChange(scenario.Title, "Sandwick and Hollin integrity owner (invented)", "demo.integrity (invented author)",
+            "demo.checker (invented checker)", "demo.approver (invented approver)", "1", scenario.EvidenceDate, scenario.TargetSource), By, "demo issue"), "demo document control");
+        // Invented consequence scale and classes (no preset: the scenario's target applies to every class).
+        string[] meanings =
+        [
+            "no release; repair at the next planned stop (invented)", "small release contained on site (invented)", "release needing a shutdown of the line or platform (invented)",
+            "release reaching open water or the public (invented)", "release with risk to life (invented)",
+        ];
+        for (var k = 1; k <= 5; k++) Registers.Require(store.SetConsequenceClass(k, meanings[k - 1], null, By, "demo consequence scale"), "demo consequence class");
+        foreach (var (code, cls, cost) in new[] { ("HR1-J112", 3, (double?)4.0e6), ("HR1-J118", 4, 9.0e6), ("IL3-KP42", 2, null), ("IL3-KP38", 3, 1.5e6) })
+        {
+            Registers.Require(store.SetComponentConsequence(code, cls, cost, By, "demo consequence survey"), "demo component consequence");
+        }
+
         var import = store.ImportFindingsCsv(Path.Combine(sampleData, scenario.Findings), By, "demo import");
         if (!import.Succeeded) throw Registers.Problems("demo findings import", import.Problems);
         foreach (var fix in scenario.Corrections)

@@ -5,6 +5,7 @@ using System.Text;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Register;
 using InspectionUpdate.Reporting;
+using InspectionUpdate.Reporting.Export;
 using InspectionUpdate.Reporting.Html;
 using InspectionUpdate.Updating;
 
@@ -101,13 +102,28 @@ public static class RegisterReport
             r.NextDue, r.YearsToTarget, r.TargetReached, r.Error)
         {
             ReportFile = pages.TryGetValue(r.ComponentCode, out var f) ? f : null,
+            Flags = r.Status == ResultStatus.Failed ? ReportMark.None
+                : ReportMarks.Of(r.Status == ResultStatus.Assessed, r.AnnualPf, r.NextDue, options.Target.AnnualPf, options.AsOf),
         }).ToArray();
 
         var csv = Path.Combine(folder, CsvName);
         WriteCsv(csv, rows, staleCodes.ToHashSet(StringComparer.Ordinal));
+        // The calendar of the stored results: each component's next due inspection (stored results keep no schedule).
+        var calendar = results.Where(r => r.NextDue is not null)
+            .Select(r => new CalendarEntry(r.ComponentCode, r.ComponentCode, r.SiteCode, 1, r.NextDue!.Value, string.Empty,
+                "the annual ΔPf reaches the target then without further inspection (stored result)")).ToArray();
+        using (var w = new StreamWriter(Path.Combine(folder, InspectionCalendar.CsvName)))
+        {
+            InspectionCalendar.WriteCsv(w, calendar, options.AsOf);
+        }
+
+        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections"));
+        var document = OwnerRecords.DocumentControl(store);
+        title = document.Title ?? title;
         var data = new RegisterResultsReportData
         {
             Title = title,
+            DocumentControl = document with { Title = title },
             Rows = rows,
             TargetAnnualPf = options.Target.AnnualPf,
             OptionsKey = options.OptionsKey,
@@ -166,13 +182,13 @@ public static class RegisterReport
         static string N(double? v) => v is { } x ? x.ToString("R", CultureInfo.InvariantCulture) : string.Empty;
         static string D(DateOnly? d) => d?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? string.Empty;
         using var w = new StreamWriter(path, false, new UTF8Encoding(false));
-        w.Write("rank,component_code,site_code,status,annual_pf,annual_pf_year_ending,beta,route,years_to_target,target_reached,next_due,stale,error\n");
+        w.Write("rank,component_code,site_code,status,annual_pf,annual_pf_year_ending,beta,route,years_to_target,target_reached,next_due,stale,flags,error\n");
         var rank = 0;
         foreach (var r in rows.OrderByDescending(r => r.AnnualPf ?? -1).ThenBy(r => r.ComponentId, StringComparer.Ordinal))
         {
             rank++;
             w.Write(string.Join(',', rank.ToString(CultureInfo.InvariantCulture), Q(r.ComponentId), Q(r.Site), r.Status, N(r.AnnualPf), D(r.YearEnding), N(r.Beta), Q(r.Route),
-                N(r.YearsToTarget), r.TargetReached is { } b ? (b ? "true" : "false") : string.Empty, D(r.NextDue), stale.Contains(r.ComponentId) ? "true" : "false", Q(r.Error)));
+                N(r.YearsToTarget), r.TargetReached is { } b ? (b ? "true" : "false") : string.Empty, D(r.NextDue), stale.Contains(r.ComponentId) ? "true" : "false", ReportMarks.CsvCell(r.Flags), Q(r.Error)));
             w.Write('\n');
         }
     }

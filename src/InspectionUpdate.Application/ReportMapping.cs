@@ -39,13 +39,45 @@ public static class ReportMapping
         };
     }
 
-    /// <summary>Importance factors α² at the profile point nearest <paramref name="timeYears"/> that has a design point.</summary>
-    public static ReportImportance? Importance(ReliabilityProfile profile, double timeYears, string which)
+    /// <summary>
+    /// Importance factors α² of the model's own inputs (with their units) at the design point of the profile point
+    /// nearest <paramref name="timeYears"/> that has a usable one: finite β and some weight on the model's inputs.
+    /// Auxiliary variables of the inspection events (detectable size, sizing error) are summed into one bar.
+    /// </summary>
+    /// <param name="profile">The profile.</param>
+    /// <param name="timeYears">The time wanted (the next due date, or the evidence date).</param>
+    /// <param name="which">"prior" or "updated".</param>
+    /// <param name="inputs">The model's input names (the rest are inspection-event variables).</param>
+    /// <param name="inService">Entry into service, to name the date of the design point.</param>
+    public static ReportImportance? Importance(ReliabilityProfile profile, double timeYears, string which, IReadOnlyList<string> inputs, DateOnly inService)
     {
-        var point = profile.Points.Where(p => p.Alpha is { Count: > 0 }).OrderBy(p => Math.Abs(p.TimeYears - timeYears)).FirstOrDefault();
-        if (point?.Alpha is null || point.Alpha.Count != profile.VariableNames.Count) return null;
-        var label = $"{which} design point at {point.TimeYears.ToString("0.#", CultureInfo.InvariantCulture)} years";
-        return new ReportImportance(point.TimeYears, profile.VariableNames, point.Alpha.Select(a => a * a).ToArray(), label);
+        ArgumentNullException.ThrowIfNull(profile);
+        ArgumentNullException.ThrowIfNull(inputs);
+        var own = inputs.ToHashSet(StringComparer.Ordinal);
+        var index = profile.VariableNames.Select((n, i) => (n, i)).Where(x => own.Contains(x.n)).Select(x => x.i).ToArray();
+        var point = profile.Points
+            .Where(p => p.Alpha is { } a && a.Count == profile.VariableNames.Count && double.IsFinite(p.Beta) && index.Sum(i => a[i] * a[i]) > 1e-6)
+            .OrderBy(p => Math.Abs(p.TimeYears - timeYears)).FirstOrDefault();
+        if (point?.Alpha is null) return null;
+        var names = new List<string>();
+        var values = new List<double>();
+        foreach (var i in index)
+        {
+            var unit = UnitOf(profile.VariableNames[i]);
+            names.Add(profile.VariableNames[i] + (unit == "-" ? string.Empty : " (" + unit + ")"));
+            values.Add(point.Alpha[i] * point.Alpha[i]);
+        }
+
+        var others = Enumerable.Range(0, profile.VariableNames.Count).Where(i => !own.Contains(profile.VariableNames[i])).Sum(i => point.Alpha[i] * point.Alpha[i]);
+        if (others > 0)
+        {
+            names.Add("inspection outcomes (detectable size, sizing error)");
+            values.Add(others);
+        }
+
+        var date = Time.ServiceTime.DateAt(inService, point.TimeYears);
+        var label = $"{which}, design point at {point.TimeYears.ToString("0.#", CultureInfo.InvariantCulture)} years ({date:yyyy-MM-dd})";
+        return new ReportImportance(point.TimeYears, names, values.Select(v => Math.Clamp(v, 0, 1)).ToArray(), label);
     }
 
     /// <summary>A method's PoD curve sampled on 0…<paramref name="maxSizeMm"/>.</summary>
@@ -78,7 +110,11 @@ public static class ReportMapping
         if (plan.Schedule is not null) notes.Add(plan.Schedule.Message);
         notes.AddRange(notRequested ?? []);
         if (!plan.AllConverged) notes.Add("Some estimates behind this plan did not converge: treat its dates as provisional.");
-        return new ReportPlan(plan.Next.Target.AnnualPf, plan.Next.Target.Describe(), schedule, plan.Next.Message, notes);
+        // The status never lets a schedule that misses the target pass as keeping it.
+        var status = plan.Schedule is { } sch && (!sch.Verification.WithinTarget || sch.Status != ScheduleStatus.Complete)
+            ? plan.Next.Message + " " + sch.Message
+            : plan.Next.Message;
+        return new ReportPlan(plan.Next.Target.AnnualPf, plan.Next.Target.Describe(), schedule, status, notes);
     }
 
     private static string G(double v) => v.ToString("G4", CultureInfo.InvariantCulture);

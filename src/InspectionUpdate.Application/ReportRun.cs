@@ -19,6 +19,12 @@ public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool S
 {
     /// <summary>Accuracy and seed of the sampling route.</summary>
     public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
+
+    /// <summary>The owner's consequence classes, one line each, for the register page.</summary>
+    public IReadOnlyList<string> ConsequenceClasses { get; init; } = [];
+
+    /// <summary>Document control shown on every page and export (the register's, with this run's overrides).</summary>
+    public ReportDocumentControl DocumentControl { get; init; } = new();
 }
 
 /// <summary>Runs assess and plan over several components (in parallel) and writes the reports and exports.</summary>
@@ -37,7 +43,9 @@ public static class ReportRun
                 var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling };
                 var outcome = ComponentAssessment.Assess(request, _ => { });
                 var method = options.Schedule ? context.DefaultPlanMethod : null;
-                PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, options.Target, method, _ => { }) : null;
+                // The component's consequence class chooses its target where the class names a preset; else the run's.
+                var target = context.Consequence?.Target ?? options.Target;
+                PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, target, method, _ => { }) : null;
                 runs[i] = new ComponentRun(context.Id, context, request, outcome, plan, null);
             }
             catch (ApplicationFailureException e)
@@ -63,9 +71,11 @@ public static class ReportRun
         var rows = new List<PortfolioRow>();
         foreach (var run in runs) rows.Add(WriteComponent(folder, run, options, notAvailable));
 
-        var portfolio = new PortfolioReportData
+        title = options.DocumentControl.Title ?? title;
+        PortfolioReportData portfolio = new()
         {
             Title = title,
+            DocumentControl = options.DocumentControl with { Title = title },
             Rows = rows,
             TargetAnnualPf = options.Target.AnnualPf,
             Assumptions =
@@ -82,12 +92,26 @@ public static class ReportRun
                 }) + ".",
             ],
             NotAvailable = notAvailable,
+            ConsequenceClasses = options.ConsequenceClasses,
             Provenance = new ReportProvenance(ToolInfo.Version, fingerprint, source, DateTimeOffset.UtcNow, options.AsOf) { RegisterKnownOn = knownOn },
         };
+        var calendar = CalendarEntries(runs);
+        using (var w = new StreamWriter(Path.Combine(folder, InspectionCalendar.CsvName)))
+        {
+            InspectionCalendar.WriteCsv(w, calendar, options.AsOf);
+        }
+
+        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections"));
+        portfolio = portfolio with { Downloads = [CsvName, InspectionCalendar.CsvName, InspectionCalendar.IcsName, "register.json"] };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.Portfolio(portfolio));
+        using (var w = new StreamWriter(Path.Combine(folder, CsvName)))
+        {
+            ProfileExport.WriteRegisterCsv(w, rows);
+        }
+
         File.WriteAllText(Path.Combine(folder, "register.json"), JsonSerializer.Serialize(new RegisterExport("inspection-update/register-export/1", title, options.AsOf,
-            ToolInfo.Version, fingerprint, options.Target.AnnualPf, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
+            ToolInfo.Version, fingerprint, options.Target.AnnualPf, options.DocumentControl with { Title = title }, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
         return index;
     }
 
@@ -107,7 +131,7 @@ public static class ReportRun
         }
 
         IReadOnlyList<string> notRequested = options.Schedule || run.Plan is null ? [] : [ScheduleNotRequested];
-        var data = ComponentStudy.Report(run.Context, run.Request, run.Outcome, run.Plan, notAvailable, notRequested);
+        var data = ComponentStudy.Report(run.Context, run.Request, run.Outcome, run.Plan, notAvailable, notRequested) with { DocumentControl = options.DocumentControl };
         File.WriteAllText(Path.Combine(folder, safe + ".html"), HtmlReportWriter.Component(data));
         File.WriteAllText(Path.Combine(folder, safe + ".json"), ProfileExport.ComponentJson(data));
         using (var w = new StreamWriter(Path.Combine(folder, safe + ".profile.csv")))
@@ -121,15 +145,39 @@ public static class ReportRun
             ProfileExport.WritePlanCsv(w, run.ComponentId, data.Plan);
         }
 
-        return ComponentStudy.Row(run.Context, run.Request, run.Outcome, run.Plan, safe + ".html");
+        return ComponentStudy.Row(run.Context, run.Request, run.Outcome, run.Plan, safe + ".html") with
+        {
+            ConsequenceClass = run.Context.Consequence?.Class,
+            CostOfFailure = run.Context.Consequence?.CostOfFailure,
+            TargetAnnualPf = run.Plan?.Next.Target.AnnualPf ?? (run.Context.Consequence?.Target ?? options.Target).AnnualPf,
+        };
+    }
+
+    /// <summary>Every due inspection of the runs' plans (the next inspection, and the schedule where one was computed) for the calendar.</summary>
+    public static IReadOnlyList<CalendarEntry> CalendarEntries(IEnumerable<ComponentRun> runs)
+    {
+        ArgumentNullException.ThrowIfNull(runs);
+        var entries = new List<CalendarEntry>();
+        foreach (var run in runs)
+        {
+            if (run.Context is null || run.Plan is null) continue;
+            var plan = ReportMapping.Plan(run.Plan);
+            entries.AddRange(plan.Schedule.Select((s, i) => new CalendarEntry(run.Context.Id, run.Context.Name, run.Context.SiteCode, i + 1, s.Date, s.Method, s.Basis)));
+        }
+
+        return entries;
     }
 
     /// <summary>What a report without --schedule says of the life-cycle schedule: not requested, and how to request it.</summary>
     public const string ScheduleNotRequested =
         "Life-cycle schedule: not requested in this run; the plan shows the next inspection only. Request it with report --schedule (every component) or plan COMPONENT (this one).";
 
+    /// <summary>File name of the register CSV of a report run (one row per component, with its marks).</summary>
+    public const string CsvName = "register.csv";
+
     /// <summary>A component code as a file name.</summary>
     public static string Safe(string id) => string.Concat(id.Select(c => char.IsLetterOrDigit(c) || c is '-' or '_' or '.' ? c : '_'));
 
-    private sealed record RegisterExport(string Format, string Title, DateOnly AssessedAsOf, string ToolVersion, string RegisterFingerprint, double TargetAnnualPf, IReadOnlyList<PortfolioRow> Components);
+    private sealed record RegisterExport(string Format, string Title, DateOnly AssessedAsOf, string ToolVersion, string RegisterFingerprint, double TargetAnnualPf,
+        ReportDocumentControl DocumentControl, IReadOnlyList<PortfolioRow> Components);
 }

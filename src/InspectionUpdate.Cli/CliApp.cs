@@ -53,6 +53,10 @@ public static class CliApp
                     .WithExample("register", "report", "--as-of", "2025-06-30", "-r", "plant.register", "--above", "1e-4");
                 Add<RegisterCopyCommand>(b, "register copy").WithDescription("Copy a whole register (all revisions, audit trail, stored results) between a SQLite file and a PostgreSQL database; the fingerprints match.")
                     .WithExample("register", "copy", "plant.register", "postgresql://owner@db.example:5432/plant");
+                Add<RegisterDocumentCommand>(b, "register document").WithDescription("Record the document control of the register's reports (title, owner, author, checker, approver, revision, target source), kept with its history.")
+                    .WithExample("register", "document", "--title", "Line IL-3 integrity report", "--author", "A. Author", "--revision", "2", "--revision-date", "2025-07-01", "--reason", "annual issue", "-r", "plant.register");
+                Add<ConsequenceClassCommand>(b, "register consequence-class").WithDescription("Record the meaning of one of the owner's consequence classes (1–5) and the target preset it chooses.")
+                    .WithExample("register", "consequence-class", "4", "--meaning", "\"leak to open water\"", "--target-preset", "jcss-normal-large", "--reason", "\"owner's scale\"", "-r", "plant.register");
                 Add<RegisterInventCommand>(b, "register invent").WithDescription("Create a register of invented components (benchmarks and trials).")
                     .WithExample("register", "invent", "trial.register", "--components", "1000");
             });
@@ -78,6 +82,8 @@ public static class CliApp
                     .WithExample("component", "retire", "WI-03", "--reason", "\"spool replaced\"", "-r", "plant.register");
                 Add<ComponentReinstateCommand>(b, "component reinstate").WithDescription("Reinstate a retired component.")
                     .WithExample("component", "reinstate", "WI-03", "--reason", "\"retired in error\"", "-r", "plant.register");
+                Add<ComponentConsequenceCommand>(b, "component consequence").WithDescription("Set a component's consequence class (1–5) and optional cost of failure.")
+                    .WithExample("component", "consequence", "WI-03", "--class", "4", "--cost-of-failure", "2500000", "--reason", "\"consequence survey\"", "-r", "plant.register");
                 Add<ComponentListCommand>(b, "component list").WithDescription("List the components.").WithExample("component", "list", "-r", "plant.register");
             });
             strict.Branch("method");

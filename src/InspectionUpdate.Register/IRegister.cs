@@ -192,4 +192,33 @@ public interface IRegister : IResultSink, IDisposable
 
     /// <summary>Every revision of a method, oldest first.</summary>
     IReadOnlyList<StoredMethod> MethodHistory(string methodName);
+
+    // The owner's records: document control of the reports, consequence classes, each component's class (append-only, with history).
+
+    /// <summary>Records the document control of the register's reports (a new row; the history is kept).</summary>
+    WriteResult<DocumentControlRecord> SetDocumentControl(DocumentControlChange change, string actor, string reason);
+
+    /// <summary>The current document control, or null when none was recorded.</summary>
+    DocumentControlRecord? DocumentControl();
+
+    /// <summary>Every document-control record, oldest first.</summary>
+    IReadOnlyList<DocumentControlRecord> DocumentControlHistory();
+
+    /// <summary>Records the meaning (and target preset) of one consequence class, 1–5.</summary>
+    WriteResult<ConsequenceClassRecord> SetConsequenceClass(int consequenceClass, string meaning, string? targetPreset, string actor, string reason);
+
+    /// <summary>The current record of each consequence class.</summary>
+    IReadOnlyList<ConsequenceClassRecord> ConsequenceClasses();
+
+    /// <summary>Every consequence-class record, oldest first.</summary>
+    IReadOnlyList<ConsequenceClassRecord> ConsequenceClassHistory();
+
+    /// <summary>Records a component's consequence class and optional cost of failure.</summary>
+    WriteResult<ComponentConsequenceRecord> SetComponentConsequence(string componentCode, int consequenceClass, double? costOfFailure, string actor, string reason);
+
+    /// <summary>The current consequence of each component, as known on <paramref name="asOf"/> (now when null).</summary>
+    IReadOnlyList<ComponentConsequenceRecord> ComponentConsequences(DateTimeOffset? asOf = null);
+
+    /// <summary>Every consequence record of one component, oldest first.</summary>
+    IReadOnlyList<ComponentConsequenceRecord> ComponentConsequenceHistory(string componentCode);
 }

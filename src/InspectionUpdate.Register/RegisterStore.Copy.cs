@@ -19,7 +19,8 @@ public sealed partial class RegisterStore
     internal static readonly string[] CopyOrder =
     [
         "audit_log", "site", "component", "component_model_revision", "inspection_method", "import_batch", "finding", "finding_revision",
-        "repair", "repair_revision", "model_check", "component_status", "site_revision", "inspection_method_revision", "component_result",
+        "repair", "repair_revision", "model_check", "component_status", "site_revision", "inspection_method_revision",
+        "document_control", "consequence_class", "component_consequence", "component_result",
     ];
 
     /// <summary>

@@ -68,6 +68,9 @@ internal static class Sql
         ["component_status"] = "status_id",
         ["site_revision"] = "site_revision_id",
         ["inspection_method_revision"] = "method_revision_id",
+        ["document_control"] = "document_control_id",
+        ["consequence_class"] = "consequence_class_id",
+        ["component_consequence"] = "component_consequence_id",
     };
 
     private static readonly System.Text.RegularExpressions.Regex InsertHead = new(@"^INSERT INTO (\w+) \((.*?)\) VALUES \(", System.Text.RegularExpressions.RegexOptions.Singleline | System.Text.RegularExpressions.RegexOptions.CultureInvariant);

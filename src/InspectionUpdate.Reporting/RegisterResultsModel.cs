@@ -17,6 +17,9 @@ public sealed record RegisterResultRow(string ComponentId, string Site, string S
 {
     /// <summary>Relative path of the component's own page, when one was written in this run.</summary>
     public string? ReportFile { get; init; }
+
+    /// <summary>The component's marks (<see cref="ReportMarks.Of"/> of the stored result).</summary>
+    public ReportMark Flags { get; init; }
 }
 
 /// <summary>Everything the register report from stored results shows.</summary>
@@ -51,4 +54,7 @@ public sealed record RegisterResultsReportData
 
     /// <summary>Provenance.</summary>
     public required ReportProvenance Provenance { get; init; }
+
+    /// <summary>Document control (title, owner, author, checker, approver, revision, target source).</summary>
+    public ReportDocumentControl DocumentControl { get; init; } = new();
 }

@@ -88,6 +88,33 @@ public sealed record ReportPlannedInspection(double TimeYears, DateOnly Date, st
 public sealed record ReportPlan(double TargetAnnualPf, string TargetSource, IReadOnlyList<ReportPlannedInspection> Schedule,
     string Status, IReadOnlyList<string> Notes);
 
+/// <summary>
+/// Document control of a report: what an owner signs. Null fields are not set (the page says "not set"); the register
+/// holds them with their history, a run may override each.
+/// </summary>
+/// <param name="Title">Report title of the owner's choosing.</param>
+/// <param name="Owner">Owner (duty holder).</param>
+/// <param name="Author">Who prepared the report.</param>
+/// <param name="Checker">Who checked it.</param>
+/// <param name="Approver">Who approved it.</param>
+/// <param name="Revision">Revision number or letter.</param>
+/// <param name="RevisionDate">Date of the revision.</param>
+/// <param name="TargetSource">The owner's source or justification of the target.</param>
+public sealed record ReportDocumentControl(string? Title = null, string? Owner = null, string? Author = null, string? Checker = null, string? Approver = null,
+    string? Revision = null, DateOnly? RevisionDate = null, string? TargetSource = null)
+{
+    /// <summary>Earlier records of the register's document control, oldest first, each in one line.</summary>
+    public IReadOnlyList<string> History { get; init; } = [];
+
+    /// <summary>The fields of <paramref name="over"/> that are set, else those of this record.</summary>
+    public ReportDocumentControl With(ReportDocumentControl? over) => over is null ? this : new(
+        over.Title ?? Title, over.Owner ?? Owner, over.Author ?? Author, over.Checker ?? Checker, over.Approver ?? Approver,
+        over.Revision ?? Revision, over.RevisionDate ?? RevisionDate, over.TargetSource ?? TargetSource)
+    {
+        History = History,
+    };
+}
+
 /// <summary>Everything one component report shows. Missing pieces are null and the report says they are not available.</summary>
 public sealed record ComponentReportData
 {
@@ -150,6 +177,12 @@ public sealed record ComponentReportData
 
     /// <summary>Provenance.</summary>
     public required ReportProvenance Provenance { get; init; }
+
+    /// <summary>The component's marks, the same as on the register page and in the exports.</summary>
+    public ReportMark Flags { get; init; }
+
+    /// <summary>Document control (title, owner, author, checker, approver, revision, target source).</summary>
+    public ReportDocumentControl DocumentControl { get; init; } = new();
 }
 
 /// <summary>One row of the register (portfolio) report.</summary>
@@ -168,6 +201,31 @@ public sealed record PortfolioRow(string ComponentId, string ComponentName, stri
     /// <summary>End of the grid year whose ΔPf is <see cref="CurrentAnnualPf"/> (the first grid time at or after the assessment date); not exported.</summary>
     [System.Text.Json.Serialization.JsonIgnore]
     public DateOnly? CurrentYearEnding { get; init; }
+
+    /// <summary>The component's marks (<see cref="ReportMarks.Of"/>); not exported as such, see <see cref="Flags"/>.</summary>
+    [System.Text.Json.Serialization.JsonIgnore]
+    public ReportMark FlagSet { get; init; }
+
+    /// <summary>The marks' keys (<c>not_converged</c>, <c>overdue</c>, <c>above_target</c>), exported in register.json.</summary>
+    public IReadOnlyList<string> Flags => ReportMarks.Keys(FlagSet);
+
+    /// <summary>Whether every number behind the row converged (profiles and plan).</summary>
+    public bool AllConverged => !FlagSet.HasFlag(ReportMark.NotConverged);
+
+    /// <summary>The owner's consequence class 1–5, or null when none is recorded.</summary>
+    public int? ConsequenceClass { get; init; }
+
+    /// <summary>Cost of failure in the owner's currency, or null.</summary>
+    public double? CostOfFailure { get; init; }
+
+    /// <summary>The target this component was planned against (its class's, else the run's), or null.</summary>
+    public double? TargetAnnualPf { get; init; }
+
+    /// <summary>Annual Pf now over the component's target (null when either is missing): the ranking measure of the risk table.</summary>
+    public double? RatioToTarget => CurrentAnnualPf is { } p && TargetAnnualPf is { } t && t > 0 ? p / t : null;
+
+    /// <summary>Expected cost of failure per year, annual Pf now × cost of failure (null when either is missing).</summary>
+    public double? ExpectedAnnualCost => CurrentAnnualPf is { } p && CostOfFailure is { } c ? p * c : null;
 }
 
 /// <summary>Everything the register report shows.</summary>
@@ -190,6 +248,15 @@ public sealed record PortfolioReportData
 
     /// <summary>Provenance.</summary>
     public required ReportProvenance Provenance { get; init; }
+
+    /// <summary>The owner's consequence classes, one line each (meaning and target).</summary>
+    public IReadOnlyList<string> ConsequenceClasses { get; init; } = [];
+
+    /// <summary>Files written beside the page (exports and the inspection calendar), linked from it.</summary>
+    public IReadOnlyList<string> Downloads { get; init; } = [];
+
+    /// <summary>Document control (title, owner, author, checker, approver, revision, target source).</summary>
+    public ReportDocumentControl DocumentControl { get; init; } = new();
 }
 
 /// <summary>Wording that every user-facing output carries.</summary>

@@ -4,6 +4,7 @@ using InspectionUpdate.Application;
 using InspectionUpdate.Cli.Infrastructure;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Register;
+using InspectionUpdate.Reporting;
 using InspectionUpdate.Time;
 using Spectre.Console.Cli;
 
@@ -49,6 +50,50 @@ public sealed class ReportSettings : SampledSettings
     [Description("Route: auto (sample set with first-order cross-check), first-order or simulation.")]
     [DefaultValue("auto")]
     public string Route { get; init; } = "auto";
+
+    /// <summary>Report title for this run.</summary>
+    [CommandOption("--title <TEXT>")]
+    [Description("Report title for this run (default: the register's document control, else the file name).")]
+    public string? Title { get; init; }
+
+    /// <summary>Owner for this run.</summary>
+    [CommandOption("--owner <WHO>")]
+    [Description("Owner (duty holder) for this run (overrides the register's document control).")]
+    public string? Owner { get; init; }
+
+    /// <summary>Author for this run.</summary>
+    [CommandOption("--author <WHO>")]
+    [Description("Author for this run.")]
+    public string? Author { get; init; }
+
+    /// <summary>Checker for this run.</summary>
+    [CommandOption("--checker <WHO>")]
+    [Description("Checker for this run.")]
+    public string? Checker { get; init; }
+
+    /// <summary>Approver for this run.</summary>
+    [CommandOption("--approver <WHO>")]
+    [Description("Approver for this run.")]
+    public string? Approver { get; init; }
+
+    /// <summary>Revision for this run.</summary>
+    [CommandOption("--revision <REV>")]
+    [Description("Revision number or letter for this run.")]
+    public string? Revision { get; init; }
+
+    /// <summary>Revision date for this run.</summary>
+    [CommandOption("--revision-date <DATE>")]
+    [Description("Date of the revision (yyyy-MM-dd) for this run.")]
+    public string? RevisionDate { get; init; }
+
+    /// <summary>Target source for this run.</summary>
+    [CommandOption("--target-source <TEXT>")]
+    [Description("Where the target comes from (the owner's justification), shown with the target.")]
+    public string? TargetSource { get; init; }
+
+    /// <summary>The document-control overrides of this run.</summary>
+    internal ReportDocumentControl DocumentControl() => new(Title, Owner, Author, Checker, Approver, Revision,
+        RevisionDate is null ? null : RegisterAccess.Date("--revision-date", RevisionDate), TargetSource);
 }
 
 /// <summary>Writes reports.</summary>
@@ -60,7 +105,11 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         if (!(settings.TargetAnnualPf > 0 && settings.TargetAnnualPf < 1)) throw CliException.BadInput("--target-annual-pf", settings.TargetAnnualPf, "must be a probability strictly between 0 and 1.");
         var asOf = settings.AsOf is null ? Host.Today() : RegisterAccess.Date("--as-of", settings.AsOf);
         var registerPath = settings.RegisterPath(Host);
-        var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null) { Sampling = settings.Sampling() };
+        var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null)
+        {
+            Sampling = settings.Sampling(),
+            DocumentControl = settings.DocumentControl(),
+        };
         var knownOn = settings.KnownOn is null ? Host.Today() : RegisterAccess.Date("--known-on", settings.KnownOn);
         var result = Produce(Host, registerPath, settings.Component, Host.Resolve(settings.Out), options, settings.Json, Path.GetFileNameWithoutExtension(registerPath), knownOn);
         if (settings.Json) WriteJson(result.Document);
@@ -82,10 +131,19 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         var registerDate = knownOn ?? options.AsOf;
         using var store = RegisterAccess.Open(host, registerPath, RegisterOpenMode.OpenExistingToRead);
         var snapshot = new RegisterSnapshot(store, options.AsOf, registerDate);
+        // The register's document control, this run's fields over it; the target carries the owner's source.
+        var document = OwnerRecords.DocumentControl(store).With(options.DocumentControl);
+        options = options with
+        {
+            DocumentControl = document,
+            Target = document.TargetSource is { } source ? AnnualTarget.FromAnnualPf(options.Target.AnnualPf, options.Target.Measure, source) : options.Target,
+        };
         // Retired components leave reports (as known on the date); naming one still reports it.
         var components = only is null ? store.ComponentsInService(snapshot.Known) : [RegisterAccess.Component(store, only, registerDate)];
         var fingerprint = snapshot.Fingerprint;
-        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(snapshot, c))).ToArray();
+        var consequences = OwnerRecords.Consequences(store, snapshot.Known);
+        options = options with { ConsequenceClasses = OwnerRecords.ClassLegend(store) };
+        var factories = components.Select(c => (Func<ComponentContext>)(() => ComponentContexts.FromRegister(snapshot, c) with { Consequence = consequences.GetValueOrDefault(c.Code) })).ToArray();
         var runs = ProgressRunner.Run(host, quiet, $"Assessing {components.Count} component(s)", p => ReportRun.Run(factories, components.Select(c => c.Code).ToArray(), options, p));
         var index = ReportRun.Write(folder, title, runs, options, fingerprint, store.Path, [], registerDate);
         var rows = runs.Select(r => Row(r, folder)).ToArray();
@@ -102,6 +160,7 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
             r.Context is null ? null : Path.Combine(folder, ReportRun.Safe(r.ComponentId) + ".html"))
         {
             ConvergenceNote = ConvergenceNote(r),
+            Flags = r.Request is null || r.Outcome is null ? [] : ReportMarks.Keys(ComponentStudy.Flags(r.Request, r.Outcome, r.Plan)),
         };
     }
 
@@ -143,6 +202,9 @@ public sealed record ReportRow(string ComponentId, double? AnnualPfNow, DateOnly
 {
     /// <summary>Where the numbers did not converge (steps, their times and the largest cumulative Pf there), or null.</summary>
     public string? ConvergenceNote { get; init; }
+
+    /// <summary>The component's marks (not_converged, overdue, above_target), as on its pages and in register.json.</summary>
+    public IReadOnlyList<string> Flags { get; init; } = [];
 }
 
 /// <summary>--json of <c>report</c>.</summary>

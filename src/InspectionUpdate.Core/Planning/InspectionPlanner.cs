@@ -374,7 +374,9 @@ public sealed partial class InspectionPlanner
         var coveredTo = segments.Count == 0 ? start : segments[^1].To;
         var summary = status switch
         {
-            ScheduleStatus.Complete => Invariant($"{inspections.Count} planned inspection(s) with {method.Name} from {Iso(DateAt(request, start))} to the end of service on {Iso(DateAt(request, end))} keep the annual {measureName} under the target {target.AnnualPf:0.0##E+000} (largest ratio to the target {verification.MaxRatio:0.000})."),
+            // A plan never claims to keep a target it does not keep: above it anywhere (an overdue start included), it says so.
+            ScheduleStatus.Complete when verification.WithinTarget => Invariant($"{inspections.Count} planned inspection(s) with {method.Name} from {Iso(DateAt(request, start))} to the end of service on {Iso(DateAt(request, end))} keep the annual {measureName} under the target {target.AnnualPf:0.0##E+000} (largest ratio to the target {verification.MaxRatio:0.000})."),
+            ScheduleStatus.Complete => Invariant($"{inspections.Count} planned inspection(s) with {method.Name} from {Iso(DateAt(request, start))} to the end of service on {Iso(DateAt(request, end))} do NOT keep the annual {measureName} under the target {target.AnnualPf:0.0##E+000} throughout: its largest ratio to the target is {verification.MaxRatio:0.000}{(overdue ? ", at the overdue start." : ".")}"),
             _ => Invariant($"{inspections.Count} planned inspection(s) with {method.Name} keep the annual {measureName} under the target {target.AnnualPf:0.0##E+000} only up to {Iso(DateAt(request, coveredTo))} (largest ratio {verification.MaxRatio:0.000}). {stopReason}"),
         };
         if (overdue) summary = Invariant($"The target is already exceeded at the start on {Iso(DateAt(request, start))}: the first inspection is due now. ") + summary;

@@ -20,10 +20,11 @@ internal static partial class Migrations
         "site", "component", "component_model_revision", "inspection_method", "finding", "finding_revision",
         "repair", "repair_revision", "audit_log", "import_batch", "model_check", "component_status",
         "site_revision", "inspection_method_revision",
+        "document_control", "consequence_class", "component_consequence",
     ];
 
     /// <summary>Tables added after version 1 (their append-only triggers come with their own migration).</summary>
-    private static readonly string[] LaterTables = ["import_batch", "model_check", "component_status", "site_revision", "inspection_method_revision"];
+    private static readonly string[] LaterTables = ["import_batch", "model_check", "component_status", "site_revision", "inspection_method_revision", "document_control", "consequence_class", "component_consequence"];
 
 
     /// <summary>
@@ -31,7 +32,7 @@ internal static partial class Migrations
     /// words; its PostgreSQL text is derived from the same method (<see cref="PostgresScripts"/>). A new migration is
     /// appended here (docs/register.md, "Adding a migration").
     /// </summary>
-    private static readonly Func<string>[] Definitions = [Version1, Version2, StoredResults, ModelChecks, SiteAndMethodCorrections];
+    private static readonly Func<string>[] Definitions = [Version1, Version2, StoredResults, ModelChecks, SiteAndMethodCorrections, OwnerReports];
 
     /// <summary>Migration scripts (SQLite); index i takes the schema from version i to i + 1.</summary>
     public static IReadOnlyList<string> Scripts { get; } = Definitions.Select(d => d()).ToList();
@@ -371,6 +372,43 @@ internal static partial class Migrations
                NEW.supersedes_revision_id IS NOT (SELECT {idColumn} FROM {table} WHERE {parent} = NEW.{parent} AND revision = NEW.revision - 1)
             OR NEW.recorded_utc < (SELECT recorded_utc FROM {table} WHERE {parent} = NEW.{parent} AND revision = NEW.revision - 1)))
         BEGIN SELECT RAISE(ABORT, '{table}: a correction must supersede the latest revision of the same record and be recorded no earlier'); END;
+        """;
+
+    // Version 6: what an owner signs and sends. Document control of the register's reports (title, owner, author,
+    // checker, approver, revision and its date, the target's source), the owner's consequence classes 1–5 (meaning in
+    // the owner's words, the target preset each class chooses) and each component's class with an optional cost of
+    // failure. Append-only: the latest row is in force, every earlier one is the history, each with who, when and why.
+    // Self-contained so that it can be renumbered when migrations from other branches land first.
+    private static string OwnerReports() =>
+        $"""
+        CREATE TABLE document_control (
+          document_control_id INTEGER PRIMARY KEY,
+          title TEXT, owner TEXT, author TEXT, checker TEXT, approver TEXT,
+          revision TEXT, revision_date TEXT CHECK (revision_date IS NULL OR date(revision_date) IS revision_date),
+          target_source TEXT,
+        {Recorded(true)}
+        ) STRICT;
+        {AppendOnly("document_control")}
+
+        CREATE TABLE consequence_class (
+          consequence_class_id INTEGER PRIMARY KEY,
+          class INTEGER NOT NULL CHECK (class BETWEEN 1 AND 5),
+          meaning TEXT NOT NULL {F(NonBlank, "meaning")},
+          target_preset TEXT,
+        {Recorded(true)}
+        ) STRICT;
+        CREATE INDEX consequence_class_by_class ON consequence_class (class, consequence_class_id);
+        {AppendOnly("consequence_class")}
+
+        CREATE TABLE component_consequence (
+          component_consequence_id INTEGER PRIMARY KEY,
+          component_id INTEGER NOT NULL REFERENCES component (component_id),
+          class INTEGER NOT NULL CHECK (class BETWEEN 1 AND 5),
+          cost_of_failure REAL CHECK (cost_of_failure IS NULL OR cost_of_failure >= 0),
+        {Recorded(true)}
+        ) STRICT;
+        CREATE INDEX component_consequence_by_component ON component_consequence (component_id, component_consequence_id);
+        {AppendOnly("component_consequence")}
         """;
 
     /// <summary>Checks every model revision that has no check row yet (within the migration's transaction).</summary>

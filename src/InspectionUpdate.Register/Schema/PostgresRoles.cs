@@ -16,7 +16,7 @@ internal static class PostgresRoles
     public static readonly string[] RecorderTables = ["finding", "finding_revision", "repair", "repair_revision", "import_batch"];
 
     /// <inheritdoc cref="RecorderTables"/>
-    public static readonly string[] ModellerTables = ["site", "component", "component_model_revision", "inspection_method", "model_check", "component_status", "site_revision", "inspection_method_revision"];
+    public static readonly string[] ModellerTables = ["site", "component", "component_model_revision", "inspection_method", "model_check", "component_status", "site_revision", "inspection_method_revision", "document_control", "consequence_class", "component_consequence"];
 
     /// <summary>Tables both writing roles may insert into and update (results, not evidence: a rerun replaces a row).</summary>
     public static readonly string[] ResultTables = ["component_result"];

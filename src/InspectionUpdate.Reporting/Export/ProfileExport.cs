@@ -70,6 +70,33 @@ public static class ProfileExport
         }
     }
 
+    /// <summary>Header of the register CSV of a report run, in column order.</summary>
+    public static IReadOnlyList<string> RegisterCsvColumns { get; } =
+    [
+        "component_id", "component_name", "site", "current_annual_pf", "current_year_ending", "route", "years_to_target", "next_due", "all_converged", "flags", "status",
+    ];
+
+    /// <summary>Writes the register rows of a report run as CSV (one row per component, marks as <c>;</c>-separated keys).</summary>
+    public static void WriteRegisterCsv(TextWriter writer, IEnumerable<PortfolioRow> rows)
+    {
+        ArgumentNullException.ThrowIfNull(writer);
+        ArgumentNullException.ThrowIfNull(rows);
+        writer.Write(string.Join(',', RegisterCsvColumns));
+        writer.Write('\n');
+        foreach (var r in rows)
+        {
+            string[] cells =
+            [
+                r.ComponentId, r.ComponentName, r.Site, r.CurrentAnnualPf is { } p ? R(p) : string.Empty,
+                r.CurrentYearEnding?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? string.Empty, r.Route,
+                r.YearsToTarget is { } y ? R(y) : string.Empty, r.NextDue?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? string.Empty,
+                r.AllConverged ? "true" : "false", ReportMarks.CsvCell(r.FlagSet), r.Status,
+            ];
+            writer.Write(string.Join(',', cells.Select(Quote)));
+            writer.Write('\n');
+        }
+    }
+
     /// <summary>The JSON document of a component: profiles and plan (see docs/formats.md, "component export").</summary>
     public static string ComponentJson(ComponentReportData data)
     {
@@ -82,7 +109,11 @@ public static class ProfileExport
             data.Updated is null ? null : ToExport(data.Updated),
             data.Plan is null ? null : new PlanExport(data.Plan.TargetAnnualPf, data.Plan.TargetSource, data.Plan.Status,
                 data.Plan.Schedule.Select(s => new PlannedExport(s.Date, s.TimeYears, s.Method, s.Basis)).ToArray(), data.Plan.Notes),
-            data.NotAvailable, Cautions.Line);
+            data.NotAvailable, Cautions.Line)
+        {
+            Flags = ReportMarks.Keys(data.Flags),
+            DocumentControl = data.DocumentControl,
+        };
         return JsonSerializer.Serialize(doc, JsonOptions);
     }
 
@@ -112,7 +143,12 @@ public static class ProfileExport
 
     private sealed record ComponentExport(string Format, string ComponentId, string ComponentName, string Site, string Model,
         DateOnly InServiceDate, DateOnly AssessedAsOf, string ToolVersion, string RegisterFingerprint, ProfileExportDocument? Prior,
-        ProfileExportDocument? Updated, PlanExport? Plan, IReadOnlyList<string> NotAvailable, string Caution);
+        ProfileExportDocument? Updated, PlanExport? Plan, IReadOnlyList<string> NotAvailable, string Caution)
+    {
+        public IReadOnlyList<string> Flags { get; init; } = [];
+
+        public ReportDocumentControl? DocumentControl { get; init; }
+    }
 
     private sealed record PlanExport(double TargetAnnualPf, string TargetSource, string Status, IReadOnlyList<PlannedExport> Schedule, IReadOnlyList<string> Notes);
 

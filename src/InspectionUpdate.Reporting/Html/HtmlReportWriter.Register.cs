@@ -25,18 +25,20 @@ public static partial class HtmlReportWriter
         h.Append("<header><div class=\"kicker\">Register integrity report (stored results)</div><h1>").Append(E(data.Title))
             .Append("</h1><div class=\"sub\">").Append(Count(rows.Count)).Append(" components with stored results · evidence to ")
             .Append(Date(data.Provenance.AssessedAsOf)).Append("</div></header>\n");
+        DocumentControlBlock(h, data.DocumentControl);
         CautionBanner(h);
 
         Section(h, "summary", "Summary");
         h.Append("<div class=\"cards\">");
         Card(h, "Stored results", Count(rows.Count));
         Card(h, "Assessed, converged", Count(rows.Count(r => r.Status == "assessed")));
-        Card(h, "Not converged (flagged)", Count(rows.Count(r => r.Status == "not-converged")));
         Card(h, "Failed", Count(rows.Count(r => r.Status == "failed")));
-        Card(h, "Target", ReportCharts.Probability(data.TargetAnnualPf) + " per year");
-        Card(h, "At or above target now", Count(assessed.Count(r => r.AnnualPf >= data.TargetAnnualPf)));
+        Card(h, "Target", NumberText.Format(data.TargetAnnualPf) + " per year");
+        var counts = ReportMarks.Counts(rows.Select(r => r.Flags));
+        FlagCards(h, counts);
         Card(h, "Due within a year", Count(rows.Count(r => r.NextDue is { } d && d <= data.Provenance.AssessedAsOf.AddYears(1))));
         h.Append("</div>\n");
+        Legend(h, counts);
         if (data.Missing.Count > 0)
         {
             h.Append("<p class=\"na\">").Append(Count(data.Missing.Count)).Append(" component(s) in service have no stored result for these options and are not in this report (run register assess): ")
@@ -59,26 +61,26 @@ public static partial class HtmlReportWriter
 
         Section(h, "ranking", "Risk ranking (top " + Count(Math.Min(data.Top, assessed.Length)) + " of " + Count(assessed.Length) + ")");
         var ranked = assessed.OrderByDescending(r => r.AnnualPf).ThenBy(r => r.ComponentId, StringComparer.Ordinal).Take(data.Top).ToArray();
-        SortableTable(h, ["rank", "component", "site", "annual Pf now", "β", "years to target", "next due", "route", "status"],
+        SortableTable(h, ["rank", "component", "site", "annual Pf now", "β", "years to target", "next due", "route", "status", "marks"],
             ranked.Select((r, i) => new[]
             {
                 Cell((i + 1).ToString(CultureInfo.InvariantCulture)), Link(r, Name(r)), Cell(r.Site),
-                Cell(ReportCharts.Probability(r.AnnualPf!.Value) + (r.YearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty), r.AnnualPf.Value.ToString("R", CultureInfo.InvariantCulture)),
-                Cell(r.Beta is { } b ? Num(b, "0.00") : "-", r.Beta?.ToString("R", CultureInfo.InvariantCulture)),
-                YearsCell(r), DueCell(r), Cell(r.Route ?? "-"), Cell(r.Status),
+                Cell(NumberText.Format(r.AnnualPf!.Value) + (r.YearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty), r.AnnualPf.Value.ToString("R", CultureInfo.InvariantCulture)),
+                Cell(r.Beta is { } b ? NumberText.Format(b) : "-", r.Beta?.ToString("R", CultureInfo.InvariantCulture)),
+                YearsCell(r), DueCell(r), Cell(r.Route ?? "-"), Cell(r.Status), MarksCell(r.Flags),
             }),
-            ranked.Select(r => r.Status == "not-converged" ? "not-converged" : null).ToArray());
+            ranked.Select(r => FlagRowClass(r.Flags)).ToArray());
         EndSection(h);
 
         var due = rows.Where(r => r.NextDue is not null).OrderBy(r => r.NextDue).ThenBy(r => r.ComponentId, StringComparer.Ordinal).Take(data.Top).ToArray();
         Section(h, "due-dates", "Next due dates (soonest " + Count(due.Length) + " of " + Count(rows.Count(r => r.NextDue is not null)) + " planned)");
-        SortableTable(h, ["next due", "component", "site", "annual Pf now", "years to target", "status"],
+        SortableTable(h, ["next due", "component", "site", "annual Pf now", "years to target", "status", "marks"],
             due.Select(r => new[]
             {
                 DueCell(r), Link(r, Name(r)), Cell(r.Site),
-                Cell(r.AnnualPf is { } p ? ReportCharts.Probability(p) : "-", r.AnnualPf?.ToString("R", CultureInfo.InvariantCulture)), YearsCell(r), Cell(r.Status),
+                Cell(r.AnnualPf is { } p ? NumberText.Format(p) : "-", r.AnnualPf?.ToString("R", CultureInfo.InvariantCulture)), YearsCell(r), Cell(r.Status), MarksCell(r.Flags),
             }),
-            due.Select(r => r.Status == "not-converged" ? "not-converged" : null).ToArray());
+            due.Select(r => FlagRowClass(r.Flags)).ToArray());
         EndSection(h);
 
         Section(h, "distributions", "Distributions");
@@ -129,7 +131,7 @@ public static partial class HtmlReportWriter
         else
         {
             h.Append("<ul>");
-            foreach (var r in pages) h.Append("<li><a href=\"").Append(E(r.ReportFile!)).Append("\">").Append(E(r.ComponentId)).Append("</a> (").Append(E(r.Site)).Append(")</li>");
+            foreach (var r in pages) h.Append("<li><a href=\"").Append(E(r.ReportFile!)).Append("\">").Append(E(r.ComponentId)).Append("</a> (").Append(E(r.Site)).Append(") ").Append(FlagMarks(r.Flags)).Append("</li>");
             h.Append("</ul>\n");
         }
 
@@ -146,13 +148,15 @@ public static partial class HtmlReportWriter
 
     private readonly record struct HtmlCell(string Html, string? SortKey);
 
-    private static HtmlCell Cell(string text, string? sortKey = null) => new(E(text), sortKey);
+    private static HtmlCell Cell(string text, string? sortKey = null) => new(T(text), sortKey);
+
+    private static HtmlCell MarksCell(ReportMark flags) => new(FlagMarks(flags), ReportMarks.CsvCell(flags));
 
     private static HtmlCell Link(RegisterResultRow r, string text) =>
         new(r.ReportFile is null ? E(text) : "<a href=\"" + E(r.ReportFile) + "\">" + E(text) + "</a>", text);
 
     private static HtmlCell YearsCell(RegisterResultRow r) => r.YearsToTarget is { } y && double.IsFinite(y)
-        ? Cell(Num(y, "0.0"), y.ToString("R", CultureInfo.InvariantCulture))
+        ? Cell(NumberText.Format(y), y.ToString("R", CultureInfo.InvariantCulture))
         : Cell(r.TargetReached == false ? "beyond horizon" : "-", r.TargetReached == false ? "1e9" : "-1");
 
     private static HtmlCell DueCell(RegisterResultRow r) => r.NextDue is { } d ? Cell(Date(d), d.ToString("yyyyMMdd", CultureInfo.InvariantCulture)) : Cell("not planned", "99999999");
@@ -162,10 +166,10 @@ public static partial class HtmlReportWriter
     private static string Shorten(IReadOnlyList<string> items, int max) =>
         string.Join(", ", items.Take(max)) + (items.Count > max ? $", … ({Count(items.Count - max)} more)" : string.Empty);
 
-    private static void SortableTable(StringBuilder h, IReadOnlyList<string> headers, IEnumerable<HtmlCell[]> rows, string?[]? rowClasses)
+    private static void SortableTable(StringBuilder h, IReadOnlyList<string> headers, IEnumerable<HtmlCell[]> rows, string?[]? rowClasses, bool sortable = true)
     {
-        h.Append("<table class=\"sortable\"><thead><tr>");
-        foreach (var c in headers) h.Append("<th title=\"sort\" style=\"cursor:pointer\">").Append(E(c)).Append(" ⇅</th>");
+        h.Append(sortable ? "<table class=\"sortable\"><thead><tr>" : "<table><thead><tr>");
+        foreach (var c in headers) h.Append(sortable ? "<th title=\"sort\" style=\"cursor:pointer\">" : "<th>").Append(E(c)).Append(sortable ? " ⇅</th>" : "</th>");
         h.Append("</tr></thead><tbody>\n");
         var i = 0;
         foreach (var r in rows)

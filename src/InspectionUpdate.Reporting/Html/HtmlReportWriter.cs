@@ -23,7 +23,7 @@ public static partial class HtmlReportWriter
 
     /// <summary>Ids of the sections of a register report, in page order.</summary>
     public static IReadOnlyList<string> PortfolioSections { get; } =
-        ["summary", "ranking", "due-dates", "components", "assumptions", "provenance", "cautions"];
+        ["summary", "ranking", "risk", "due-dates", "components", "assumptions", "provenance", "cautions"];
 
     /// <summary>The HTML page of one component.</summary>
     public static string Component(ComponentReportData data)
@@ -34,7 +34,8 @@ public static partial class HtmlReportWriter
         h.Append("<header><div class=\"kicker\">Component integrity report</div><h1>")
             .Append(E(data.ComponentId)).Append(" · ").Append(E(data.ComponentName)).Append("</h1><div class=\"sub\">")
             .Append(E(data.Site)).Append(" · ").Append(E(data.Model)).Append(" · evidence to ")
-            .Append(Date(data.Provenance.AssessedAsOf)).Append(KnownOnText(data.Provenance)).Append("</div></header>\n");
+            .Append(Date(data.Provenance.AssessedAsOf)).Append(KnownOnText(data.Provenance)).Append("</div><div class=\"marks\">Marks: ").Append(FlagMarks(data.Flags)).Append("</div></header>\n");
+        DocumentControlBlock(h, data.DocumentControl);
         CautionBanner(h);
 
         Section(h, "summary", "Summary");
@@ -44,10 +45,12 @@ public static partial class HtmlReportWriter
         h.Append("<div class=\"cards\">");
         Card(h, "In service since", Date(data.InServiceDate));
         Card(h, point is null ? "Annual Pf" : AnnualPfLabel(data.InServiceDate, point, data.Updated is null ? "prior" : "updated"),
-            point is null ? "not available" : ReportCharts.Probability(point.IntervalPf));
-        Card(h, "Route", point is null ? "-" : RouteText(point));
+            point is null ? "not available" : NumberText.Format(point.IntervalPf));
+        Card(h, "Route of this number", point is null ? "-" : RouteText(point));
         Card(h, "Next inspection", data.Plan?.Schedule.Count > 0 ? Date(data.Plan.Schedule[0].Date) : "not planned");
+        h.Append("<div class=\"card card-flag\"><div class=\"k\">Marks</div><div class=\"v\">").Append(FlagMarks(data.Flags)).Append("</div></div>");
         h.Append("</div>\n");
+        Legend(h);
         NotAvailable(h, data.NotAvailable);
         NotRequested(h, data.NotRequested);
         EndSection(h);
@@ -65,8 +68,8 @@ public static partial class HtmlReportWriter
                 data.Findings.OrderBy(f => f.Date).ThenBy(f => f.Reference, StringComparer.Ordinal).ThenBy(f => f.Revision)
                     .Select(f => new[]
                     {
-                        f.Reference, Date(f.Date), Num(f.TimeYears, "0.00"), f.Outcome, f.Method,
-                        f.MeasuredSizeMm is { } m ? Num(m, "0.00") : "-", f.Revision.ToString(CultureInfo.InvariantCulture),
+                        f.Reference, Date(f.Date), NumberText.Format(f.TimeYears), f.Outcome, f.Method,
+                        f.MeasuredSizeMm is { } m ? NumberText.Format(m) : "-", f.Revision.ToString(CultureInfo.InvariantCulture),
                         f.RecordedBy, f.Reason ?? (f.Revision == 1 ? OriginalRecord : "-"),
                     }),
                 data.Findings.OrderBy(f => f.Date).ThenBy(f => f.Reference, StringComparer.Ordinal).ThenBy(f => f.Revision).Select(f => f.Superseded ? "superseded" : null).ToArray());
@@ -75,7 +78,7 @@ public static partial class HtmlReportWriter
         if (data.Repairs.Count > 0)
         {
             h.Append("<h3>Repairs</h3>\n");
-            Table(h, ["date", "time (years)", "description"], data.Repairs.Select(r => new[] { Date(r.Date), Num(r.TimeYears, "0.00"), r.Description }));
+            Table(h, ["date", "time (years)", "description"], data.Repairs.Select(r => new[] { Date(r.Date), NumberText.Format(r.TimeYears), r.Description }));
         }
 
         EndSection(h);
@@ -86,7 +89,7 @@ public static partial class HtmlReportWriter
         {
             if (profile is null) continue;
             h.Append("<h3>").Append(E(profile.Label)).Append("</h3>\n");
-            ProfileTable(h, profile);
+            ProfileTable(h, profile, profile == data.Prior ? "prior" : "updated");
         }
 
         if (data.Prior is null && data.Updated is null) h.Append("<p class=\"na\">No profile available.</p>\n");
@@ -97,7 +100,7 @@ public static partial class HtmlReportWriter
             Table(h, ["input", "prior mean", "prior sd", "posterior mean", "posterior sd", "posterior 5 %", "posterior 95 %"],
                 data.PosteriorSummaries.Select(p => new[]
                 {
-                    p.Variable, G(p.PriorMean), G(p.PriorStandardDeviation), G(p.PosteriorMean), G(p.PosteriorStandardDeviation), G(p.Quantile05), G(p.Quantile95),
+                    p.Variable, NumberText.Format(p.PriorMean), NumberText.Format(p.PriorStandardDeviation), NumberText.Format(p.PosteriorMean), NumberText.Format(p.PosteriorStandardDeviation), NumberText.Format(p.Quantile05), NumberText.Format(p.Quantile95),
                 }));
         }
         EndSection(h);
@@ -112,12 +115,20 @@ public static partial class HtmlReportWriter
             Figure(h, ReportCharts.Profile(ProfileQuantity.AnnualPf, data.Prior, data.Updated, data.Plan?.TargetAnnualPf, markers),
                 "Annual failure probability, prior (dashed) against updated (solid), with the target and the inspection, repair and planned-inspection times.");
             Figure(h, ReportCharts.Profile(ProfileQuantity.Beta, data.Prior, data.Updated, null, markers),
-                "Reliability index β(t) of the cumulative failure probability.");
+                "Reliability index β(t) of the cumulative failure probability. The cumulative Pf cannot fall, so β cannot rise except at a repair (Pf restarts): every rise is marked, a triangle where it is noise of the estimate (read the profile table's notes), a diamond at a repair.");
             Figure(h, ReportCharts.Profile(ProfileQuantity.CumulativePf, data.Prior, data.Updated, null, markers),
-                "Cumulative failure probability Pf(t).");
+                "Cumulative failure probability Pf(t), axis within [1e-12, 1]; values below 1e-12 (and zeros) are drawn at 1e-12.");
         }
 
-        if (data.Importance is not null) Figure(h, ReportCharts.Importance(data.Importance), "Importance factors α² at the design point: which inputs drive failure.");
+        if (data.Importance is not null)
+        {
+            Figure(h, ReportCharts.Importance(data.Importance),
+                "Importance factors α² of the model's inputs (with their units) at the " + data.Importance.Label + ": which inputs drive failure. The design point is that of the next due date, or of the evidence date when nothing is planned.");
+        }
+        else if (data.Prior is not null || data.Updated is not null)
+        {
+            h.Append("<p class=\"small\">No importance-factor chart: no step near the next due date or the evidence date has a first-order design point with weight on the model's inputs (sampled steps carry no design point).</p>\n");
+        }
         if (data.PodCurves.Count > 0)
         {
             Figure(h, ReportCharts.PodCurves(data.PodCurves),
@@ -135,15 +146,15 @@ public static partial class HtmlReportWriter
         if (data.Plan is null) h.Append("<p class=\"na\">No plan: the planner was not run or is not available in this build.</p>\n");
         else
         {
-            h.Append("<p><strong>").Append(E(data.Plan.Status)).Append("</strong></p>\n<p>Target annual failure probability ")
-                .Append(E(ReportCharts.Probability(data.Plan.TargetAnnualPf))).Append(" per year (").Append(E(data.Plan.TargetSource)).Append(").</p>\n");
-            h.Append("<p class=\"small\">").Append(E(PlanAnnualNote(data.InServiceDate, data.Provenance.AssessedAsOf, point))).Append("</p>\n");
+            h.Append("<p><strong>").Append(T(data.Plan.Status)).Append("</strong></p>\n<p>Target annual failure probability ")
+                .Append(T(NumberText.Format(data.Plan.TargetAnnualPf))).Append(" per year (").Append(T(data.Plan.TargetSource)).Append(").</p>\n");
+            h.Append("<p class=\"small\">").Append(T(PlanAnnualNote(data.InServiceDate, data.Provenance.AssessedAsOf, point))).Append("</p>\n");
             if (data.Plan.Schedule.Count > 0)
             {
                 Table(h, ["#", "date", "time (years)", "method", "basis"],
                     data.Plan.Schedule.Select((s, i) => new[]
                     {
-                        (i + 1).ToString(CultureInfo.InvariantCulture), Date(s.Date), Num(s.TimeYears, "0.00"), s.Method.Length > 0 ? s.Method : NoMethod, s.Basis,
+                        (i + 1).ToString(CultureInfo.InvariantCulture), Date(s.Date), NumberText.Format(s.TimeYears), s.Method.Length > 0 ? s.Method : NoMethod, s.Basis,
                     }));
             }
 
@@ -171,17 +182,19 @@ public static partial class HtmlReportWriter
         h.Append("<header><div class=\"kicker\">Register integrity report</div><h1>").Append(E(data.Title))
             .Append("</h1><div class=\"sub\">").Append(data.Rows.Count.ToString(CultureInfo.InvariantCulture)).Append(" components · evidence to ")
             .Append(Date(data.Provenance.AssessedAsOf)).Append(KnownOnText(data.Provenance)).Append("</div></header>\n");
+        DocumentControlBlock(h, data.DocumentControl);
         CautionBanner(h);
 
         Section(h, "summary", "Summary");
         var assessed = data.Rows.Where(r => r.CurrentAnnualPf is not null).ToArray();
+        var counts = ReportMarks.Counts(data.Rows.Select(r => r.FlagSet));
         h.Append("<div class=\"cards\">");
         Card(h, "Components", data.Rows.Count.ToString(CultureInfo.InvariantCulture));
         Card(h, "Assessed", assessed.Length.ToString(CultureInfo.InvariantCulture));
-        Card(h, "Target", data.TargetAnnualPf is { } t ? ReportCharts.Probability(t) + " per year" : "none");
-        var above = data.TargetAnnualPf is { } tt ? assessed.Count(r => r.CurrentAnnualPf >= tt) : 0;
-        Card(h, "At or above target (grid year at or after the evidence date)", above.ToString(CultureInfo.InvariantCulture));
+        Card(h, "Target", data.TargetAnnualPf is { } t ? NumberText.Format(t) + " per year" : "none");
+        FlagCards(h, counts);
         h.Append("</div>\n");
+        Legend(h, counts);
         NotAvailable(h, data.NotAvailable);
         EndSection(h);
 
@@ -192,21 +205,38 @@ public static partial class HtmlReportWriter
                 "Current annual failure probability against the years left until it reaches the target; top left is most urgent.");
         }
         else h.Append("<p class=\"na\">No component has both a current annual Pf and a time to target.</p>\n");
-        Table(h, ["rank", "component", "site", "annual Pf (grid year at or after the evidence date)", "route", "years to target"],
-            data.Rows.OrderByDescending(r => r.CurrentAnnualPf ?? -1).Select((r, i) => new[]
+        var ranked = data.Rows.OrderByDescending(r => r.CurrentAnnualPf ?? -1).ToArray();
+        SortableTable(h, ["rank", "component", "site", "annual Pf now (grid year at or after the evidence date)", "route", "years to target", "marks"],
+            ranked.Select((r, i) => new[]
             {
-                (i + 1).ToString(CultureInfo.InvariantCulture), r.ComponentId, r.Site,
-                r.CurrentAnnualPf is { } p ? ReportCharts.Probability(p) + (r.CurrentYearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty) : "not available", r.Route,
-                r.YearsToTarget is { } y ? (double.IsPositiveInfinity(y) ? "beyond horizon" : Num(y, "0.0")) : "-",
-            }));
+                Cell((i + 1).ToString(CultureInfo.InvariantCulture)), Cell(r.ComponentId), Cell(r.Site),
+                Cell(r.CurrentAnnualPf is { } p ? NumberText.Format(p) + (r.CurrentYearEnding is { } end ? " (year ending " + Date(end) + ")" : string.Empty) : "not available"),
+                Cell(r.Route),
+                Cell(r.YearsToTarget is { } y ? (double.IsPositiveInfinity(y) ? "beyond horizon" : NumberText.Format(y)) : "-"),
+                new HtmlCell(FlagMarks(r.FlagSet), ReportMarks.CsvCell(r.FlagSet)),
+            }),
+            ranked.Select(r => FlagRowClass(r.FlagSet)).ToArray(), sortable: false);
+        EndSection(h);
+
+        Section(h, "risk", "Risk: probability and consequence");
+        RiskSection(h, data);
         EndSection(h);
 
         Section(h, "due-dates", "Next due dates");
-        Table(h, ["next due", "component", "site", "status"],
-            data.Rows.OrderBy(r => r.NextDue ?? DateOnly.MaxValue).Select(r => new[]
+        var byDue = data.Rows.OrderBy(r => r.NextDue ?? DateOnly.MaxValue).ToArray();
+        SortableTable(h, ["next due", "component", "site", "status", "marks"],
+            byDue.Select(r => new[]
             {
-                r.NextDue is { } d ? Date(d) : "not planned", r.ComponentId, r.Site, r.Status,
-            }));
+                Cell(r.NextDue is { } d ? Date(d) : "not planned"), Cell(r.ComponentId), Cell(r.Site), Cell(r.Status),
+                new HtmlCell(FlagMarks(r.FlagSet), ReportMarks.CsvCell(r.FlagSet)),
+            }),
+            byDue.Select(r => FlagRowClass(r.FlagSet)).ToArray(), sortable: false);
+        if (data.Downloads.Count > 0)
+        {
+            h.Append("<p class=\"small\">Files: ");
+            h.Append(string.Join(", ", data.Downloads.Select(f => "<a href=\"" + E(f) + "\">" + E(f) + "</a>")));
+            h.Append(". The inspection calendar (CSV and iCalendar, to import into a calendar) lists every due inspection of the plans, overdue ones first, then by site and month.</p>\n");
+        }
         EndSection(h);
 
         Section(h, "components", "Components");
@@ -216,7 +246,7 @@ public static partial class HtmlReportWriter
             h.Append("<li>");
             if (r.ReportFile is not null) h.Append("<a href=\"").Append(E(r.ReportFile)).Append("\">").Append(E(r.ComponentId)).Append("</a>");
             else h.Append(E(r.ComponentId));
-            h.Append(" — ").Append(E(r.ComponentName)).Append(" (").Append(E(r.Site)).Append(")</li>");
+            h.Append(" — ").Append(E(r.ComponentName)).Append(" (").Append(E(r.Site)).Append(") ").Append(FlagMarks(r.FlagSet)).Append("</li>");
         }
 
         h.Append("</ul>\n");
@@ -231,21 +261,82 @@ public static partial class HtmlReportWriter
         return h.ToString();
     }
 
-    private static void ProfileTable(StringBuilder h, ReliabilityProfile profile)
+    /// <summary>
+    /// The risk section: the owner's classes, the probability–consequence chart, and the components ranked by their
+    /// annual Pf over their own class's target (then by expected annual cost of failure where a cost is given).
+    /// </summary>
+    private static void RiskSection(StringBuilder h, PortfolioReportData data)
+    {
+        var classified = data.Rows.Where(r => r.ConsequenceClass is not null).ToArray();
+        if (data.ConsequenceClasses.Count > 0)
+        {
+            h.Append("<p>The owner's consequence classes (1 least to 5 most severe):</p>");
+            List(h, data.ConsequenceClasses);
+        }
+
+        if (classified.Length == 0)
+        {
+            h.Append("<p class=\"na\">No component has a consequence class in the register: record them with <code>component consequence</code> (classes and their meanings with <code>register consequence-class</code>). Until then the register is ranked by probability alone (above).</p>\n");
+            return;
+        }
+
+        if (classified.Any(r => r.CurrentAnnualPf is not null))
+        {
+            Figure(h, Plots.ConsequenceChart.Draw(classified),
+                "Annual Pf now of each component in the column of its consequence class; the red bar across a column is that class's target. Filled red points are at or above their own target, open blue ones below.");
+        }
+
+        var ranked = classified.OrderByDescending(r => r.RatioToTarget ?? -1).ThenByDescending(r => r.ExpectedAnnualCost ?? -1)
+            .ThenBy(r => r.ComponentId, StringComparer.Ordinal).ToArray();
+        SortableTable(h, ["risk rank", "component", "class", "annual Pf now", "target of its class", "ratio to target", "cost of failure", "expected cost per year", "marks"],
+            ranked.Select((r, i) => new[]
+            {
+                Cell((i + 1).ToString(CultureInfo.InvariantCulture)), Cell(r.ComponentId), Cell(r.ConsequenceClass!.Value.ToString(CultureInfo.InvariantCulture)),
+                Cell(r.CurrentAnnualPf is { } p ? NumberText.Format(p) : "not available"), Cell(r.TargetAnnualPf is { } t ? NumberText.Format(t) : "-"),
+                Cell(r.RatioToTarget is { } q ? NumberText.Format(q) : "-"), Cell(r.CostOfFailure is { } c ? NumberText.Format(c) : "not given"),
+                Cell(r.ExpectedAnnualCost is { } e ? NumberText.Format(e) : "-"), new HtmlCell(FlagMarks(r.FlagSet), ReportMarks.CsvCell(r.FlagSet)),
+            }),
+            ranked.Select(r => FlagRowClass(r.FlagSet)).ToArray(), sortable: false);
+        h.Append("<p class=\"small\">Ranked by the annual Pf now over the target of the component's own class (the class's preset, else the run's target), then by the expected cost of failure per year (annual Pf × cost of failure, in the owner's currency) where a cost is given. Components without a class are not in this table.</p>\n");
+    }
+
+    private static void ProfileTable(StringBuilder h, ReliabilityProfile profile, string id)
     {
         // Long grids are thinned for reading; the CSV export carries every step.
         var points = profile.Points;
         var step = Math.Max(1, (int)Math.Ceiling(points.Count / 30.0));
         var shown = points.Where((_, i) => i % step == 0 || i == points.Count - 1).ToArray();
-        Table(h, ["time (years)", "β", "Pf(t)", "ΔPf", "hazard", "route", "converged", "CoV", "note"],
-            shown.Select(p => new[]
+        var notes = new ProfileNotes();
+        var rows = shown.Select(p =>
+        {
+            var (samples, firstOrder, refs) = notes.Split(p.Note);
+            var simulated = p.Route is ComputationRoute.MonteCarlo or ComputationRoute.ImportanceSampling or ComputationRoute.SubsetSimulation;
+            return new[]
             {
-                Num(p.TimeYears, "0.##"), Num(p.Beta, "0.000"), ReportCharts.Probability(p.CumulativePf), ReportCharts.Probability(p.IntervalPf),
-                ReportCharts.Probability(p.Hazard), RouteName(p.Route), p.Converged ? "yes" : "NO",
-                p.CoefficientOfVariation is { } c ? Num(c, "0.000") : "-", p.Note ?? string.Empty,
-            }),
-            shown.Select(p => p.Converged ? null : "not-converged").ToArray());
-        if (step > 1) h.Append("<p class=\"small\">").Append(E(ThinnedNote(step, points.Count))).Append("</p>\n");
+                Cell(NumberText.Format(p.TimeYears)), Cell(double.IsFinite(p.Beta) ? NumberText.Format(p.Beta) : p.Beta > 0 ? "∞" : "−∞"),
+                Cell(NumberText.Probability(p.CumulativePf, p.UpperBound, simulated)), Cell(NumberText.Format(p.IntervalPf)), Cell(NumberText.Format(p.Hazard)),
+                Cell(RouteName(p.Route)), Cell(p.Converged ? "yes" : "NO"),
+                Cell(p.CoefficientOfVariation is { } c && double.IsFinite(c) ? NumberText.Format(c) : "-"),
+                Cell(samples ?? "-"), Cell(firstOrder is { } f ? NumberText.Format(f) : "-"),
+                new HtmlCell(string.Join(" ", refs.Select(r => "<a class=\"fn\" href=\"#" + id + "-note-" + r.ToString(CultureInfo.InvariantCulture) + "\"><span class=\"num\">" + r.ToString(CultureInfo.InvariantCulture) + "</span></a>")), null),
+            };
+        }).ToArray();
+        SortableTable(h, ["time (years)", "β", "Pf(t)", "ΔPf", "hazard", "route", "converged", "CoV", "effective failure samples", "first order (check)", "notes"],
+            rows, shown.Select(p => p.Converged ? null : "not-converged").ToArray(), sortable: false);
+        if (notes.Texts.Count > 0)
+        {
+            h.Append("<ol class=\"notes\">");
+            for (var i = 0; i < notes.Texts.Count; i++)
+            {
+                h.Append("<li id=\"").Append(id).Append("-note-").Append((i + 1).ToString(CultureInfo.InvariantCulture)).Append("\">").Append(T(notes.Texts[i])).Append("</li>");
+            }
+
+            h.Append("</ol>\n");
+        }
+
+        h.Append("<p class=\"small\">Pf(t) “&lt; x”: no failure sampled at this step, bounded above by x (three standard errors); “")
+            .Append(E(NumberText.ExactZero)).Append("”: an exact zero. “Effective failure samples”: effective number of weighted samples that failed by t (at least 30 behind a converged number). “First order (check)”: the first-order value where it disagrees with the sampled one beyond three standard errors and 10 %.</p>\n");
+        if (step > 1) h.Append("<p class=\"small\">").Append(T(ThinnedNote(step, points.Count))).Append("</p>\n");
         if (!profile.AllConverged) h.Append("<p class=\"na\">Some steps did not converge: their numbers are best estimates only and must not be relied on.</p>\n");
     }
 
@@ -285,10 +376,14 @@ public static partial class HtmlReportWriter
         _ => route.ToString(),
     };
 
+    /// <summary>Route and CoV of one number, without a word on convergence (that is the component's not-converged mark).</summary>
+    public static string RouteAndCov(ProfilePoint p) =>
+        RouteName(p.Route) + (p.CoefficientOfVariation is { } c && double.IsFinite(c) ? ", CoV " + NumberText.Format(c) : string.Empty);
+
     /// <summary>Route, convergence and CoV of one point in words.</summary>
     public static string RouteText(ProfilePoint p) =>
         RouteName(p.Route) + (p.Converged ? ", converged" : ", NOT converged")
-        + (p.CoefficientOfVariation is { } c ? ", CoV " + Num(c, "0.000") : string.Empty);
+        + (p.CoefficientOfVariation is { } c && double.IsFinite(c) ? ", CoV " + NumberText.Format(c) : string.Empty);
 
     /// <summary>The point of <paramref name="profile"/> at the first time at or after <paramref name="timeYears"/> (the last point beyond the grid).</summary>
     public static ProfilePoint? PointAt(ReliabilityProfile profile, double timeYears)
@@ -321,12 +416,30 @@ public static partial class HtmlReportWriter
         th { text-align: left; background: #eef0f4; border-bottom: 2px solid #3d5a80; padding: 4px 6px; }
         td { border-bottom: 1px solid #e3e5ea; padding: 3px 6px; font-variant-numeric: tabular-nums; }
         tr.superseded td { text-decoration: line-through; color: #8a8d91; }
-        tr.not-converged td { background: #fbe9ec; }
+        tr.not-converged td { background: #fbe9ec; } tr.above-target td { background: #fff3e0; }
+        .num { white-space: nowrap; } a.fn { font-size: 11px; margin-right: 3px; } ol.notes { font-size: 12px; color: #3b4150; }
+        .flag { display: inline-block; white-space: nowrap; border-radius: 3px; padding: 0 5px; font-size: 12px; font-weight: bold; border: 1px solid; }
+        .flag-not_converged { color: #7a1c2e; border-color: #9b2335; background: #fbe9ec; }
+        .flag-overdue { color: #5b2a00; border-color: #b35900; background: #ffe6cc; }
+        .flag-above_target { color: #3d1f66; border-color: #5e3a99; background: #efe6fa; }
+        .flag-none { color: #5b6275; font-size: 12px; } .marks { margin-top: 4px; }
+        table.doc-control { width: auto; font-size: 12px; margin: 4px 0 12px; } table.doc-control th { background: none; border-bottom: 1px solid #e3e5ea; }
+        .legend { font-size: 13px; } .legend dl { grid-template-columns: max-content auto; }
         figure { margin: 16px 0; page-break-inside: avoid; } figure img { width: 100%; border: 1px solid #e3e5ea; }
         figcaption { font-size: 13px; color: #5b6275; }
         .na { color: #9b2335; font-weight: bold; } .small { font-size: 12px; color: #5b6275; }
         dl { display: grid; grid-template-columns: max-content auto; gap: 4px 16px; } dt { font-weight: bold; }
-        @media print { body { background: #fff; } main { padding: 0; max-width: none; } h2 { page-break-after: avoid; } }
+        @page { margin: 12mm; }
+        @media print, (max-width: 820px) {
+          main { padding: 8px 6px 24px; } table { font-size: 10px; } th, td { padding: 2px 3px; } th { font-size: 10px; }
+          .card { min-width: 150px; } .card .v { font-size: 15px; } .flag { font-size: 10px; }
+        }
+        @media print {
+          body { background: #fff; } main { padding: 0; max-width: none; } h2, h3 { break-after: avoid; page-break-after: avoid; }
+          thead { display: table-header-group; } tr, figure, .card, .legend, table.doc-control, ol.notes li { break-inside: avoid; page-break-inside: avoid; }
+          figure img { max-width: 100%; height: auto; } a { color: inherit; text-decoration: none; } .banner { break-inside: avoid; }
+          details > * { display: block; } details summary { list-style: none; }
+        }
 
         """;
 
@@ -377,7 +490,7 @@ public static partial class HtmlReportWriter
     private static void EndSection(StringBuilder h) => h.Append("</section>\n");
 
     private static void Card(StringBuilder h, string key, string value) =>
-        h.Append("<div class=\"card\"><div class=\"k\">").Append(E(key)).Append("</div><div class=\"v\">").Append(E(value)).Append("</div></div>");
+        h.Append("<div class=\"card\"><div class=\"k\">").Append(E(key)).Append("</div><div class=\"v\">").Append(T(value)).Append("</div></div>");
 
     private static void Figure(StringBuilder h, byte[] png, string caption) =>
         h.Append("<figure><img alt=\"").Append(E(caption)).Append("\" src=\"data:image/png;base64,").Append(Convert.ToBase64String(png))
@@ -386,7 +499,7 @@ public static partial class HtmlReportWriter
     private static void List(StringBuilder h, IEnumerable<string> items)
     {
         h.Append("<ul>");
-        foreach (var i in items) h.Append("<li>").Append(E(i)).Append("</li>");
+        foreach (var i in items) h.Append("<li>").Append(T(i)).Append("</li>");
         h.Append("</ul>\n");
     }
 
@@ -400,7 +513,7 @@ public static partial class HtmlReportWriter
         {
             var cls = rowClasses is not null && i < rowClasses.Length ? rowClasses[i] : null;
             h.Append(cls is null ? "<tr>" : "<tr class=\"" + cls + "\">");
-            foreach (var c in r) h.Append("<td>").Append(E(c)).Append("</td>");
+            foreach (var c in r) h.Append("<td>").Append(T(c)).Append("</td>");
             h.Append("</tr>\n");
             i++;
         }
@@ -410,9 +523,11 @@ public static partial class HtmlReportWriter
 
     private static string E(string s) => WebUtility.HtmlEncode(s);
 
+    /// <summary>Text content: encoded, numbers in the report format, each number and date in one unbreakable span.</summary>
+    private static string T(string s) => NumberText.Html(s);
+
     private static string Date(DateOnly d) => d.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
 
-    private static string G(double v) => v.ToString("G4", CultureInfo.InvariantCulture);
 
-    private static string Num(double v, string format) => v.ToString(format, CultureInfo.InvariantCulture);
+
 }

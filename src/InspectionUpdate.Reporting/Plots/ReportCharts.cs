@@ -33,6 +33,15 @@ public sealed record ChartMarkers(IReadOnlyList<double> InspectionYears, IReadOn
 /// </summary>
 public static class ReportCharts
 {
+    /// <summary>Lowest decade of a probability axis: log10(1e-12).</summary>
+    public const double LogAxisFloor = -12;
+
+    /// <summary>Legend text of a β rise with no repair: noise in the estimate, since the cumulative Pf cannot fall.</summary>
+    public const string BetaRiseNoise = "β rises: estimate noise (cumulative Pf cannot fall)";
+
+    /// <summary>Legend text of a β rise at a repair: the cumulative Pf restarts from the repaired state.</summary>
+    public const string BetaRiseRepair = "β rises: repair (Pf restarts)";
+
     /// <summary>Largest |β| drawn; beyond it (Pf below about 1e-17) points sit at the edge.</summary>
     private const double BetaEdge = 8.5;
 
@@ -84,6 +93,7 @@ public static class ReportCharts
                 m.LegendText = name + ": not converged";
             }
 
+            if (quantity == ProfileQuantity.Beta) MarkBetaRises(plot, points, markers.RepairYears, name);
             yMin = Math.Min(yMin, ys.Where(double.IsFinite).DefaultIfEmpty(0).Min());
             yMax = Math.Max(yMax, ys.Where(double.IsFinite).DefaultIfEmpty(1).Max());
             xMax = Math.Max(xMax, xs.Max());
@@ -105,8 +115,9 @@ public static class ReportCharts
         if (double.IsFinite(yMin) && double.IsFinite(yMax))
         {
             var pad = Math.Max(0.05 * (yMax - yMin), log ? 0.5 : 0.1);
+            // Probabilities live in [1e-12, 1] (log10: [-12, 0]); the axis never runs beyond.
             plot.Axes.SetLimits(0, Math.Max(xMax, markers.PlannedYears.DefaultIfEmpty(0).Max()) * 1.02 + 0.1,
-                log ? Math.Floor(yMin - pad) : yMin - pad, log ? Math.Ceiling(yMax + pad) : yMax + pad);
+                log ? ProbabilityAxis(yMin, yMax, pad).Bottom : yMin - pad, log ? ProbabilityAxis(yMin, yMax, pad).Top : yMax + pad);
         }
 
         // β falls with time (curves end low on the right), failure probabilities rise (curves end high on the right):
@@ -141,7 +152,8 @@ public static class ReportCharts
         barPlot.ValueLabelStyle.FontSize = 12;
         plot.Axes.Left.TickGenerator = new ScottPlot.TickGenerators.NumericManual(
             Enumerable.Range(0, order.Length).Select(k => (double)k).ToArray(), order.Select(i => importance.Names[i]).ToArray());
-        plot.Axes.SetLimits(0, 1.1, -0.6, order.Length - 0.4);
+        // α² lies in [0, 1]: the axis never runs beyond.
+        plot.Axes.SetLimits(0, 1, -0.6, order.Length - 0.4);
         return PlotStyle.Png(plot);
     }
 
@@ -233,7 +245,8 @@ public static class ReportCharts
             yMax = Math.Max(yMax, y);
         }
 
-        var limits = (XMin: -1.0, XMax: Math.Max(xs.Max(), 1) * 1.15 + 1, YMin: Math.Floor(yMin - 0.5), YMax: Math.Ceiling(yMax + 0.5));
+        var axis = ProbabilityAxis(yMin, yMax, 0.5);
+        var limits = (XMin: -1.0, XMax: Math.Max(xs.Max(), 1) * 1.15 + 1, YMin: axis.Bottom, YMax: axis.Top);
         plot.Axes.SetLimits(limits.XMin, limits.XMax, limits.YMin, limits.YMax);
         // Labels of points at or near the same spot are stacked so that none hides another.
         foreach (var label in RankingLabels(usable.Select((r, i) => (r.ComponentId, xs[i], ys[i])).ToArray(), limits.XMin, limits.XMax, limits.YMin, limits.YMax))
@@ -295,11 +308,7 @@ public static class ReportCharts
     }
 
     /// <summary>A probability as text: 3 significant digits, exponent form below 1e-3.</summary>
-    public static string Probability(double p) =>
-        !double.IsFinite(p) ? p.ToString(CultureInfo.InvariantCulture)
-        : p == 0 ? "0"
-        : Math.Abs(p) < 1e-3 ? p.ToString("0.00e0", CultureInfo.InvariantCulture)
-        : p.ToString("0.####", CultureInfo.InvariantCulture);
+    public static string Probability(double p) => NumberText.Format(p);
 
     private static double Value(ProfileQuantity quantity, ProfilePoint p) => quantity switch
     {
@@ -309,6 +318,55 @@ public static class ReportCharts
         ProfileQuantity.AnnualPf => PlotStyle.Log10(p.IntervalPf),
         _ => PlotStyle.Log10(p.CumulativePf),
     };
+
+    /// <summary>
+    /// The log10 limits of a probability axis for data spanning [<paramref name="yMin"/>, <paramref name="yMax"/>]
+    /// (log10 values) with <paramref name="pad"/> decades around: whole decades, never below 1e-12 nor above 1.
+    /// </summary>
+    public static (double Bottom, double Top) ProbabilityAxis(double yMin, double yMax, double pad)
+    {
+        var bottom = Math.Max(Math.Floor(yMin - pad), LogAxisFloor);
+        var top = Math.Min(Math.Ceiling(yMax + pad), 0);
+        return top > bottom ? (bottom, top) : (Math.Max(top - 1, LogAxisFloor), top);
+    }
+
+    /// <summary>
+    /// The steps where β(t) of the cumulative Pf rises (as drawn, β clamped at ±8.5), split into those with a repair
+    /// in the step (Pf restarts) and the others (noise of the estimate: the cumulative Pf cannot fall).
+    /// </summary>
+    public static (IReadOnlyList<ProfilePoint> Noise, IReadOnlyList<ProfilePoint> AtRepair) BetaRises(IReadOnlyList<ProfilePoint> points, IReadOnlyList<double> repairs)
+    {
+        ArgumentNullException.ThrowIfNull(points);
+        ArgumentNullException.ThrowIfNull(repairs);
+        var noise = new List<ProfilePoint>();
+        var repaired = new List<ProfilePoint>();
+        for (var i = 1; i < points.Count; i++)
+        {
+            var (a, b) = (Value(ProfileQuantity.Beta, points[i - 1]), Value(ProfileQuantity.Beta, points[i]));
+            if (!(b > a + 1e-9)) continue;
+            var t0 = points[i - 1].TimeYears;
+            var t1 = points[i].TimeYears;
+            (repairs.Any(r => r > t0 - 1e-9 && r <= t1 + 1e-9) ? repaired : noise).Add(points[i]);
+        }
+
+        return (noise, repaired);
+    }
+
+    /// <summary>
+    /// Marks every step where β(t) of the cumulative Pf rises (the cumulative Pf fell): at a repair it restarts, and
+    /// otherwise it is noise of the estimate, which the chart must not show without a word.
+    /// </summary>
+    private static void MarkBetaRises(Plot plot, ProfilePoint[] points, IReadOnlyList<double> repairs, string name)
+    {
+        var (noise, repaired) = BetaRises(points, repairs);
+
+        foreach (var (list, shape, text) in new[] { (noise, MarkerShape.OpenTriangleUp, BetaRiseNoise), (repaired, MarkerShape.OpenDiamond, BetaRiseRepair) })
+        {
+            if (list.Count == 0) continue;
+            var m = plot.Add.Markers(list.Select(p => p.TimeYears).ToArray(), list.Select(p => Value(ProfileQuantity.Beta, p)).ToArray(), shape, 11, PlotStyle.Target);
+            m.LegendText = name + ": " + text;
+        }
+    }
 
     private static void AddMarkers(Plot plot, IReadOnlyList<double> times, Color colour, LinePattern pattern, string name)
     {

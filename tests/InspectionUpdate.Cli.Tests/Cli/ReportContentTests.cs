@@ -46,7 +46,8 @@ public sealed class ReportRunFixture : IDisposable
         var start = html.IndexOf("<section id=\"" + id + "\">", StringComparison.Ordinal);
         Assert.True(start >= 0, id);
         var end = html.IndexOf("</section>", start, StringComparison.Ordinal);
-        var text = Regex.Replace(html[start..end], "<img[^>]*>", " ");
+        // Number spans are inline: removed without a separator.
+        var text = Regex.Replace(Regex.Replace(html[start..end], "<span class=\"num\">([^<]*)</span>", "$1"), "<img[^>]*>", " ");
         text = Regex.Replace(text, "<[^>]+>", " | ");
         return System.Net.WebUtility.HtmlDecode(Regex.Replace(text, @"(\s*\|\s*)+", " | "));
     }

@@ -10,7 +10,9 @@ namespace InspectionUpdate.Tests.Reporting;
 
 public sealed class ReportWordingTests
 {
-    private static string Text(string html) => WebUtility.HtmlDecode(Regex.Replace(Regex.Replace(html, "<img[^>]*>", " "), "<[^>]+>", " "));
+    // Number spans are inline: removed without a space, other tags become one.
+    private static string Text(string html) =>
+        WebUtility.HtmlDecode(Regex.Replace(Regex.Replace(Regex.Replace(html, "<span class=\"num\">([^<]*)</span>", "$1"), "<img[^>]*>", " "), "<[^>]+>", " "));
 
     [Theory]
     [InlineData(45, 2)]
