@@ -71,7 +71,7 @@ internal sealed class AnnualMaxima
     public void LogSurvival(IDegradationModel component, Span<double> local, double periodStart, Span<double> logSurvival, out int evaluations)
     {
         evaluations = 0;
-        var first = (int)Math.Floor(periodStart + 1e-9) + 1;
+        var first = ServiceYears.First(periodStart);
         var total = 0.0;
         for (var k = 0; k < logSurvival.Length; k++)
         {

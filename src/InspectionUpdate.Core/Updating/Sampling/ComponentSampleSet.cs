@@ -89,7 +89,7 @@ internal sealed class ComponentSampleSet
         _years = new int[periods];
         for (var e = 0; e < periods; e++)
         {
-            _years[e] = Math.Max(0, (int)Math.Floor(_periodStart[e] + _periodLength[e] + 1e-9) - (int)Math.Floor(_periodStart[e] + 1e-9));
+            _years[e] = ServiceYears.EndedBy(_periodStart[e], _periodLength[e]);
         }
         _rng = new Random(options.Seed);
     }
@@ -126,6 +126,9 @@ internal sealed class ComponentSampleSet
     /// it is exactly zero given the findings.
     /// </summary>
     public double SurvivedUntil(int period) => _survivedLocal[period];
+
+    /// <summary>True when the findings record the component in service at or after local time τ of the period: Pf(τ) is exactly 0.</summary>
+    public bool RecordedInServiceAt(int period, double local) => _survivedLocal[period] > 0 && local <= _survivedLocal[period];
 
     /// <summary>Start of renewal period e, years since entry into service.</summary>
     public double PeriodStart(int period) => _periodStart[period];
@@ -548,12 +551,12 @@ internal sealed class ComponentSampleSet
         for (var e = 0; e < Periods; e++)
         {
             // The times profiles are read at: whole years since entry into service, and the period's end.
-            var first = (int)Math.Floor(_periodStart[e] + 1e-9) + 1;
+            var first = ServiceYears.First(_periodStart[e]);
             var steps = Math.Max(1, (int)Math.Ceiling(_periodStart[e] + _periodLength[e] - 1e-9) - first + 1);
             for (var k = 0; k < steps; k++)
             {
                 var local = Math.Min(first + k - _periodStart[e], _periodLength[e]);
-                if (_survivedLocal[e] > 0 && local <= _survivedLocal[e]) continue;
+                if (RecordedInServiceAt(e, local)) continue;
                 var p = weighted.Cumulative(e, local);
                 // Where the failures drawn are too few to judge, the next covered value bounds this one (Pf never falls).
                 var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(weighted, e, local);
@@ -715,7 +718,7 @@ internal sealed class ComponentSampleSet
                 Evaluations += used;
                 _times[e].Add(tf);
                 // The in-service record means no failure before it (first passage), not only a positive margin then.
-                if (_survivedLocal[e] > 0 && tf <= _survivedLocal[e]) logTarget = double.NegativeInfinity;
+                if (RecordedInServiceAt(e, tf)) logTarget = double.NegativeInfinity;
             }
 
             if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;
@@ -757,14 +760,14 @@ internal sealed class ComponentSampleSet
 
     /// <summary>Whole years of period e that end by its in-service record.</summary>
     private int RecordedYears(int e) =>
-        _survivedLocal[e] <= 0 ? 0 : Math.Clamp((int)Math.Floor(_periodStart[e] + _survivedLocal[e] + 1e-9) - (int)Math.Floor(_periodStart[e] + 1e-9), 0, _years[e]);
+        _survivedLocal[e] <= 0 ? 0 : Math.Min(ServiceYears.EndedBy(_periodStart[e], _survivedLocal[e]), _years[e]);
 
     /// <summary>Sample i's share in "failed by local time τ of period e": the indicator, or 1 − Sᵢ(τ) with an annual-maximum load.</summary>
     private double Share(int period, double local, int i)
     {
         if (_annual is null) return _times[period][i] <= local ? 1 : 0;
         var years = _years[period];
-        var k = Math.Clamp((int)Math.Floor(_periodStart[period] + local + 1e-9) - (int)Math.Floor(_periodStart[period] + 1e-9), 0, years);
+        var k = Math.Min(ServiceYears.EndedBy(_periodStart[period], local), years);
         return k == 0 ? 0 : -ElementaryFunctions.Expm1(_logSurvival[period][i * years + k - 1]);
     }
 

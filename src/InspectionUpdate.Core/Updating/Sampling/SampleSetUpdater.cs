@@ -214,7 +214,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         }
 
         var (period, local) = set.Locate(t);
-        if (set.SurvivedUntil(period) > 0 && local <= set.SurvivedUntil(period))
+        if (set.RecordedInServiceAt(period, local))
         {
             // Not an estimate: the findings record the component in service at a later time of this renewal period.
             return new UpdatedEstimate

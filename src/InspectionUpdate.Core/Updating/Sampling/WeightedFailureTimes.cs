@@ -211,9 +211,7 @@ internal sealed class YearlySurvivalCurves : WeightedFailureTimes
     private int YearsBy(int period, double localYears)
     {
         if (double.IsPositiveInfinity(localYears)) return _years[period];
-        var start = _periodStart[period];
-        var k = (int)Math.Floor(start + localYears + 1e-9) - (int)Math.Floor(start + 1e-9);
-        return Math.Clamp(k, 0, _years[period]);
+        return Math.Min(ServiceYears.EndedBy(_periodStart[period], localYears), _years[period]);
     }
 
     /// <summary>hᵢ = Sᵢ(k0) − Sᵢ(k1) = Sᵢ(k0)·(1 − Sᵢ(k1)/Sᵢ(k0)), summed with the weights (accurate for tiny differences).</summary>
@@ -237,4 +235,15 @@ internal sealed class YearlySurvivalCurves : WeightedFailureTimes
 
         return FromShares(sumWh, sumW2h, sumW2h2);
     }
+}
+
+/// <summary>Whole years of service (ending at whole years since entry into service) counted within a renewal period.</summary>
+internal static class ServiceYears
+{
+    /// <summary>Number of whole years of service that end in (periodStart, periodStart + localYears], at least 0.</summary>
+    public static int EndedBy(double periodStart, double localYears) =>
+        Math.Max(0, (int)Math.Floor(periodStart + localYears + 1e-9) - (int)Math.Floor(periodStart + 1e-9));
+
+    /// <summary>The first whole year of service that ends after the period's start.</summary>
+    public static int First(double periodStart) => (int)Math.Floor(periodStart + 1e-9) + 1;
 }
