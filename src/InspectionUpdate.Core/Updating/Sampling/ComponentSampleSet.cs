@@ -42,7 +42,11 @@ internal sealed class ComponentSampleSet
     private readonly List<double> _u = [];
     private readonly List<double> _logTarget = [];
     private readonly List<(double[] Weights, int Count)> _batches = [];
-    private readonly List<List<double>> _logPhi = [];
+    // Per sample: ln φ(u) of the prior, and each further component's density as a ratio to it (linear scale, so the
+    // balance-heuristic density of all batches is a weighted sum, not a log-sum-exp, per sample).
+    private readonly List<double> _logPrior = [];
+    private readonly List<double> _whitened = [];
+    private readonly List<List<double>> _ratio = [];
     private readonly List<int> _failureCentres = [];
     private int _posterior = -1;
     private readonly List<double>[] _times;
@@ -331,13 +335,15 @@ internal sealed class ComponentSampleSet
         _u.Clear();
         _logTarget.Clear();
         _batches.Clear();
-        _logPhi.Clear();
+        _logPrior.Clear();
+        _whitened.Clear();
+        _ratio.Clear();
         _failureCentres.Clear();
         _order = null;
         foreach (var list in _times) list.Clear();
         foreach (var list in _logSurvival) list.Clear();
         _mixture = new SamplingMixture(lower, logDet);
-        _logPhi.Add([]);
+        _ratio.Add([]);
         _posterior = posteriorMean is null ? -1 : AddComponent(posteriorMean);
         foreach (var c in Distinct(failureCentres)) _failureCentres.Add(AddComponent(c));
     }
@@ -362,14 +368,8 @@ internal sealed class ComponentSampleSet
 
         var j = _mixture.Add(centre);
         var column = new List<double>(Math.Max(_logW.Count, 16));
-        var u = new double[_d];
-        for (var i = 0; i < _logW.Count; i++)
-        {
-            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
-            column.Add(_mixture.LogDensity(j, u));
-        }
-
-        _logPhi.Add(column);
+        _mixture.AppendRatios(j, System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_whitened), System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logPrior), 0, _logW.Count, column);
+        _ratio.Add(column);
         return j;
     }
 
@@ -646,22 +646,26 @@ internal sealed class ComponentSampleSet
             for (var j = 0; j < weights.Length; j++) combined[j] += weights[j] * count / total;
         }
 
-        var used = Enumerable.Range(0, combined.Length).Where(j => combined[j] > 0).ToArray();
-        var logC = used.Select(j => Math.Log(combined[j])).ToArray();
-        var columns = used.Select(j => _logPhi[j]).ToArray();
+        // q(u)/φ(u) = c₀ + Σⱼ cⱼ·φⱼ(u)/φ(u); every batch keeps the defensive prior (c₀ > 0), so the sum is never 0.
+        var used = Enumerable.Range(1, combined.Length - 1).Where(j => combined[j] > 0).ToArray();
+        var c = used.Select(j => combined[j]).ToArray();
+        var columns = used.Select(j => _ratio[j]).ToArray();
+        var c0 = combined[0];
+        var logTarget = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logTarget);
+        var logPrior = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logPrior);
+        var logW = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logW);
+        var sum = new double[total];
+        Array.Fill(sum, c0);
+        for (var k = 0; k < c.Length; k++)
+        {
+            // sum += cₖ·ratioₖ, one component at a time over contiguous memory (vectorised).
+            VectorKernels.MultiplyAdd(System.Runtime.InteropServices.CollectionsMarshal.AsSpan(columns[k]), c[k], sum);
+        }
+
         for (var i = 0; i < total; i++)
         {
-            if (double.IsNegativeInfinity(_logTarget[i])) continue;
-            var max = double.NegativeInfinity;
-            for (var c = 0; c < used.Length; c++)
-            {
-                var t = logC[c] + columns[c][i];
-                if (t > max) max = t;
-            }
-
-            var sum = 0.0;
-            for (var c = 0; c < used.Length; c++) sum += Math.Exp(logC[c] + columns[c][i] - max);
-            _logW[i] = _logTarget[i] - (max + Math.Log(sum));
+            if (double.IsNegativeInfinity(logTarget[i])) continue;
+            logW[i] = logTarget[i] - (logPrior[i] + Math.Log(sum[i]));
         }
     }
 
@@ -680,6 +684,16 @@ internal sealed class ComponentSampleSet
 
         cumulative[^1] = 1;
         var first = _logW.Count;
+        // Room for the whole batch at once: the columns grow once per batch, not by repeated doubling.
+        var after = first + count;
+        _u.EnsureCapacity(after * _d);
+        _x.EnsureCapacity(after * _m);
+        _logW.EnsureCapacity(after);
+        _logTarget.EnsureCapacity(after);
+        _logPrior.EnsureCapacity(after);
+        _whitened.EnsureCapacity(after * _d);
+        var z = new double[_d];
+        foreach (var list in _times) list.EnsureCapacity(after);
         var u = new double[_d];
         var x = new double[_m];
         var local = new double[_localDimension];
@@ -689,6 +703,7 @@ internal sealed class ComponentSampleSet
             _mixture.Draw(_rng, cumulative, u);
             _t.ToPhysical(u, x);
             var logTarget = SamplingMixture.LogPrior(u);
+            _logPrior.Add(logTarget);
             foreach (var ev in _events)
             {
                 logTarget += ev.LogLikelihood(x);
@@ -698,6 +713,8 @@ internal sealed class ComponentSampleSet
 
             if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;
             for (var k = 0; k < _d; k++) _u.Add(u[k]);
+            _mixture.Whiten(u, z);
+            for (var k = 0; k < _d; k++) _whitened.Add(z[k]);
             for (var k = 0; k < _m; k++) _x.Add(x[k]);
             for (var e = 0; e < Periods; e++)
             {
@@ -726,11 +743,9 @@ internal sealed class ComponentSampleSet
             _logW.Add(logTarget);
         }
 
-        for (var j = 0; j < _mixture.Count; j++)
-        {
-            var column = _logPhi[j];
-            for (var i = first; i < _logW.Count; i++) column.Add(_mixture.LogDensity(j, System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_u).Slice(i * _d, _d)));
-        }
+        var whitened = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_whitened);
+        var logPrior = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logPrior);
+        for (var j = 1; j < _mixture.Count; j++) _mixture.AppendRatios(j, whitened, logPrior, first, _logW.Count, _ratio[j]);
     }
 
     /// <summary>
