@@ -58,7 +58,7 @@ internal sealed class ComponentSampleSet
     private SamplingMixture _mixture = null!;
     private int[][]? _order;
 
-    private ComponentSampleSet(EvidenceModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears)
+    private ComponentSampleSet(EvidenceModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears, int seed)
     {
         Model = model;
         Evidence = evidence;
@@ -95,7 +95,7 @@ internal sealed class ComponentSampleSet
         {
             _years[e] = ServiceYears.EndedBy(_periodStart[e], _periodLength[e]);
         }
-        _rng = new Random(options.Seed);
+        _rng = new Random(seed);
     }
 
     /// <summary>The augmented model and events.</summary>
@@ -141,7 +141,7 @@ internal sealed class ComponentSampleSet
     public static ComponentSampleSet Build(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears)
     {
         var evidenceModel = EvidenceModel.Build(UpdatingCase.Single(model, evidence), annualMaximumAsInput: true);
-        var set = new ComponentSampleSet(evidenceModel, evidence, options, horizonYears);
+        var set = new ComponentSampleSet(evidenceModel, evidence, options, horizonYears, options.Seed);
         set.Construct();
         return set;
     }
@@ -285,6 +285,16 @@ internal sealed class ComponentSampleSet
         Draw(_options.Samples, BaseWeights());
         Reweigh();
         Weighted = Weigh(_logW.ToArray());
+        var refinements = Refine();
+        Description = string.Create(CultureInfo.InvariantCulture,
+            $"one weighted sample set: {_logW.Count} samples in {_batches.Count} batch(es), ESS {Weighted.EffectiveSampleSize:F0}; mixture of the prior, {(smooth ? "the Laplace posterior, " : "")}{_failureCentres.Count} failure centre(s) ({anchors.Count} design point(s), {movedCount} moved by a cross-entropy step, {refinements} added where the set was refined)")
+            + (laplaceNote is null ? "" : "; " + laplaceNote);
+    }
+
+    /// <summary>Adds batches aimed at the earliest unresolved yearly Pf until every one is resolved or the cap is reached; returns the centres added.</summary>
+    /// <param name="kept">Samples taken over from a parent set: batches grow with the samples drawn since, not with those.</param>
+    private int Refine(int kept = 0)
+    {
         var refinements = 0;
         while (_logW.Count < _options.MaxSamples && Unresolved(Weighted) is { } missed)
         {
@@ -300,7 +310,7 @@ internal sealed class ComponentSampleSet
                 centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(Weighted, missed.Period, missed.Local), 0.2, out effective);
             }
 
-            var count = Math.Min(Math.Max(_options.Samples / 2, _logW.Count / 2), _options.MaxSamples - _logW.Count);
+            var count = Math.Min(Math.Max(_options.Samples / 2, (_logW.Count - kept) / 2), _options.MaxSamples - _logW.Count);
             if (centre is not null && effective >= 3)
             {
                 var nearest = Nearest(centre);
@@ -315,16 +325,80 @@ internal sealed class ComponentSampleSet
             }
             else
             {
-                Draw(Math.Min(_logW.Count, _options.MaxSamples - _logW.Count), BaseWeights());
+                Draw(Math.Min(Math.Max(_options.Samples, _logW.Count - kept), _options.MaxSamples - _logW.Count), BaseWeights());
             }
 
             Reweigh();
             Weighted = Weigh(_logW.ToArray());
         }
 
-        Description = string.Create(CultureInfo.InvariantCulture,
-            $"one weighted sample set: {_logW.Count} samples in {_batches.Count} batch(es), ESS {Weighted.EffectiveSampleSize:F0}; mixture of the prior, {(smooth ? "the Laplace posterior, " : "")}{_failureCentres.Count} failure centre(s) ({anchors.Count} design point(s), {movedCount} moved by a cross-entropy step, {refinements} added where the set was refined)")
-            + (laplaceNote is null ? "" : "; " + laplaceNote);
+        return refinements;
+    }
+
+    /// <summary>
+    /// This set extended by further findings without a repair or an in-service record (planned inspections that find
+    /// nothing, say): every sample kept, its target density multiplied by the new findings' likelihoods, then batches
+    /// aimed where the extended weights leave a yearly Pf unresolved. The samples stay draws of the same batches, so
+    /// the balance-heuristic weights stay exact; only the new batches cost new evaluations. Null when the findings are
+    /// not such an extension; the caller then builds a new set.
+    /// </summary>
+    public ComponentSampleSet? Extend(IReadOnlyList<InspectionOutcome> extended)
+    {
+        var extra = Extra(extended);
+        if (extra is null || extra.Count == 0 || extra.Any(e => e is SurvivedInService)) return null;
+        var model = EvidenceModel.Build(UpdatingCase.Single(_component, extended), annualMaximumAsInput: true);
+        if (model.InputModel.Variables.Count != _m || model.RenewalPeriods(Id) != Periods) return null;
+        var child = new ComponentSampleSet(model, extended, _options, HorizonYears, unchecked(_options.Seed * 7919 + extended.Count));
+        child.CopySamples(this);
+        var extraEvents = child._events.Where(ev => extra.Contains(ev.Outcome)).ToArray();
+        var x = new double[_m];
+        var logTarget = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(child._logTarget);
+        for (var i = 0; i < logTarget.Length; i++)
+        {
+            if (double.IsNegativeInfinity(logTarget[i])) continue;
+            for (var k = 0; k < _m; k++) x[k] = _x[i * _m + k];
+            foreach (var ev in extraEvents)
+            {
+                logTarget[i] += ev.LogLikelihood(x);
+                child.Evaluations++;
+                if (double.IsNegativeInfinity(logTarget[i])) break;
+            }
+
+            if (double.IsNaN(logTarget[i])) logTarget[i] = double.NegativeInfinity;
+        }
+
+        child.Reweigh();
+        child.Weighted = child.Weigh(child._logW.ToArray());
+        var kept = child._logW.Count;
+        var refinements = child.Refine(kept);
+        child.Description = Description + string.Create(CultureInfo.InvariantCulture,
+            $"; extended by {extra.Count} further finding(s): {kept} samples kept as weights, {child._logW.Count - kept} drawn ({refinements} centre(s) added), ESS {child.Weighted.EffectiveSampleSize:F0}");
+        child.DensityNote = DensityNote;
+        return child;
+    }
+
+    /// <summary>Copies every sample, component and batch of <paramref name="parent"/> (same inputs and renewal periods).</summary>
+    private void CopySamples(ComponentSampleSet parent)
+    {
+        _x.AddRange(parent._x);
+        _u.AddRange(parent._u);
+        _logTarget.AddRange(parent._logTarget);
+        _logW.AddRange(parent._logW);
+        _logPrior.AddRange(parent._logPrior);
+        _whitened.AddRange(parent._whitened);
+        _batches.AddRange(parent._batches);
+        foreach (var column in parent._ratio) _ratio.Add([.. column]);
+        _failureCentres.AddRange(parent._failureCentres);
+        _posterior = parent._posterior;
+        for (var e = 0; e < Periods; e++)
+        {
+            _times[e].AddRange(parent._times[e]);
+            _logSurvival[e].AddRange(parent._logSurvival[e]);
+        }
+
+        _mixture = parent._mixture.Copy();
+        _order = parent._order;
+        Evaluations = parent.Evaluations;
     }
 
     /// <summary>Forgets every sample and component; starts again from the prior, the posterior (if any) and the given failure centres.</summary>

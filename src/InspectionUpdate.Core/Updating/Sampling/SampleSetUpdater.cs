@@ -325,12 +325,14 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             }
 
             // A cached set whose findings are a part of these, the rest planned findings without a repair: reweight it.
+            Entry? parent = null;
             foreach (var candidate in _recent)
             {
                 // The prior's set is not reweighted with findings: its density does not look where they point.
                 if (!ReferenceEquals(candidate.Model, model) || candidate.HorizonYears < horizon || candidate.Evidence.Length == 0
                     || candidate.Evidence.Length >= evidence.Count) continue;
                 if (!candidate.Set.IsValueCreated) continue;
+                if (parent is null || candidate.Evidence.Length > parent.Evidence.Length) parent = candidate;
                 var known = candidate.Derived.FirstOrDefault(d => d.Evidence.SequenceEqual(evidence));
                 var reweighted = known.Weighted ?? candidate.Set.Value.Reweighted(evidence, out _);
                 // Reused while the weights stay balanced, or while they still resolve every yearly Pf that matters with
@@ -355,7 +357,12 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             }
 
             var evidenceCopy = evidence.ToArray();
-            entry = new Entry(model, evidenceCopy, horizon, new Lazy<ComponentSampleSet>(() => ComponentSampleSet.Build(model, evidenceCopy, Options, horizon)));
+            // Where no reweighting resolves, the set with the most of these findings is extended (its samples kept, new
+            // batches aimed where the new findings leave a yearly Pf unresolved); a new set is built only when that is
+            // not an extension or still does not resolve.
+            var from = parent?.Set.Value;
+            entry = new Entry(model, evidenceCopy, horizon, new Lazy<ComponentSampleSet>(() =>
+                from?.Extend(evidenceCopy) is { } child && child.Resolves(child.Weighted) ? child : ComponentSampleSet.Build(model, evidenceCopy, Options, horizon)));
             _recent.AddFirst(entry);
             while (_recent.Count > CachedSets) _recent.RemoveLast();
         }

@@ -27,6 +27,19 @@ internal sealed class SamplingMixture
         _logNorm = -_d * HalfLog2Pi - 0.5 * logDet;
     }
 
+    private SamplingMixture(SamplingMixture other)
+    {
+        _d = other._d;
+        _lower = other._lower;
+        _logNorm = other._logNorm;
+        _centres.Clear();
+        _centres.AddRange(other._centres);
+        _whiteCentres.AddRange(other._whiteCentres);
+    }
+
+    /// <summary>A copy that can take further components without changing this one (centres are never mutated).</summary>
+    public SamplingMixture Copy() => new(this);
+
     /// <summary>Number of components, the prior (index 0) included.</summary>
     public int Count => _centres.Count;
 
