@@ -282,6 +282,9 @@ internal sealed class ComponentSampleSet
         }
 
         Reset(scaled, scaledLogDet, smooth ? mean : null, moved);
+        // Room for a typical refined set at once (refinements usually end within five times the first draw): the
+        // columns are then copied on growth once at most.
+        Reserve(Math.Min(_options.MaxSamples, 5 * _options.Samples));
         Draw(_options.Samples, BaseWeights());
         Reweigh();
         Weighted = Weigh(_logW.ToArray());
@@ -310,7 +313,16 @@ internal sealed class ComponentSampleSet
                 centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(Weighted, missed.Period, missed.Local), 0.2, out effective);
             }
 
-            var count = Math.Min(Math.Max(_options.Samples / 2, (_logW.Count - kept) / 2), _options.MaxSamples - _logW.Count);
+            // While too few failures lie behind that time to judge it, a batch only has to find them (a quarter of the
+            // base count). Once they are found, the CoV falls like 1/√N: the batch is what the set's own samples would
+            // need to meet the target, (CoV/target)² − 1 times the samples drawn, with a fifth more for safety (an
+            // aimed batch does better than that), between a quarter of the base count and half the samples drawn.
+            var missedPf = Weighted.Cumulative(missed.Period, missed.Local);
+            var drawn = _logW.Count - kept;
+            var count = missedPf.EffectiveEvents < _options.MinimumFailureSamples || !double.IsFinite(missedPf.CoefficientOfVariation)
+                ? _options.Samples / 4
+                : (int)Math.Clamp(1.2 * drawn * (Math.Pow(missedPf.CoefficientOfVariation / _options.TargetCoefficientOfVariation, 2) - 1), _options.Samples / 4, Math.Max(_options.Samples / 2, drawn / 2));
+            count = Math.Min(count, _options.MaxSamples - _logW.Count);
             if (centre is not null && effective >= 3)
             {
                 var nearest = Nearest(centre);
@@ -422,6 +434,19 @@ internal sealed class ComponentSampleSet
         foreach (var c in Distinct(failureCentres)) _failureCentres.Add(AddComponent(c));
     }
 
+    /// <summary>Makes room for <paramref name="samples"/> samples in every column (a list grows by doubling past it).</summary>
+    private void Reserve(int samples)
+    {
+        _u.EnsureCapacity(samples * _d);
+        _whitened.EnsureCapacity(samples * _d);
+        _x.EnsureCapacity(samples * _m);
+        _logW.EnsureCapacity(samples);
+        _logTarget.EnsureCapacity(samples);
+        _logPrior.EnsureCapacity(samples);
+        foreach (var list in _times) list.EnsureCapacity(samples);
+        foreach (var list in _ratio) list.EnsureCapacity(samples);
+    }
+
     /// <summary>Adds a failure centre; returns its component index.</summary>
     private int AddFailureCentre(double[] centre)
     {
@@ -441,7 +466,7 @@ internal sealed class ComponentSampleSet
         }
 
         var j = _mixture.Add(centre);
-        var column = new List<double>(Math.Max(_logW.Count, 16));
+        var column = new List<double>(Math.Max(_logW.Capacity, 16));
         _mixture.AppendRatios(j, System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_whitened), System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logPrior), 0, _logW.Count, column);
         _ratio.Add(column);
         return j;
@@ -758,16 +783,8 @@ internal sealed class ComponentSampleSet
 
         cumulative[^1] = 1;
         var first = _logW.Count;
-        // Room for the whole batch at once: the columns grow once per batch, not by repeated doubling.
-        var after = first + count;
-        _u.EnsureCapacity(after * _d);
-        _x.EnsureCapacity(after * _m);
-        _logW.EnsureCapacity(after);
-        _logTarget.EnsureCapacity(after);
-        _logPrior.EnsureCapacity(after);
-        _whitened.EnsureCapacity(after * _d);
+        Reserve(first + count);
         var z = new double[_d];
-        foreach (var list in _times) list.EnsureCapacity(after);
         var u = new double[_d];
         var x = new double[_m];
         var local = new double[_localDimension];
