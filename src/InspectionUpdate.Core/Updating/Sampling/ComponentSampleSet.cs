@@ -642,7 +642,7 @@ internal sealed class ComponentSampleSet
     /// True when, under the given weights (this set's, or a reweighting for planned findings), every yearly Pf that may
     /// lie at or above the decision floor meets the target CoV with the minimum effective failure samples.
     /// </summary>
-    public bool Resolves(WeightedFailureTimes weighted) => Unresolved(weighted) is null;
+    public bool Resolves(WeightedFailureTimes weighted) => weighted.ResolvesEveryYear ??= Unresolved(weighted) is null;
 
     /// <summary>The earliest yearly time of some period whose Pf, possibly at or above the decision floor, misses the target CoV or the minimum failure samples; null when none.</summary>
     private (int Period, double Local)? Unresolved(WeightedFailureTimes weighted)

@@ -123,7 +123,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             }
 
             var note = estimate.Note;
-            if (Options.FirstOrderBelowResolution && !usedFirstOrder && firstOrderValue is { } fo && Disagrees(cumulative, fo))
+            if (Options.FirstOrderBelowResolution && !usedFirstOrder && estimate.Converged && firstOrderValue is { } fo && Disagrees(cumulative, fo))
             {
                 note = Append(note, string.Create(CultureInfo.InvariantCulture,
                     $"first order gives {fo:0.###E+00}, outside three standard errors and {Options.CrossCheckMargin:P0} of the sampled value"));
@@ -235,6 +235,11 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         // at which no planning decision depends on more digits.
         var belowDecisions = covered && p.Value + 3 * p.StandardError < Options.DecisionFloor;
         var resolved = covered && (p.CoefficientOfVariation <= Options.TargetCoefficientOfVariation || belowDecisions);
+        // Between two whole years the set has resolved (a planner's probe), Pf lies between theirs (it never falls
+        // with time) and its own estimate rests on nearly the same failures: up to twice the target CoV it is converged.
+        var betweenResolvedYears = !resolved && covered && !IsWholeYear(t) && p.CoefficientOfVariation <= 2 * Options.TargetCoefficientOfVariation
+            && set.Resolves(weighted);
+        resolved |= betweenResolvedYears;
         UpdatedEstimate? firstOrder = null;
         if (crossCheck || Options.FirstOrderBelowResolution && !resolved)
         {
@@ -245,7 +250,9 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         var sampleNote = string.Create(CultureInfo.InvariantCulture, $"{p.EffectiveEvents:F0} effective failure samples of {weighted.Count}");
         if (resolved)
         {
-            return Sampled(p, true, Append(note, belowDecisions && p.CoefficientOfVariation > Options.TargetCoefficientOfVariation
+            return Sampled(p, true, Append(note, betweenResolvedYears
+                ? string.Create(CultureInfo.InvariantCulture, $"{sampleNote}; CoV {p.CoefficientOfVariation:0.###} between whole years the set resolves to the target {Options.TargetCoefficientOfVariation:0.###} (within twice the target)")
+                : belowDecisions && p.CoefficientOfVariation > Options.TargetCoefficientOfVariation
                 ? string.Create(CultureInfo.InvariantCulture, $"{sampleNote}; below {Options.DecisionFloor:0.#E+0} with three standard errors")
                 : sampleNote));
         }
@@ -370,6 +377,8 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         var set = entry.Set.Value;
         return (set, set.Weighted, set.Description);
     }
+
+    private static bool IsWholeYear(double t) => Math.Abs(t - Math.Round(t)) < 1e-9;
 
     private static void RequireTime(double t, string name)
     {
