@@ -33,8 +33,11 @@ public sealed record RegisterReportOptions(DateOnly AsOf, AnnualTarget Target, U
     /// <summary>Accuracy and seed of the sampling route the results were stored with.</summary>
     public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
 
+    /// <summary>The branch plans assume after a detection (part of the options key: it changes numbers).</summary>
+    public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
+
     /// <summary>Canonical options key (<see cref="ResultKeys.Options"/>).</summary>
-    public string OptionsKey => ResultKeys.Options(Route, Target, HorizonYears, Sampling);
+    public string OptionsKey => ResultKeys.Options(Route, Target, HorizonYears, Sampling, AfterDetection);
 }
 
 /// <summary>What a register report wrote.</summary>
@@ -107,7 +110,7 @@ public static class RegisterReport
         }).ToArray();
 
         var csv = Path.Combine(folder, CsvName);
-        WriteCsv(csv, rows, staleCodes.ToHashSet(StringComparer.Ordinal));
+        WriteCsv(csv, rows, staleCodes.ToHashSet(StringComparer.Ordinal), DetectionBranch.Key(options.AfterDetection));
         // The calendar of the stored results: each component's next due inspection (stored results keep no schedule).
         var calendar = results.Where(r => r.NextDue is not null)
             .Select(r => new CalendarEntry(r.ComponentCode, r.ComponentCode, r.SiteCode, 1, r.NextDue!.Value, string.Empty,
@@ -138,6 +141,7 @@ public static class RegisterReport
                 "Numbers are the stored results of register assess, each filed under a key (model revision, the component's findings and repairs, options, tool build); this page computes none. A stale result is shown and marked.",
                 "Years to target: from the evidence date until the updated annual Pf reaches the target without further inspection.",
                 "Each component is assessed on its own; shared parameters across components are not pooled.",
+                ReportRun.AfterDetectionAssumption(options.AfterDetection),
                 "Component pages (only where requested) are computed afresh with the same options from the register as known on the evidence date.",
             ],
             Provenance = new ReportProvenance(ToolInfo.Version, snapshot.Fingerprint, store.Path, DateTimeOffset.UtcNow, options.AsOf) { RegisterKnownOn = snapshot.KnownOn },
@@ -156,7 +160,7 @@ public static class RegisterReport
             || (options.PagesAboveAnnualPf is { } p && r.AnnualPf > p)).ToArray();
         var pages = new ConcurrentDictionary<string, string>(StringComparer.Ordinal);
         if (selected.Length == 0) return new Dictionary<string, string>(pages);
-        var runOptions = new ReportRunOptions(options.AsOf, options.Target, false, options.Route, options.HorizonYears) { Sampling = options.Sampling };
+        var runOptions = new ReportRunOptions(options.AsOf, options.Target, false, options.Route, options.HorizonYears) { Sampling = options.Sampling, AfterDetection = options.AfterDetection };
         Parallel.ForEach(selected, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, r =>
         {
             var component = snapshot.Store.GetComponent(r.ComponentId, snapshot.Known);
@@ -176,19 +180,19 @@ public static class RegisterReport
     };
 
     /// <summary>Every stored result, most urgent first (annual Pf descending; failed last), RFC 4180 quoting.</summary>
-    private static void WriteCsv(string path, IReadOnlyList<RegisterResultRow> rows, HashSet<string> stale)
+    private static void WriteCsv(string path, IReadOnlyList<RegisterResultRow> rows, HashSet<string> stale, string afterDetection)
     {
         static string Q(string? s) => s is null ? string.Empty : s.IndexOfAny([',', '"', '\n', '\r']) >= 0 ? "\"" + s.Replace("\"", "\"\"", StringComparison.Ordinal) + "\"" : s;
         static string N(double? v) => v is { } x ? x.ToString("R", CultureInfo.InvariantCulture) : string.Empty;
         static string D(DateOnly? d) => d?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? string.Empty;
         using var w = new StreamWriter(path, false, new UTF8Encoding(false));
-        w.Write("rank,component_code,site_code,status,annual_pf,annual_pf_year_ending,beta,route,years_to_target,target_reached,next_due,stale,flags,error\n");
+        w.Write("rank,component_code,site_code,status,annual_pf,annual_pf_year_ending,beta,route,years_to_target,target_reached,next_due,stale,flags,error,after_detection\n");
         var rank = 0;
         foreach (var r in rows.OrderByDescending(r => r.AnnualPf ?? -1).ThenBy(r => r.ComponentId, StringComparer.Ordinal))
         {
             rank++;
             w.Write(string.Join(',', rank.ToString(CultureInfo.InvariantCulture), Q(r.ComponentId), Q(r.Site), r.Status, N(r.AnnualPf), D(r.YearEnding), N(r.Beta), Q(r.Route),
-                N(r.YearsToTarget), r.TargetReached is { } b ? (b ? "true" : "false") : string.Empty, D(r.NextDue), stale.Contains(r.ComponentId) ? "true" : "false", ReportMarks.CsvCell(r.Flags), Q(r.Error)));
+                N(r.YearsToTarget), r.TargetReached is { } b ? (b ? "true" : "false") : string.Empty, D(r.NextDue), stale.Contains(r.ComponentId) ? "true" : "false", ReportMarks.CsvCell(r.Flags), Q(r.Error), afterDetection));
             w.Write('\n');
         }
     }

@@ -152,6 +152,12 @@ public sealed record RegisterChecked(string Register, int SchemaVersion, bool He
 /// <summary>Settings of <c>register assess</c>.</summary>
 public sealed class RegisterAssessSettings : SampledSettings
 {
+    /// <summary>The branch plans assume after a detection.</summary>
+    [CommandOption("--after-detection <BRANCH>")]
+    [Description(AfterDetectionOption.Help)]
+    [DefaultValue("monitor")]
+    public string AfterDetection { get; init; } = "monitor";
+
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
     [Description(AssessSettings.AsOfHelp)]
@@ -207,6 +213,7 @@ public sealed class RegisterAssessCommand(CliHost host) : CliCommand<RegisterAss
             Shard = shard,
             Parallelism = settings.Parallel,
             Sampling = settings.Sampling(),
+            AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection),
         };
         var registerPath = settings.RegisterPath(Host);
         // A shard only reads the register (its results go to their own file): a read-only register can be sharded.
@@ -366,6 +373,12 @@ public sealed record RegisterInvented(string Register, int Components, int Seed,
 /// <summary>Settings of <c>register report</c>.</summary>
 public sealed class RegisterReportSettings : SampledSettings
 {
+    /// <summary>The branch plans assume after a detection.</summary>
+    [CommandOption("--after-detection <BRANCH>")]
+    [Description(AfterDetectionOption.Help)]
+    [DefaultValue("monitor")]
+    public string AfterDetection { get; init; } = "monitor";
+
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
     [Description("Evidence date of the stored results to report (as given to register assess). " + AssessSettings.AsOfHelp)]
@@ -429,6 +442,7 @@ public sealed class RegisterReportCommand(CliHost host) : CliCommand<RegisterRep
             PagesForSite = settings.Site,
             PagesAboveAnnualPf = settings.Above,
             Sampling = settings.Sampling(),
+            AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection),
         };
         var registerPath = settings.RegisterPath(Host);
         using var store = RegisterAccess.Open(Host, registerPath, RegisterOpenMode.OpenExistingToRead);

@@ -13,6 +13,12 @@ namespace InspectionUpdate.Cli.Commands;
 /// <summary>Settings of <c>report</c>.</summary>
 public sealed class ReportSettings : SampledSettings
 {
+    /// <summary>The branch plans assume after a detection.</summary>
+    [CommandOption("--after-detection <BRANCH>")]
+    [Description(AfterDetectionOption.Help)]
+    [DefaultValue("monitor")]
+    public string AfterDetection { get; init; } = "monitor";
+
     /// <summary>Only this component.</summary>
     [CommandArgument(0, "[COMPONENT]")]
     [Description("Only this component (default: every component).")]
@@ -108,6 +114,7 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null)
         {
             Sampling = settings.Sampling(),
+            AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection),
             DocumentControl = settings.DocumentControl(),
         };
         var knownOn = settings.KnownOn is null ? Host.Today() : RegisterAccess.Date("--known-on", settings.KnownOn);

@@ -149,6 +149,12 @@ public static partial class HtmlReportWriter
             h.Append("<p><strong>").Append(T(data.Plan.Status)).Append("</strong></p>\n<p>Target annual failure probability ")
                 .Append(T(NumberText.Format(data.Plan.TargetAnnualPf))).Append(" per year (").Append(T(data.Plan.TargetSource)).Append(").</p>\n");
             h.Append("<p class=\"small\">").Append(T(PlanAnnualNote(data.InServiceDate, data.Provenance.AssessedAsOf, point))).Append("</p>\n");
+            h.Append("<p class=\"small\" id=\"after-detection\">After a detection: <strong>")
+                .Append(T(data.Plan.AfterDetection == "repair" ? "repair on detection" : "monitor"))
+                .Append("</strong> (").Append(T(data.Plan.BranchNote is null
+                    ? "no detection since the last repair: the choice changes no number of this plan"
+                    : data.Plan.AfterDetection == "repair" ? "the defect is assumed repaired and the component restarts from its post-repair prior; see the first note"
+                    : "the known defect stays in service and is monitored; see the first note")).Append(").</p>\n");
             if (data.Plan.Schedule.Count > 0)
             {
                 Table(h, ["#", "date", "time (years)", "method", "basis"],
