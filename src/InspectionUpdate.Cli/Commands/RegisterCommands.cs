@@ -371,7 +371,7 @@ public sealed class RegisterInventCommand(CliHost host) : CliCommand<RegisterInv
 public sealed record RegisterInvented(string Register, int Components, int Seed, DateOnly Recorded, string Note);
 
 /// <summary>Settings of <c>register report</c>.</summary>
-public sealed class RegisterReportSettings : SampledSettings
+public sealed class RegisterReportSettings : DocumentControlSettings
 {
     /// <summary>The branch plans assume after a detection.</summary>
     [CommandOption("--after-detection <BRANCH>")]
@@ -441,6 +441,7 @@ public sealed class RegisterReportCommand(CliHost host) : CliCommand<RegisterRep
             PagesFor = codes,
             PagesForSite = settings.Site,
             PagesAboveAnnualPf = settings.Above,
+            DocumentControl = settings.DocumentControl(),
             Sampling = settings.Sampling(),
             AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection),
         };

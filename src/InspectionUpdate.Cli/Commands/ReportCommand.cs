@@ -11,7 +11,7 @@ using Spectre.Console.Cli;
 namespace InspectionUpdate.Cli.Commands;
 
 /// <summary>Settings of <c>report</c>.</summary>
-public sealed class ReportSettings : SampledSettings
+public sealed class ReportSettings : DocumentControlSettings
 {
     /// <summary>The branch plans assume after a detection.</summary>
     [CommandOption("--after-detection <BRANCH>")]
@@ -57,6 +57,14 @@ public sealed class ReportSettings : SampledSettings
     [DefaultValue("auto")]
     public string Route { get; init; } = "auto";
 
+}
+
+/// <summary>
+/// The document-control options of a report run (report, register report): each given field overrides the register's
+/// stored document control for this run only; the stored record is not changed.
+/// </summary>
+public abstract class DocumentControlSettings : SampledSettings
+{
     /// <summary>Report title for this run.</summary>
     [CommandOption("--title <TEXT>")]
     [Description("Report title for this run (default: the register's document control, else the file name).")]
