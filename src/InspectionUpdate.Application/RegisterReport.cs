@@ -36,6 +36,9 @@ public sealed record RegisterReportOptions(DateOnly AsOf, AnnualTarget Target, U
     /// <summary>The branch plans assume after a detection (part of the options key: it changes numbers).</summary>
     public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
 
+    /// <summary>How the inspection calendar groups each site's due inspections in time (default: calendar months).</summary>
+    public CampaignWindow Calendar { get; init; } = CampaignWindow.Month;
+
     /// <summary>Document control of this run: each field set overrides the register's for this run only (the stored record is not changed).</summary>
     public ReportDocumentControl DocumentControl { get; init; } = new();
 
@@ -77,6 +80,7 @@ public static class RegisterReport
         // The register's document control, this run's fields over it (for this run only); the target carries the owner's source.
         var document = OwnerRecords.DocumentControl(store).With(options.DocumentControl);
         var target = document.TargetSource is { } source ? AnnualTarget.FromAnnualPf(options.Target.AnnualPf, options.Target.Measure, source) : options.Target;
+        title = document.Title ?? title;
         var results = store.Results(options.AsOf, options.OptionsKey);
         if (results.Count == 0)
         {
@@ -129,11 +133,10 @@ public static class RegisterReport
                 "the annual ΔPf reaches the target then without further inspection (stored result)")).ToArray();
         using (var w = new StreamWriter(Path.Combine(folder, InspectionCalendar.CsvName)))
         {
-            InspectionCalendar.WriteCsv(w, calendar, options.AsOf);
+            InspectionCalendar.WriteCsv(w, calendar, options.AsOf, options.Calendar);
         }
 
-        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections"));
-        title = document.Title ?? title;
+        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections", options.Calendar));
         var data = new RegisterResultsReportData
         {
             Title = title,

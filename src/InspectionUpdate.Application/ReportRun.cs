@@ -23,6 +23,9 @@ public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool S
     /// <summary>The branch plans assume after a detection.</summary>
     public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
 
+    /// <summary>How the inspection calendar groups each site's due inspections in time (default: calendar months).</summary>
+    public CampaignWindow Calendar { get; init; } = CampaignWindow.Month;
+
     /// <summary>The owner's consequence classes, one line each, for the register page.</summary>
     public IReadOnlyList<string> ConsequenceClasses { get; init; } = [];
 
@@ -102,10 +105,10 @@ public static class ReportRun
         var calendar = CalendarEntries(runs);
         using (var w = new StreamWriter(Path.Combine(folder, InspectionCalendar.CsvName)))
         {
-            InspectionCalendar.WriteCsv(w, calendar, options.AsOf);
+            InspectionCalendar.WriteCsv(w, calendar, options.AsOf, options.Calendar);
         }
 
-        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections"));
+        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections", options.Calendar));
         portfolio = portfolio with { Downloads = [CsvName, InspectionCalendar.CsvName, InspectionCalendar.IcsName, "register.json"] };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.Portfolio(portfolio));

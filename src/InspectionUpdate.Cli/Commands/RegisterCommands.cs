@@ -371,7 +371,7 @@ public sealed class RegisterInventCommand(CliHost host) : CliCommand<RegisterInv
 public sealed record RegisterInvented(string Register, int Components, int Seed, DateOnly Recorded, string Note);
 
 /// <summary>Settings of <c>register report</c>.</summary>
-public sealed class RegisterReportSettings : DocumentControlSettings
+public sealed class RegisterReportSettings : ReportRunSettings
 {
     /// <summary>The branch plans assume after a detection.</summary>
     [CommandOption("--after-detection <BRANCH>")]
@@ -442,6 +442,7 @@ public sealed class RegisterReportCommand(CliHost host) : CliCommand<RegisterRep
             PagesForSite = settings.Site,
             PagesAboveAnnualPf = settings.Above,
             DocumentControl = settings.DocumentControl(),
+            Calendar = settings.Campaign(),
             Sampling = settings.Sampling(),
             AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection),
         };

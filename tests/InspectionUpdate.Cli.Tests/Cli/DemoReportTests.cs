@@ -203,11 +203,13 @@ public sealed class DemoReportTests(DemoReportFixture demo) : IClassFixture<Demo
         }
 
         // The CSV holds the same dates, overdue first, then by site and date.
-        var csv = File.ReadAllLines(Path.Combine(demo.Folder, "calendar.csv")).Skip(1).Select(l => l.Split(',')).ToArray();
+        var calendarLines = File.ReadAllLines(Path.Combine(demo.Folder, "calendar.csv"));
+        var header = calendarLines[0].Split(',');
+        var csv = calendarLines.Skip(1).Select(l => l.Split(',')).ToArray();
         Assert.Equal(expected.Count, csv.Length);
-        var status = csv.Select(r => r[0]).ToArray();
+        var status = csv.Select(r => r[Array.IndexOf(header, "status")]).ToArray();
         Assert.Equal(status.OrderBy(s => s == "overdue" ? 0 : 1), status);
-        var due = csv.Where(r => r[0] == "due").Select(r => (Site: r[1], Date: r[3])).ToArray();
+        var due = csv.Where(r => r[Array.IndexOf(header, "status")] == "due").Select(r => (Site: r[Array.IndexOf(header, "site")], Date: r[Array.IndexOf(header, "date")])).ToArray();
         Assert.Equal(due.OrderBy(d => d.Site, StringComparer.Ordinal).ThenBy(d => d.Date, StringComparer.Ordinal), due);
         Assert.Contains(status, s => s == "overdue");
     }

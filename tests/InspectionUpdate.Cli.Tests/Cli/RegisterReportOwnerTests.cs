@@ -90,4 +90,25 @@ public sealed class RegisterReportOwnerTests
         Assert.Equal("A. Stored", stored.GetProperty("author").GetString());
         Assert.Equal("stored justification", stored.GetProperty("target_source").GetString());
     }
+
+    [Fact]
+    public void The_calendar_of_register_report_is_grouped_by_the_campaign_window_asked_for_and_a_bad_window_is_refused()
+    {
+        using var cli = Classified(out var register);
+        string[] common = ["register", "report", "-r", register, "--route", "first-order", "--as-of", "2025-06-30", "-o", "stored"];
+        Run(cli, [.. common, "--campaign-window", "quarter"]);
+        var lines = File.ReadAllLines(Path.Combine(cli.PathOf("stored"), "calendar.csv"));
+        var header = lines[0].Split(',');
+        var row = lines[1].Split(',');
+        var date = DateOnly.Parse(row[Array.IndexOf(header, "date")], System.Globalization.CultureInfo.InvariantCulture);
+        // Calendar quarter of the due date (January–March is Q1), or overdue on or before the evidence date.
+        var expected = date <= new DateOnly(2025, 6, 30) ? "overdue" : $"{date.Year}-Q{(date.Month + 2) / 3}";
+        Assert.Equal(expected, row[Array.IndexOf(header, "campaign")]);
+        var ics = Ical.Net.Calendar.Load(File.ReadAllText(Path.Combine(cli.PathOf("stored"), "calendar.ics")))!;
+        Assert.Contains("campaign " + expected, Assert.Single(ics.Events).Categories);
+
+        var bad = cli.Run([.. common, "--campaign-window", "fortnight"]);
+        Assert.Equal(ExitCodes.BadInput, bad.ExitCode);
+        Assert.Contains("--campaign-window 'fortnight'", bad.Error, StringComparison.Ordinal);
+    }
 }
