@@ -4,6 +4,7 @@ using InspectionUpdate.Probability;
 using InspectionUpdate.Tests.Planning.Doubles;
 using InspectionUpdate.Tests.Updating;
 using InspectionUpdate.Updating;
+using InspectionUpdate.Updating.Sampling;
 using static InspectionUpdate.Tests.Planning.Doubles.PlanningCases;
 
 namespace InspectionUpdate.Tests.Planning;
@@ -75,6 +76,26 @@ public class AfterDetectionTests
         // Remaining life without inspection on the same branch: the same root.
         var life = planner.RemainingLife(request);
         Assert.InRange(life.UntilAnnualTarget.TimeYears, root - 3e-3, root + 1e-3);
+    }
+
+    [Fact]
+    [Trait("Category", "Statistical")]
+    [Reference("Closed form: the post-repair prior's own Pf shifted to the repair time, with R's conjugate posterior; the sampled value within 4 of its own standard errors")]
+    public void On_the_sampling_route_the_repaired_components_pf_agrees_with_the_closed_form_within_its_standard_error()
+    {
+        // The simulation route alone (no first order below its resolution), seeded: the planner reads Pf from the
+        // one weighted sample set of the evidence with the assumed repair.
+        var updater = new SampleSetUpdater(SampleSetOptions.Default with { HorizonYears = 40, FirstOrderBelowResolution = false, Seed = 11 });
+        var request = Sized(AfterDetection.Repair) with { Target = AnnualTarget.FromAnnualPf(1e-2, AnnualMeasure.IntervalPf) };
+        var next = new InspectionPlanner(updater).NextInspection(request);
+
+        Assert.Equal(NextInspectionStatus.Due, next.Status);
+        Assert.True(next.At.Converged);
+        var cov = Assert.IsType<double>(next.At.CoefficientOfVariation);
+        var exact = RepairedPf(next.TimeYears - 10);
+        Assert.InRange(next.At.CumulativePf, exact * (1 - 4 * cov), exact * (1 + 4 * cov));
+        // The monitored defect (4.1 mm at 10 y, critical 8 mm) would be far likelier to fail by then.
+        Assert.True(MonitoredPf(next.TimeYears) > 10 * exact);
     }
 
     [Fact]
