@@ -87,7 +87,7 @@ public static class DetectionBranch
 
         var renewed = request.Model.RenewedOnRepair;
         var prior = renewed.Count == 0
-            ? "the model renews no input on repair, so the assumed repair changes no number"
+            ? "the model renews no input on repair, so its degradation restarts at the repair with the same inputs (service time counted from the repair, as for a logged repair)"
             : "the renewed inputs (" + string.Join(", ", renewed) + ") restart from " + (request.AssumedRepairInputs.Count == 0
                 ? "their original prior"
                 : "the post-repair prior " + (request.AssumedRepairSource ?? "given") + " for " + string.Join(", ", request.AssumedRepairInputs.Keys.Order(StringComparer.Ordinal))
