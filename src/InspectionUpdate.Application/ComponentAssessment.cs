@@ -28,6 +28,12 @@ public sealed record AssessmentRequest(string ComponentId, IDegradationModel Mod
     /// <summary>The branch the plan assumes after a detection not yet followed by a repair (an option that changes numbers).</summary>
     public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
 
+    /// <summary>
+    /// False to skip the posterior summaries and draws of the inputs (a whole-register run stores profiles and plans
+    /// only; the summaries sort every input's samples). Default true.
+    /// </summary>
+    public bool PosteriorSummaries { get; init; } = true;
+
     /// <summary>Years from entry into service to the evidence date.</summary>
     public double AsOfYears => ServiceTime.YearsSince(InServiceDate, AsOf);
 }
@@ -107,6 +113,7 @@ public static class ComponentAssessment
             if (request.Evidence.Count == 0) return new AssessmentOutcome(priorSampled, null, null, "no findings: the prior stands");
             var updatedSampled = sampled.Profile(request.Model, request.Evidence, grid.TimesYears, UpdatedLabel(request));
             progress(0.9);
+            if (!request.PosteriorSummaries) return new AssessmentOutcome(priorSampled, updatedSampled, null, PosteriorNotRequested);
             var summary = sampled.Posterior(request.Model, request.Evidence);
             var draws = sampled.PosteriorSamples(request.Model, request.Evidence);
             progress(1.0);
@@ -124,6 +131,7 @@ public static class ComponentAssessment
         var session = FirstOrderUpdater.Prepare(request.Model, request.Evidence);
         var updated = session.Profile(UpdatingCase.SingleComponentId, grid.TimesYears, UpdatedLabel(request));
         progress(0.8);
+        if (!request.PosteriorSummaries) return new AssessmentOutcome(prior, updated, null, PosteriorNotRequested);
         PosteriorSummary? posterior = null;
         IReadOnlyList<InputSamples> samples = [];
         string? note = null;
@@ -140,6 +148,8 @@ public static class ComponentAssessment
         progress(1.0);
         return new AssessmentOutcome(prior, updated, posterior, note) { Samples = samples };
     }
+
+    private const string PosteriorNotRequested = "posterior summaries not requested in this run";
 
     private static string UpdatedLabel(AssessmentRequest request) => $"updated with {request.Evidence.Count} record(s) to {request.AsOf:yyyy-MM-dd}";
 

@@ -235,7 +235,12 @@ public static class PortfolioRun
     /// <summary>Assess and plan as <c>report</c> does (yearly grid, no schedule), and the numbers a register report needs.</summary>
     internal static StoredResult Compute(ComponentContext context, PortfolioOptions options, StoredResult row)
     {
-        var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling, AfterDetection = options.AfterDetection };
+        var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with
+        {
+            Sampling = options.Sampling,
+            AfterDetection = options.AfterDetection,
+            PosteriorSummaries = false,
+        };
         var outcome = ComponentAssessment.Assess(request, _ => { });
         PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, options.Target, null, _ => { }) : null;
         return ToStored(context, request, outcome, plan, row);

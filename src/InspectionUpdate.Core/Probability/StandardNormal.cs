@@ -16,10 +16,10 @@ public static class StandardNormal
     public static double Pdf(double u) => InvSqrt2Pi * Math.Exp(-0.5 * u * u);
 
     /// <summary>Φ(u) = P(U ≤ u); Φ(−∞) = 0, Φ(+∞) = 1, NaN → NaN.</summary>
-    public static double Cdf(double u) => 0.5 * MathNet.Numerics.SpecialFunctions.Erfc(-u * InvSqrt2);
+    public static double Cdf(double u) => 0.5 * CodyErfc.Erfc(-u * InvSqrt2);
 
     /// <summary>Q(u) = 1 − Φ(u) = Φ(−u), without cancellation for large u.</summary>
-    public static double Ccdf(double u) => 0.5 * MathNet.Numerics.SpecialFunctions.Erfc(u * InvSqrt2);
+    public static double Ccdf(double u) => 0.5 * CodyErfc.Erfc(u * InvSqrt2);
 
     /// <summary>Φ⁻¹(p) for p in [0, 1]; returns −∞ at 0 and +∞ at 1.</summary>
     /// <exception cref="ArgumentOutOfRangeException">p is NaN or outside [0, 1].</exception>

@@ -15,19 +15,31 @@ internal static class WeightedInputSamples
     public static IReadOnlyList<InputPosterior> Summaries(StochasticModel model, int count, Func<int, int, double> value, double[] w)
     {
         var total = w.Sum();
+        // Samples of zero weight (contradicting a finding) change no moment or quantile: only the others are sorted.
+        var kept = new List<int>(count);
+        for (var k = 0; k < count; k++)
+        {
+            if (w[k] > 0) kept.Add(k);
+        }
+
+        var n = kept.Count;
+        var weights = new double[n];
+        for (var j = 0; j < n; j++) weights[j] = w[kept[j]];
         var inputs = new List<InputPosterior>();
+        var values = new double[n];
+        var sortedWeights = new double[n];
         foreach (var i in model.RandomIndices)
         {
             var v = model.Variables[i];
-            var values = new double[count];
-            for (var k = 0; k < count; k++) values[k] = value(k, i);
+            for (var j = 0; j < n; j++) values[j] = value(kept[j], i);
             double mean = 0, second = 0;
-            for (var k = 0; k < count; k++) mean += w[k] * values[k];
+            for (var j = 0; j < n; j++) mean += weights[j] * values[j];
             mean /= total;
-            for (var k = 0; k < count; k++) second += w[k] * (values[k] - mean) * (values[k] - mean);
-            var order = Enumerable.Range(0, count).OrderBy(k => values[k]).ToArray();
+            for (var j = 0; j < n; j++) second += weights[j] * (values[j] - mean) * (values[j] - mean);
+            weights.CopyTo(sortedWeights, 0);
+            Array.Sort(values, sortedWeights);
             inputs.Add(new InputPosterior(v.Name, v.Mean, v.StandardDeviation, mean, Math.Sqrt(second / total),
-                Quantile(order, values, w, total, 0.05), Quantile(order, values, w, total, 0.50), Quantile(order, values, w, total, 0.95)));
+                Quantile(values, sortedWeights, total, 0.05), Quantile(values, sortedWeights, total, 0.50), Quantile(values, sortedWeights, total, 0.95)));
         }
 
         return inputs;
@@ -71,16 +83,17 @@ internal static class WeightedInputSamples
             .ToArray();
     }
 
-    private static double Quantile(int[] order, double[] values, double[] w, double total, double p)
+    /// <summary>The weighted p-quantile of values sorted in increasing order with their weights.</summary>
+    private static double Quantile(double[] sortedValues, double[] sortedWeights, double total, double p)
     {
         var target = p * total;
         var cum = 0.0;
-        foreach (var k in order)
+        for (var k = 0; k < sortedValues.Length; k++)
         {
-            cum += w[k];
-            if (cum >= target) return values[k];
+            cum += sortedWeights[k];
+            if (cum >= target) return sortedValues[k];
         }
 
-        return values[order[^1]];
+        return sortedValues.Length == 0 ? double.NaN : sortedValues[^1];
     }
 }

@@ -67,15 +67,20 @@ internal static class GaussianConditioning
                     $"The equality events are (nearly) linearly dependent at first order (smallest eigenvalue of their correlation matrix {minEig:G3}): two measurements carry the same information without independent errors."));
             }
 
-            var chol = ree.Cholesky();
-            var w = chol.Solve(zE);
-            var k = chol.Solve(roe.Transpose()); // m × n: R_EE⁻¹ R_EO
-            var mu = roe * w;
-            var reduce = roe * k;
+            // R_EE is small (one row per sized finding): a plain Cholesky solve here, because the library's solve with
+            // a matrix right-hand side spins up parallel workers that cost more than the arithmetic.
+            var lower = CholeskyLower(ree);
+            var w = SolveWith(lower, zE.ToArray());
             for (var i = 0; i < n; i++)
             {
-                mean[i] = mu[i];
-                for (var j = 0; j < n; j++) cov[i, j] -= reduce[i, j];
+                var row = new double[m];
+                for (var j = 0; j < m; j++) row[j] = roe[i, j];
+                var k = SolveWith(lower, row); // R_EE⁻¹ R_EOᵀ, column i
+                for (var j = 0; j < m; j++) mean[i] += roe[i, j] * w[j];
+                for (var b = 0; b < n; b++)
+                {
+                    for (var j = 0; j < m; j++) cov[b, i] -= roe[b, j] * k[j];
+                }
             }
         }
 
@@ -122,5 +127,46 @@ internal static class GaussianConditioning
         var s = 0.0;
         for (var i = 0; i < a.Count; i++) s += a[i] * b[i];
         return s;
+    }
+
+    /// <summary>Lower Cholesky factor of a symmetric positive definite matrix (checked positive definite by the caller).</summary>
+    private static double[,] CholeskyLower(Matrix<double> a)
+    {
+        var m = a.RowCount;
+        var l = new double[m, m];
+        for (var i = 0; i < m; i++)
+        {
+            for (var j = 0; j <= i; j++)
+            {
+                var s = a[i, j];
+                for (var k = 0; k < j; k++) s -= l[i, k] * l[j, k];
+                l[i, j] = i == j ? Math.Sqrt(s) : s / l[j, j];
+            }
+        }
+
+        return l;
+    }
+
+    /// <summary>x with L Lᵀ x = b.</summary>
+    private static double[] SolveWith(double[,] l, double[] b)
+    {
+        var m = b.Length;
+        var y = new double[m];
+        for (var i = 0; i < m; i++)
+        {
+            var s = b[i];
+            for (var k = 0; k < i; k++) s -= l[i, k] * y[k];
+            y[i] = s / l[i, i];
+        }
+
+        var x = new double[m];
+        for (var i = m - 1; i >= 0; i--)
+        {
+            var s = y[i];
+            for (var k = i + 1; k < m; k++) s -= l[k, i] * x[k];
+            x[i] = s / l[i, i];
+        }
+
+        return x;
     }
 }

@@ -42,7 +42,11 @@ internal sealed class ComponentSampleSet
     private readonly List<double> _u = [];
     private readonly List<double> _logTarget = [];
     private readonly List<(double[] Weights, int Count)> _batches = [];
-    private readonly List<List<double>> _logPhi = [];
+    // Per sample: ln φ(u) of the prior, and each further component's density as a ratio to it (linear scale, so the
+    // balance-heuristic density of all batches is a weighted sum, not a log-sum-exp, per sample).
+    private readonly List<double> _logPrior = [];
+    private readonly List<double> _whitened = [];
+    private readonly List<List<double>> _ratio = [];
     private readonly List<int> _failureCentres = [];
     private int _posterior = -1;
     private readonly List<double>[] _times;
@@ -54,7 +58,7 @@ internal sealed class ComponentSampleSet
     private SamplingMixture _mixture = null!;
     private int[][]? _order;
 
-    private ComponentSampleSet(EvidenceModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears)
+    private ComponentSampleSet(EvidenceModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears, int seed)
     {
         Model = model;
         Evidence = evidence;
@@ -91,7 +95,7 @@ internal sealed class ComponentSampleSet
         {
             _years[e] = ServiceYears.EndedBy(_periodStart[e], _periodLength[e]);
         }
-        _rng = new Random(options.Seed);
+        _rng = new Random(seed);
     }
 
     /// <summary>The augmented model and events.</summary>
@@ -137,7 +141,7 @@ internal sealed class ComponentSampleSet
     public static ComponentSampleSet Build(IDegradationModel model, IReadOnlyList<InspectionOutcome> evidence, SampleSetOptions options, double horizonYears)
     {
         var evidenceModel = EvidenceModel.Build(UpdatingCase.Single(model, evidence), annualMaximumAsInput: true);
-        var set = new ComponentSampleSet(evidenceModel, evidence, options, horizonYears);
+        var set = new ComponentSampleSet(evidenceModel, evidence, options, horizonYears, options.Seed);
         set.Construct();
         return set;
     }
@@ -278,9 +282,22 @@ internal sealed class ComponentSampleSet
         }
 
         Reset(scaled, scaledLogDet, smooth ? mean : null, moved);
+        // Room for a typical refined set at once (refinements usually end within five times the first draw): the
+        // columns are then copied on growth once at most.
+        Reserve(Math.Min(_options.MaxSamples, 5 * _options.Samples));
         Draw(_options.Samples, BaseWeights());
         Reweigh();
         Weighted = Weigh(_logW.ToArray());
+        var refinements = Refine();
+        Description = string.Create(CultureInfo.InvariantCulture,
+            $"one weighted sample set: {_logW.Count} samples in {_batches.Count} batch(es), ESS {Weighted.EffectiveSampleSize:F0}; mixture of the prior, {(smooth ? "the Laplace posterior, " : "")}{_failureCentres.Count} failure centre(s) ({anchors.Count} design point(s), {movedCount} moved by a cross-entropy step, {refinements} added where the set was refined)")
+            + (laplaceNote is null ? "" : "; " + laplaceNote);
+    }
+
+    /// <summary>Adds batches aimed at the earliest unresolved yearly Pf until every one is resolved or the cap is reached; returns the centres added.</summary>
+    /// <param name="kept">Samples taken over from a parent set: batches grow with the samples drawn since, not with those.</param>
+    private int Refine(int kept = 0)
+    {
         var refinements = 0;
         while (_logW.Count < _options.MaxSamples && Unresolved(Weighted) is { } missed)
         {
@@ -296,7 +313,16 @@ internal sealed class ComponentSampleSet
                 centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(Weighted, missed.Period, missed.Local), 0.2, out effective);
             }
 
-            var count = Math.Min(Math.Max(_options.Samples / 2, _logW.Count / 2), _options.MaxSamples - _logW.Count);
+            // While too few failures lie behind that time to judge it, a batch only has to find them (a quarter of the
+            // base count). Once they are found, the CoV falls like 1/√N: the batch is what the set's own samples would
+            // need to meet the target, (CoV/target)² − 1 times the samples drawn, with a fifth more for safety (an
+            // aimed batch does better than that), between a quarter of the base count and half the samples drawn.
+            var missedPf = Weighted.Cumulative(missed.Period, missed.Local);
+            var drawn = _logW.Count - kept;
+            var count = missedPf.EffectiveEvents < _options.MinimumFailureSamples || !double.IsFinite(missedPf.CoefficientOfVariation)
+                ? _options.Samples / 4
+                : (int)Math.Clamp(1.2 * drawn * (Math.Pow(missedPf.CoefficientOfVariation / _options.TargetCoefficientOfVariation, 2) - 1), _options.Samples / 4, Math.Max(_options.Samples / 2, drawn / 2));
+            count = Math.Min(count, _options.MaxSamples - _logW.Count);
             if (centre is not null && effective >= 3)
             {
                 var nearest = Nearest(centre);
@@ -311,16 +337,80 @@ internal sealed class ComponentSampleSet
             }
             else
             {
-                Draw(Math.Min(_logW.Count, _options.MaxSamples - _logW.Count), BaseWeights());
+                Draw(Math.Min(Math.Max(_options.Samples, _logW.Count - kept), _options.MaxSamples - _logW.Count), BaseWeights());
             }
 
             Reweigh();
             Weighted = Weigh(_logW.ToArray());
         }
 
-        Description = string.Create(CultureInfo.InvariantCulture,
-            $"one weighted sample set: {_logW.Count} samples in {_batches.Count} batch(es), ESS {Weighted.EffectiveSampleSize:F0}; mixture of the prior, {(smooth ? "the Laplace posterior, " : "")}{_failureCentres.Count} failure centre(s) ({anchors.Count} design point(s), {movedCount} moved by a cross-entropy step, {refinements} added where the set was refined)")
-            + (laplaceNote is null ? "" : "; " + laplaceNote);
+        return refinements;
+    }
+
+    /// <summary>
+    /// This set extended by further findings without a repair or an in-service record (planned inspections that find
+    /// nothing, say): every sample kept, its target density multiplied by the new findings' likelihoods, then batches
+    /// aimed where the extended weights leave a yearly Pf unresolved. The samples stay draws of the same batches, so
+    /// the balance-heuristic weights stay exact; only the new batches cost new evaluations. Null when the findings are
+    /// not such an extension; the caller then builds a new set.
+    /// </summary>
+    public ComponentSampleSet? Extend(IReadOnlyList<InspectionOutcome> extended)
+    {
+        var extra = Extra(extended);
+        if (extra is null || extra.Count == 0 || extra.Any(e => e is SurvivedInService)) return null;
+        var model = EvidenceModel.Build(UpdatingCase.Single(_component, extended), annualMaximumAsInput: true);
+        if (model.InputModel.Variables.Count != _m || model.RenewalPeriods(Id) != Periods) return null;
+        var child = new ComponentSampleSet(model, extended, _options, HorizonYears, unchecked(_options.Seed * 7919 + extended.Count));
+        child.CopySamples(this);
+        var extraEvents = child._events.Where(ev => extra.Contains(ev.Outcome)).ToArray();
+        var x = new double[_m];
+        var logTarget = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(child._logTarget);
+        for (var i = 0; i < logTarget.Length; i++)
+        {
+            if (double.IsNegativeInfinity(logTarget[i])) continue;
+            for (var k = 0; k < _m; k++) x[k] = _x[i * _m + k];
+            foreach (var ev in extraEvents)
+            {
+                logTarget[i] += ev.LogLikelihood(x);
+                child.Evaluations++;
+                if (double.IsNegativeInfinity(logTarget[i])) break;
+            }
+
+            if (double.IsNaN(logTarget[i])) logTarget[i] = double.NegativeInfinity;
+        }
+
+        child.Reweigh();
+        child.Weighted = child.Weigh(child._logW.ToArray());
+        var kept = child._logW.Count;
+        var refinements = child.Refine(kept);
+        child.Description = Description + string.Create(CultureInfo.InvariantCulture,
+            $"; extended by {extra.Count} further finding(s): {kept} samples kept as weights, {child._logW.Count - kept} drawn ({refinements} centre(s) added), ESS {child.Weighted.EffectiveSampleSize:F0}");
+        child.DensityNote = DensityNote;
+        return child;
+    }
+
+    /// <summary>Copies every sample, component and batch of <paramref name="parent"/> (same inputs and renewal periods).</summary>
+    private void CopySamples(ComponentSampleSet parent)
+    {
+        _x.AddRange(parent._x);
+        _u.AddRange(parent._u);
+        _logTarget.AddRange(parent._logTarget);
+        _logW.AddRange(parent._logW);
+        _logPrior.AddRange(parent._logPrior);
+        _whitened.AddRange(parent._whitened);
+        _batches.AddRange(parent._batches);
+        foreach (var column in parent._ratio) _ratio.Add([.. column]);
+        _failureCentres.AddRange(parent._failureCentres);
+        _posterior = parent._posterior;
+        for (var e = 0; e < Periods; e++)
+        {
+            _times[e].AddRange(parent._times[e]);
+            _logSurvival[e].AddRange(parent._logSurvival[e]);
+        }
+
+        _mixture = parent._mixture.Copy();
+        _order = parent._order;
+        Evaluations = parent.Evaluations;
     }
 
     /// <summary>Forgets every sample and component; starts again from the prior, the posterior (if any) and the given failure centres.</summary>
@@ -331,15 +421,30 @@ internal sealed class ComponentSampleSet
         _u.Clear();
         _logTarget.Clear();
         _batches.Clear();
-        _logPhi.Clear();
+        _logPrior.Clear();
+        _whitened.Clear();
+        _ratio.Clear();
         _failureCentres.Clear();
         _order = null;
         foreach (var list in _times) list.Clear();
         foreach (var list in _logSurvival) list.Clear();
         _mixture = new SamplingMixture(lower, logDet);
-        _logPhi.Add([]);
+        _ratio.Add([]);
         _posterior = posteriorMean is null ? -1 : AddComponent(posteriorMean);
         foreach (var c in Distinct(failureCentres)) _failureCentres.Add(AddComponent(c));
+    }
+
+    /// <summary>Makes room for <paramref name="samples"/> samples in every column (a list grows by doubling past it).</summary>
+    private void Reserve(int samples)
+    {
+        _u.EnsureCapacity(samples * _d);
+        _whitened.EnsureCapacity(samples * _d);
+        _x.EnsureCapacity(samples * _m);
+        _logW.EnsureCapacity(samples);
+        _logTarget.EnsureCapacity(samples);
+        _logPrior.EnsureCapacity(samples);
+        foreach (var list in _times) list.EnsureCapacity(samples);
+        foreach (var list in _ratio) list.EnsureCapacity(samples);
     }
 
     /// <summary>Adds a failure centre; returns its component index.</summary>
@@ -361,15 +466,9 @@ internal sealed class ComponentSampleSet
         }
 
         var j = _mixture.Add(centre);
-        var column = new List<double>(Math.Max(_logW.Count, 16));
-        var u = new double[_d];
-        for (var i = 0; i < _logW.Count; i++)
-        {
-            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
-            column.Add(_mixture.LogDensity(j, u));
-        }
-
-        _logPhi.Add(column);
+        var column = new List<double>(Math.Max(_logW.Capacity, 16));
+        _mixture.AppendRatios(j, System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_whitened), System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logPrior), 0, _logW.Count, column);
+        _ratio.Add(column);
         return j;
     }
 
@@ -543,7 +642,7 @@ internal sealed class ComponentSampleSet
     /// True when, under the given weights (this set's, or a reweighting for planned findings), every yearly Pf that may
     /// lie at or above the decision floor meets the target CoV with the minimum effective failure samples.
     /// </summary>
-    public bool Resolves(WeightedFailureTimes weighted) => Unresolved(weighted) is null;
+    public bool Resolves(WeightedFailureTimes weighted) => weighted.ResolvesEveryYear ??= Unresolved(weighted) is null;
 
     /// <summary>The earliest yearly time of some period whose Pf, possibly at or above the decision floor, misses the target CoV or the minimum failure samples; null when none.</summary>
     private (int Period, double Local)? Unresolved(WeightedFailureTimes weighted)
@@ -646,22 +745,26 @@ internal sealed class ComponentSampleSet
             for (var j = 0; j < weights.Length; j++) combined[j] += weights[j] * count / total;
         }
 
-        var used = Enumerable.Range(0, combined.Length).Where(j => combined[j] > 0).ToArray();
-        var logC = used.Select(j => Math.Log(combined[j])).ToArray();
-        var columns = used.Select(j => _logPhi[j]).ToArray();
+        // q(u)/φ(u) = c₀ + Σⱼ cⱼ·φⱼ(u)/φ(u); every batch keeps the defensive prior (c₀ > 0), so the sum is never 0.
+        var used = Enumerable.Range(1, combined.Length - 1).Where(j => combined[j] > 0).ToArray();
+        var c = used.Select(j => combined[j]).ToArray();
+        var columns = used.Select(j => _ratio[j]).ToArray();
+        var c0 = combined[0];
+        var logTarget = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logTarget);
+        var logPrior = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logPrior);
+        var logW = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logW);
+        var sum = new double[total];
+        Array.Fill(sum, c0);
+        for (var k = 0; k < c.Length; k++)
+        {
+            // sum += cₖ·ratioₖ, one component at a time over contiguous memory (vectorised).
+            VectorKernels.MultiplyAdd(System.Runtime.InteropServices.CollectionsMarshal.AsSpan(columns[k]), c[k], sum);
+        }
+
         for (var i = 0; i < total; i++)
         {
-            if (double.IsNegativeInfinity(_logTarget[i])) continue;
-            var max = double.NegativeInfinity;
-            for (var c = 0; c < used.Length; c++)
-            {
-                var t = logC[c] + columns[c][i];
-                if (t > max) max = t;
-            }
-
-            var sum = 0.0;
-            for (var c = 0; c < used.Length; c++) sum += Math.Exp(logC[c] + columns[c][i] - max);
-            _logW[i] = _logTarget[i] - (max + Math.Log(sum));
+            if (double.IsNegativeInfinity(logTarget[i])) continue;
+            logW[i] = logTarget[i] - (logPrior[i] + Math.Log(sum[i]));
         }
     }
 
@@ -680,6 +783,8 @@ internal sealed class ComponentSampleSet
 
         cumulative[^1] = 1;
         var first = _logW.Count;
+        Reserve(first + count);
+        var z = new double[_d];
         var u = new double[_d];
         var x = new double[_m];
         var local = new double[_localDimension];
@@ -689,6 +794,7 @@ internal sealed class ComponentSampleSet
             _mixture.Draw(_rng, cumulative, u);
             _t.ToPhysical(u, x);
             var logTarget = SamplingMixture.LogPrior(u);
+            _logPrior.Add(logTarget);
             foreach (var ev in _events)
             {
                 logTarget += ev.LogLikelihood(x);
@@ -698,6 +804,8 @@ internal sealed class ComponentSampleSet
 
             if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;
             for (var k = 0; k < _d; k++) _u.Add(u[k]);
+            _mixture.Whiten(u, z);
+            for (var k = 0; k < _d; k++) _whitened.Add(z[k]);
             for (var k = 0; k < _m; k++) _x.Add(x[k]);
             for (var e = 0; e < Periods; e++)
             {
@@ -726,11 +834,9 @@ internal sealed class ComponentSampleSet
             _logW.Add(logTarget);
         }
 
-        for (var j = 0; j < _mixture.Count; j++)
-        {
-            var column = _logPhi[j];
-            for (var i = first; i < _logW.Count; i++) column.Add(_mixture.LogDensity(j, System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_u).Slice(i * _d, _d)));
-        }
+        var whitened = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_whitened);
+        var logPrior = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(_logPrior);
+        for (var j = 1; j < _mixture.Count; j++) _mixture.AppendRatios(j, whitened, logPrior, first, _logW.Count, _ratio[j]);
     }
 
     /// <summary>

@@ -123,7 +123,7 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             }
 
             var note = estimate.Note;
-            if (Options.FirstOrderBelowResolution && !usedFirstOrder && firstOrderValue is { } fo && Disagrees(cumulative, fo))
+            if (Options.FirstOrderBelowResolution && !usedFirstOrder && estimate.Converged && firstOrderValue is { } fo && Disagrees(cumulative, fo))
             {
                 note = Append(note, string.Create(CultureInfo.InvariantCulture,
                     $"first order gives {fo:0.###E+00}, outside three standard errors and {Options.CrossCheckMargin:P0} of the sampled value"));
@@ -235,6 +235,11 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         // at which no planning decision depends on more digits.
         var belowDecisions = covered && p.Value + 3 * p.StandardError < Options.DecisionFloor;
         var resolved = covered && (p.CoefficientOfVariation <= Options.TargetCoefficientOfVariation || belowDecisions);
+        // Between two whole years the set has resolved (a planner's probe), Pf lies between theirs (it never falls
+        // with time) and its own estimate rests on nearly the same failures: up to twice the target CoV it is converged.
+        var betweenResolvedYears = !resolved && covered && !IsWholeYear(t) && p.CoefficientOfVariation <= 2 * Options.TargetCoefficientOfVariation
+            && set.Resolves(weighted);
+        resolved |= betweenResolvedYears;
         UpdatedEstimate? firstOrder = null;
         if (crossCheck || Options.FirstOrderBelowResolution && !resolved)
         {
@@ -245,7 +250,9 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         var sampleNote = string.Create(CultureInfo.InvariantCulture, $"{p.EffectiveEvents:F0} effective failure samples of {weighted.Count}");
         if (resolved)
         {
-            return Sampled(p, true, Append(note, belowDecisions && p.CoefficientOfVariation > Options.TargetCoefficientOfVariation
+            return Sampled(p, true, Append(note, betweenResolvedYears
+                ? string.Create(CultureInfo.InvariantCulture, $"{sampleNote}; CoV {p.CoefficientOfVariation:0.###} between whole years the set resolves to the target {Options.TargetCoefficientOfVariation:0.###} (within twice the target)")
+                : belowDecisions && p.CoefficientOfVariation > Options.TargetCoefficientOfVariation
                 ? string.Create(CultureInfo.InvariantCulture, $"{sampleNote}; below {Options.DecisionFloor:0.#E+0} with three standard errors")
                 : sampleNote));
         }
@@ -325,12 +332,14 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             }
 
             // A cached set whose findings are a part of these, the rest planned findings without a repair: reweight it.
+            Entry? parent = null;
             foreach (var candidate in _recent)
             {
                 // The prior's set is not reweighted with findings: its density does not look where they point.
                 if (!ReferenceEquals(candidate.Model, model) || candidate.HorizonYears < horizon || candidate.Evidence.Length == 0
                     || candidate.Evidence.Length >= evidence.Count) continue;
                 if (!candidate.Set.IsValueCreated) continue;
+                if (parent is null || candidate.Evidence.Length > parent.Evidence.Length) parent = candidate;
                 var known = candidate.Derived.FirstOrDefault(d => d.Evidence.SequenceEqual(evidence));
                 var reweighted = known.Weighted ?? candidate.Set.Value.Reweighted(evidence, out _);
                 // Reused while the weights stay balanced, or while they still resolve every yearly Pf that matters with
@@ -355,7 +364,12 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
             }
 
             var evidenceCopy = evidence.ToArray();
-            entry = new Entry(model, evidenceCopy, horizon, new Lazy<ComponentSampleSet>(() => ComponentSampleSet.Build(model, evidenceCopy, Options, horizon)));
+            // Where no reweighting resolves, the set with the most of these findings is extended (its samples kept, new
+            // batches aimed where the new findings leave a yearly Pf unresolved); a new set is built only when that is
+            // not an extension or still does not resolve.
+            var from = parent?.Set.Value;
+            entry = new Entry(model, evidenceCopy, horizon, new Lazy<ComponentSampleSet>(() =>
+                from?.Extend(evidenceCopy) is { } child && child.Resolves(child.Weighted) ? child : ComponentSampleSet.Build(model, evidenceCopy, Options, horizon)));
             _recent.AddFirst(entry);
             while (_recent.Count > CachedSets) _recent.RemoveLast();
         }
@@ -363,6 +377,8 @@ public sealed class SampleSetUpdater : IReliabilityUpdater
         var set = entry.Set.Value;
         return (set, set.Weighted, set.Description);
     }
+
+    private static bool IsWholeYear(double t) => Math.Abs(t - Math.Round(t)) < 1e-9;
 
     private static void RequireTime(double t, string name)
     {

@@ -13,6 +13,7 @@ internal sealed class SamplingMixture
 {
     private const double HalfLog2Pi = 0.91893853320467274178;
     private readonly List<double[]?> _centres = [null];
+    private readonly List<double[]?> _whiteCentres = [];
     private readonly double[,] _lower;
     private readonly double _logNorm;
     private readonly int _d;
@@ -25,6 +26,19 @@ internal sealed class SamplingMixture
         _lower = lower;
         _logNorm = -_d * HalfLog2Pi - 0.5 * logDet;
     }
+
+    private SamplingMixture(SamplingMixture other)
+    {
+        _d = other._d;
+        _lower = other._lower;
+        _logNorm = other._logNorm;
+        _centres.Clear();
+        _centres.AddRange(other._centres);
+        _whiteCentres.AddRange(other._whiteCentres);
+    }
+
+    /// <summary>A copy that can take further components without changing this one (centres are never mutated).</summary>
+    public SamplingMixture Copy() => new(this);
 
     /// <summary>Number of components, the prior (index 0) included.</summary>
     public int Count => _centres.Count;
@@ -64,18 +78,57 @@ internal sealed class SamplingMixture
     /// <summary>ln of component j's density at u.</summary>
     public double LogDensity(int j, ReadOnlySpan<double> u)
     {
-        if (_centres[j] is not { } c) return LogPrior(u);
+        if (_centres[j] is null) return LogPrior(u);
         Span<double> z = stackalloc double[_d];
+        Whiten(u, z);
+        var m = WhiteCentre(j);
         var q = 0.0;
+        for (var i = 0; i < _d; i++) q += (z[i] - m[i]) * (z[i] - m[i]);
+        return _logNorm - 0.5 * q;
+    }
+
+    /// <summary>z = L⁻¹u, the coordinates in which every non-prior component is N(L⁻¹cⱼ, I).</summary>
+    public void Whiten(ReadOnlySpan<double> u, Span<double> z)
+    {
         for (var i = 0; i < _d; i++)
         {
-            var s = u[i] - c[i];
+            var s = u[i];
             for (var k = 0; k < i; k++) s -= _lower[i, k] * z[k];
             z[i] = s / _lower[i, i];
-            q += z[i] * z[i];
+        }
+    }
+
+    /// <summary>
+    /// Appends φⱼ(uᵢ)/φ(uᵢ) (component j's density over the prior's) for samples <paramref name="first"/> to
+    /// <paramref name="count"/> − 1, from their whitened coordinates zᵢ = L⁻¹uᵢ (d per sample) and ln φ(uᵢ).
+    /// </summary>
+    /// <remarks>All components share L, so ‖zᵢ − mⱼ‖² is one dot product per sample; the exponentials run in vector lanes.</remarks>
+    public void AppendRatios(int j, ReadOnlySpan<double> whitened, ReadOnlySpan<double> logPrior, int first, int count, List<double> column)
+    {
+        var m = WhiteCentre(j);
+        var start = column.Count;
+        System.Runtime.InteropServices.CollectionsMarshal.SetCount(column, start + count - first);
+        var target = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(column)[start..];
+        for (var i = first; i < count; i++)
+        {
+            var z = whitened.Slice(i * _d, _d);
+            var q = 0.0;
+            for (var k = 0; k < _d; k++) q += (z[k] - m[k]) * (z[k] - m[k]);
+            target[i - first] = _logNorm - 0.5 * q - logPrior[i];
         }
 
-        return _logNorm - 0.5 * q;
+        VectorKernels.ExpInPlace(target);
+    }
+
+    /// <summary>L⁻¹cⱼ, computed once per component.</summary>
+    private double[] WhiteCentre(int j)
+    {
+        while (_whiteCentres.Count <= j) _whiteCentres.Add(null);
+        if (_whiteCentres[j] is { } known) return known;
+        var m = new double[_d];
+        Whiten(_centres[j] ?? new double[_d], m);
+        _whiteCentres[j] = m;
+        return m;
     }
 
     /// <summary>ln φ(u) of the standard normal prior.</summary>

@@ -34,6 +34,9 @@ internal abstract class WeightedFailureTimes
         LogMeanWeight = total > 0 ? Math.Log(total / weights.Length) + logScale : double.NegativeInfinity;
     }
 
+    /// <summary>Whether the set resolves every whole year under these weights, once its set has checked (null before).</summary>
+    internal bool? ResolvesEveryYear { get; set; }
+
     /// <summary>The weights, in sample order (scaled; see the constructor).</summary>
     public double[] Weights { get; }
 
