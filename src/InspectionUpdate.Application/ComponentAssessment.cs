@@ -25,6 +25,9 @@ public sealed record AssessmentRequest(string ComponentId, IDegradationModel Mod
     /// <summary>Accuracy and seed of the sampling route (auto and simulation); numbers are reproducible from them.</summary>
     public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
 
+    /// <summary>The branch the plan assumes after a detection not yet followed by a repair (an option that changes numbers).</summary>
+    public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
+
     /// <summary>
     /// False to skip the posterior summaries and draws of the inputs (a whole-register run stores profiles and plans
     /// only; the summaries sort every input's samples). Default true.
@@ -58,6 +61,12 @@ public sealed record AssessmentOutcome(ReliabilityProfile Prior, ReliabilityProf
 /// <param name="RemainingLife">Remaining life without further inspection.</param>
 public sealed record PlanOutcome(NextInspection Next, InspectionSchedule? Schedule, RemainingLife RemainingLife)
 {
+    /// <summary>The branch assumed after a detection (the run's option; it changes numbers only when a detection is open).</summary>
+    public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
+
+    /// <summary>The sentence stating the branch, or null when no detection is open since the last repair.</summary>
+    public string? BranchStatement { get; init; }
+
     /// <summary>True when every estimate behind the plan converged.</summary>
     public bool AllConverged => Next.Computation.AllConverged && (Schedule?.Computation.AllConverged ?? true) && RemainingLife.Computation.AllConverged;
 }
@@ -150,6 +159,9 @@ public static class ComponentAssessment
         ArgumentNullException.ThrowIfNull(request);
         ArgumentNullException.ThrowIfNull(target);
         var planner = new InspectionPlanner(Updater(request));
+        // The repair branch's post-repair prior: the latest logged repair's (the owner's own record of what a repair
+        // leaves), else the renewed inputs restart from their original prior.
+        var lastRepair = request.Evidence.OfType<Repair>().LastOrDefault();
         var planning = new PlanningRequest
         {
             Model = request.Model,
@@ -158,6 +170,11 @@ public static class ComponentAssessment
             Target = target,
             EndOfServiceYears = request.HorizonYears,
             StartTimeYears = Math.Clamp(request.AsOfYears, 0, request.HorizonYears),
+            AfterDetection = request.AfterDetection,
+            AssumedRepairInputs = request.AfterDetection == AfterDetection.Repair && lastRepair is not null
+                ? lastRepair.PostRepairInputs.Where(kv => request.Model.RenewedOnRepair.Contains(kv.Key)).ToDictionary()
+                : new Dictionary<string, Probability.RandomVariable>(),
+            AssumedRepairSource = lastRepair is null ? null : $"of the latest logged repair ({lastRepair.Reference})",
         };
         var next = planner.NextInspection(planning);
         progress(0.3);
@@ -165,6 +182,10 @@ public static class ComponentAssessment
         progress(0.5);
         var schedule = method is null ? null : planner.Schedule(planning, method);
         progress(1.0);
-        return new PlanOutcome(next, schedule, life);
+        return new PlanOutcome(next, schedule, life)
+        {
+            AfterDetection = request.AfterDetection,
+            BranchStatement = DetectionBranch.Statement(planning, ServiceTime.DateAt(request.InServiceDate, planning.EffectiveStartYears)),
+        };
     }
 }

@@ -107,6 +107,12 @@ public sealed record PlanDocument(string ComponentId, DateOnly AsOf, double Targ
 {
     /// <summary>The date the register was read as recorded on (--known-on); null for model files.</summary>
     public DateOnly? KnownOn { get; init; }
+
+    /// <summary>The branch assumed after a detection: "monitor" or "repair".</summary>
+    public string AfterDetection { get; init; } = "monitor";
+
+    /// <summary>The sentence stating the branch when a detection is open since the last repair, else null.</summary>
+    public string? AfterDetectionNote { get; init; }
 }
 
 /// <summary>Builds outputs from engine results. Lookups and wording only.</summary>
@@ -139,7 +145,11 @@ public static class ComponentStudy
                 ProfileExport.RouteKey(i.Before.Route), i.Before.Converged && i.After.Converged)).ToArray() ?? [],
             p.AllConverged, computation.Routes.Select(ProfileExport.RouteKey).ToArray(), computation.MaxCoefficientOfVariation,
             p.Next.Assumptions.Concat(p.Schedule?.Assumptions ?? []).Distinct().ToArray(), c.Fingerprint, ToolInfo.Version, Cautions.Line)
-        { KnownOn = c.KnownOn };
+        {
+            KnownOn = c.KnownOn,
+            AfterDetection = DetectionBranch.Key(p.AfterDetection),
+            AfterDetectionNote = p.BranchStatement,
+        };
     }
 
     public static ComponentReportData Report(ComponentContext c, AssessmentRequest r, AssessmentOutcome o, PlanOutcome? plan, IReadOnlyList<string> notAvailable,
@@ -180,7 +190,7 @@ public static class ComponentStudy
             Posteriors = o.Samples.Select(s => new ReportPosterior(s.Name, s.Prior, s.Posterior,
                 o.Posterior is null ? "importance sampling" : string.Create(CultureInfo.InvariantCulture, $"importance sampling, ESS {o.Posterior.EffectiveSampleSize:F0}"))).ToArray(),
             PosteriorRoute = ReportMapping.PosteriorRoute(o.Posterior),
-            Plan = plan is null ? null : BranchStated(ReportMapping.Plan(plan, notRequested), r.Evidence),
+            Plan = plan is null ? null : BranchStated(ReportMapping.Plan(plan, notRequested), plan),
             Assumptions = assumptions,
             NotAvailable = notAvailable,
             NotRequested = notRequested ?? [],
@@ -203,21 +213,16 @@ public static class ComponentStudy
     }
 
     /// <summary>
-    /// A plan after a detection or a sizing (with no repair since) states the branch it assumes: the known defect is
-    /// left in service and monitored, with the detection or sizing kept as evidence; no repair is assumed.
+    /// A plan after a detection or a sizing (with no repair since) states the branch it assumes, first among its notes:
+    /// the known defect left in service and monitored, or repaired on detection (the planner's statement).
     /// </summary>
-    public static ReportPlan BranchStated(ReportPlan plan, IReadOnlyList<InspectionOutcome> evidence)
+    public static ReportPlan BranchStated(ReportPlan plan, PlanOutcome outcome)
     {
         ArgumentNullException.ThrowIfNull(plan);
-        ArgumentNullException.ThrowIfNull(evidence);
-        var lastRepair = evidence.OfType<Repair>().Select(e => e.TimeYears).DefaultIfEmpty(double.NegativeInfinity).Max();
-        var found = evidence.Where(e => e is SizedIndication or IndicationNotSized && e.TimeYears > lastRepair).ToArray();
-        if (found.Length == 0) return plan;
-        var last = found[^1];
-        var what = last is SizedIndication s ? string.Create(CultureInfo.InvariantCulture, $"a defect sized at {s.MeasuredSizeMm:0.##} mm") : "an indication (not sized)";
-        var note = string.Create(CultureInfo.InvariantCulture,
-            $"Branch assumed after the last detection ({what} at {last.TimeYears:0.##} years, {last.Reference}): the known defect is left in service and monitored, the finding kept as evidence; no repair is assumed. A repair, once logged, renews the component and the plan restarts from the post-repair prior.");
-        return plan with { Notes = [note, .. plan.Notes] };
+        ArgumentNullException.ThrowIfNull(outcome);
+        var stated = plan with { AfterDetection = DetectionBranch.Key(outcome.AfterDetection) };
+        if (outcome.BranchStatement is not { } note) return stated;
+        return stated with { BranchNote = note, Notes = [note, .. plan.Notes.Where(n => n != note)] };
     }
 
     /// <summary>The methods whose PoD the report draws: those of the component's current findings, then the schedule's method.</summary>

@@ -22,6 +22,9 @@ public sealed record PortfolioOptions(DateOnly AsOf, AnnualTarget Target, Updati
     /// <summary>Accuracy and seed of the sampling route (part of the result key).</summary>
     public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
 
+    /// <summary>The branch plans assume after a detection (part of the options key: it changes numbers).</summary>
+    public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
+
     /// <summary>Only the components of this shard; null: all.</summary>
     public ShardSpec? Shard { get; init; }
 
@@ -32,7 +35,7 @@ public sealed record PortfolioOptions(DateOnly AsOf, AnnualTarget Target, Updati
     public int BatchSize { get; init; } = 64;
 
     /// <summary>Canonical text of the options that change numbers (<see cref="ResultKeys.Options"/>).</summary>
-    public string OptionsKey => ResultKeys.Options(Route, Target, HorizonYears, Sampling);
+    public string OptionsKey => ResultKeys.Options(Route, Target, HorizonYears, Sampling, AfterDetection);
 }
 
 /// <summary>Progress of a run: components done (computed, reused or failed) out of the total.</summary>
@@ -235,6 +238,7 @@ public static class PortfolioRun
         var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with
         {
             Sampling = options.Sampling,
+            AfterDetection = options.AfterDetection,
             PosteriorSummaries = false,
         };
         var outcome = ComponentAssessment.Assess(request, _ => { });

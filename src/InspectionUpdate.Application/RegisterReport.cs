@@ -33,8 +33,17 @@ public sealed record RegisterReportOptions(DateOnly AsOf, AnnualTarget Target, U
     /// <summary>Accuracy and seed of the sampling route the results were stored with.</summary>
     public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
 
+    /// <summary>The branch plans assume after a detection (part of the options key: it changes numbers).</summary>
+    public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
+
+    /// <summary>How the inspection calendar groups each site's due inspections in time (default: calendar months).</summary>
+    public CampaignWindow Calendar { get; init; } = CampaignWindow.Month;
+
+    /// <summary>Document control of this run: each field set overrides the register's for this run only (the stored record is not changed).</summary>
+    public ReportDocumentControl DocumentControl { get; init; } = new();
+
     /// <summary>Canonical options key (<see cref="ResultKeys.Options"/>).</summary>
-    public string OptionsKey => ResultKeys.Options(Route, Target, HorizonYears, Sampling);
+    public string OptionsKey => ResultKeys.Options(Route, Target, HorizonYears, Sampling, AfterDetection);
 }
 
 /// <summary>What a register report wrote.</summary>
@@ -57,6 +66,9 @@ public static class RegisterReport
     /// <summary>File name of the CSV with every stored result.</summary>
     public const string CsvName = "register-results.csv";
 
+    /// <summary>File name of the JSON export: document control, options, and every stored result with its consequence and risk.</summary>
+    public const string JsonName = "register-results.json";
+
     /// <summary>Writes index.html and the CSV into <paramref name="folder"/>, and the requested component pages.</summary>
     /// <exception cref="ApplicationFailureException">A requested component or site has no stored result, or no result is stored for these options.</exception>
     public static RegisterReportSummary Write(IRegister store, string folder, string title, RegisterReportOptions options)
@@ -65,6 +77,10 @@ public static class RegisterReport
         ArgumentNullException.ThrowIfNull(options);
         var clock = Stopwatch.StartNew();
         var snapshot = new RegisterSnapshot(store, options.AsOf);
+        // The register's document control, this run's fields over it (for this run only); the target carries the owner's source.
+        var document = OwnerRecords.DocumentControl(store).With(options.DocumentControl);
+        var target = document.TargetSource is { } source ? AnnualTarget.FromAnnualPf(options.Target.AnnualPf, options.Target.Measure, source) : options.Target;
+        title = document.Title ?? title;
         var results = store.Results(options.AsOf, options.OptionsKey);
         if (results.Count == 0)
         {
@@ -97,7 +113,7 @@ public static class RegisterReport
         var staleCodes = stale.Order(StringComparer.Ordinal).ToArray();
 
         Directory.CreateDirectory(folder);
-        var pages = WritePages(snapshot, folder, options, results);
+        var pages = WritePages(snapshot, folder, options, results, document, target);
         var rows = results.Select(r => new RegisterResultRow(r.ComponentCode, r.SiteCode, StatusText(r.Status), r.AnnualPf, r.AnnualPfYearEnding, r.Beta, r.Route,
             r.NextDue, r.YearsToTarget, r.TargetReached, r.Error)
         {
@@ -106,20 +122,21 @@ public static class RegisterReport
                 : ReportMarks.Of(r.Status == ResultStatus.Assessed, r.AnnualPf, r.NextDue, options.Target.AnnualPf, options.AsOf),
         }).ToArray();
 
+        // Consequence and risk: each component's class (as known on the evidence date), its class's target, else the run's.
+        var consequences = OwnerRecords.Consequences(store, snapshot.Known);
+        var risk = rows.Where(r => r.Status != "failed").Select(r => RiskRow(r, consequences.GetValueOrDefault(r.ComponentId), options.Target)).ToArray();
         var csv = Path.Combine(folder, CsvName);
-        WriteCsv(csv, rows, staleCodes.ToHashSet(StringComparer.Ordinal));
+        WriteCsv(csv, rows, staleCodes.ToHashSet(StringComparer.Ordinal), DetectionBranch.Key(options.AfterDetection), risk.ToDictionary(r => r.ComponentId, StringComparer.Ordinal));
         // The calendar of the stored results: each component's next due inspection (stored results keep no schedule).
         var calendar = results.Where(r => r.NextDue is not null)
             .Select(r => new CalendarEntry(r.ComponentCode, r.ComponentCode, r.SiteCode, 1, r.NextDue!.Value, string.Empty,
                 "the annual ΔPf reaches the target then without further inspection (stored result)")).ToArray();
         using (var w = new StreamWriter(Path.Combine(folder, InspectionCalendar.CsvName)))
         {
-            InspectionCalendar.WriteCsv(w, calendar, options.AsOf);
+            InspectionCalendar.WriteCsv(w, calendar, options.AsOf, options.Calendar);
         }
 
-        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections"));
-        var document = OwnerRecords.DocumentControl(store);
-        title = document.Title ?? title;
+        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections", options.Calendar));
         var data = new RegisterResultsReportData
         {
             Title = title,
@@ -131,24 +148,54 @@ public static class RegisterReport
             Missing = missing,
             Stale = staleCodes,
             CsvFile = CsvName,
+            RiskRows = risk,
+            ConsequenceClasses = OwnerRecords.ClassLegend(store),
             Assumptions =
             [
-                $"Target: {options.Target.Describe()}.",
+                $"Target: {target.Describe()}.",
                 $"Evidence as known on {options.AsOf:yyyy-MM-dd}; the current annual Pf is the updated ΔPf of the year ending at the first grid time at or after that date.",
                 "Numbers are the stored results of register assess, each filed under a key (model revision, the component's findings and repairs, options, tool build); this page computes none. A stale result is shown and marked.",
                 "Years to target: from the evidence date until the updated annual Pf reaches the target without further inspection.",
                 "Each component is assessed on its own; shared parameters across components are not pooled.",
+                ReportRun.AfterDetectionAssumption(options.AfterDetection),
                 "Component pages (only where requested) are computed afresh with the same options from the register as known on the evidence date.",
             ],
             Provenance = new ReportProvenance(ToolInfo.Version, snapshot.Fingerprint, store.Path, DateTimeOffset.UtcNow, options.AsOf) { RegisterKnownOn = snapshot.KnownOn },
         };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.RegisterResults(data));
+        File.WriteAllText(Path.Combine(folder, JsonName), System.Text.Json.JsonSerializer.Serialize(new RegisterResultsExport("inspection-update/register-results-export/1", title,
+            options.AsOf, ToolInfo.Version, snapshot.Fingerprint, options.OptionsKey, DetectionBranch.Key(options.AfterDetection), options.Target.AnnualPf, target.Source,
+            data.DocumentControl, data.ConsequenceClasses, RankedRisk(risk).Select(r => new RiskExport(r.ComponentId, r.Site, r.CurrentAnnualPf, r.ConsequenceClass, r.TargetAnnualPf,
+                r.RatioToTarget, r.CostOfFailure, r.ExpectedAnnualCost, r.NextDue, r.Flags)).ToArray(), Cautions.Line), ProfileExport.JsonOptions));
         return new RegisterReportSummary(index, csv, rows.Length, missing, staleCodes, pages.Values.Order(StringComparer.Ordinal).ToArray(), clock.Elapsed);
     }
 
+    /// <summary>A stored result as a row of the risk section (class, its target else the run's, cost of failure).</summary>
+    private static PortfolioRow RiskRow(RegisterResultRow r, ComponentConsequence? consequence, AnnualTarget runTarget) =>
+        new(r.ComponentId, r.ComponentId, r.Site, r.AnnualPf, r.Route ?? "-", r.YearsToTarget, r.NextDue, r.Status, r.ReportFile)
+        {
+            FlagSet = r.Flags,
+            ConsequenceClass = consequence?.Class,
+            CostOfFailure = consequence?.CostOfFailure,
+            TargetAnnualPf = (consequence?.Target ?? runTarget).AnnualPf,
+        };
+
+    /// <summary>The risk table's order: annual Pf over the class's target, then expected annual cost, then code (the same rule as the report page).</summary>
+    public static IReadOnlyList<PortfolioRow> RankedRisk(IEnumerable<PortfolioRow> rows) =>
+        rows.Where(r => r.ConsequenceClass is not null).OrderByDescending(r => r.RatioToTarget ?? -1).ThenByDescending(r => r.ExpectedAnnualCost ?? -1)
+            .ThenBy(r => r.ComponentId, StringComparer.Ordinal).ToArray();
+
+    private sealed record RegisterResultsExport(string Format, string Title, DateOnly AssessedAsOf, string ToolVersion, string RegisterFingerprint, string OptionsKey,
+        string AfterDetection, double TargetAnnualPf, string TargetSource, ReportDocumentControl DocumentControl, IReadOnlyList<string> ConsequenceClasses,
+        IReadOnlyList<RiskExport> Risk, string Caution);
+
+    private sealed record RiskExport(string ComponentId, string Site, double? AnnualPf, int? ConsequenceClass, double? TargetAnnualPf, double? RatioToTarget,
+        double? CostOfFailure, double? ExpectedAnnualCost, DateOnly? NextDue, IReadOnlyList<string> Flags);
+
     /// <summary>The requested component pages, computed and written in parallel; file name by component code.</summary>
-    private static Dictionary<string, string> WritePages(RegisterSnapshot snapshot, string folder, RegisterReportOptions options, IReadOnlyList<StoredResult> results)
+    private static Dictionary<string, string> WritePages(RegisterSnapshot snapshot, string folder, RegisterReportOptions options, IReadOnlyList<StoredResult> results,
+        ReportDocumentControl document, AnnualTarget target)
     {
         var wanted = options.PagesFor.ToHashSet(StringComparer.Ordinal);
         var selected = results.Where(r => wanted.Contains(r.ComponentCode)
@@ -156,12 +203,19 @@ public static class RegisterReport
             || (options.PagesAboveAnnualPf is { } p && r.AnnualPf > p)).ToArray();
         var pages = new ConcurrentDictionary<string, string>(StringComparer.Ordinal);
         if (selected.Length == 0) return new Dictionary<string, string>(pages);
-        var runOptions = new ReportRunOptions(options.AsOf, options.Target, false, options.Route, options.HorizonYears) { Sampling = options.Sampling };
+        var runOptions = new ReportRunOptions(options.AsOf, target, false, options.Route, options.HorizonYears)
+        {
+            Sampling = options.Sampling,
+            AfterDetection = options.AfterDetection,
+            DocumentControl = document,
+        };
+        var consequences = OwnerRecords.Consequences(snapshot.Store, snapshot.Known);
         Parallel.ForEach(selected, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, r =>
         {
             var component = snapshot.Store.GetComponent(r.ComponentId, snapshot.Known);
             if (component is null) return;
-            var run = ReportRun.Run([() => ComponentContexts.FromRegister(snapshot, component)], [r.ComponentCode], runOptions, _ => { }, parallelism: 1)[0];
+            var run = ReportRun.Run([() => ComponentContexts.FromRegister(snapshot, component) with { Consequence = consequences.GetValueOrDefault(r.ComponentCode) }],
+                [r.ComponentCode], runOptions, _ => { }, parallelism: 1)[0];
             var row = ReportRun.WriteComponent(folder, run, runOptions, []);
             if (row.ReportFile is not null) pages[r.ComponentCode] = row.ReportFile;
         });
@@ -176,19 +230,21 @@ public static class RegisterReport
     };
 
     /// <summary>Every stored result, most urgent first (annual Pf descending; failed last), RFC 4180 quoting.</summary>
-    private static void WriteCsv(string path, IReadOnlyList<RegisterResultRow> rows, HashSet<string> stale)
+    private static void WriteCsv(string path, IReadOnlyList<RegisterResultRow> rows, HashSet<string> stale, string afterDetection, Dictionary<string, PortfolioRow> risk)
     {
         static string Q(string? s) => s is null ? string.Empty : s.IndexOfAny([',', '"', '\n', '\r']) >= 0 ? "\"" + s.Replace("\"", "\"\"", StringComparison.Ordinal) + "\"" : s;
         static string N(double? v) => v is { } x ? x.ToString("R", CultureInfo.InvariantCulture) : string.Empty;
         static string D(DateOnly? d) => d?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? string.Empty;
         using var w = new StreamWriter(path, false, new UTF8Encoding(false));
-        w.Write("rank,component_code,site_code,status,annual_pf,annual_pf_year_ending,beta,route,years_to_target,target_reached,next_due,stale,flags,error\n");
+        w.Write("rank,component_code,site_code,status,annual_pf,annual_pf_year_ending,beta,route,years_to_target,target_reached,next_due,stale,flags,error,after_detection,consequence_class,cost_of_failure,class_target_annual_pf,ratio_to_target,expected_annual_cost\n");
         var rank = 0;
         foreach (var r in rows.OrderByDescending(r => r.AnnualPf ?? -1).ThenBy(r => r.ComponentId, StringComparer.Ordinal))
         {
             rank++;
             w.Write(string.Join(',', rank.ToString(CultureInfo.InvariantCulture), Q(r.ComponentId), Q(r.Site), r.Status, N(r.AnnualPf), D(r.YearEnding), N(r.Beta), Q(r.Route),
-                N(r.YearsToTarget), r.TargetReached is { } b ? (b ? "true" : "false") : string.Empty, D(r.NextDue), stale.Contains(r.ComponentId) ? "true" : "false", ReportMarks.CsvCell(r.Flags), Q(r.Error)));
+                N(r.YearsToTarget), r.TargetReached is { } b ? (b ? "true" : "false") : string.Empty, D(r.NextDue), stale.Contains(r.ComponentId) ? "true" : "false", ReportMarks.CsvCell(r.Flags), Q(r.Error), afterDetection,
+                risk.TryGetValue(r.ComponentId, out var k) && k.ConsequenceClass is { } c ? c.ToString(CultureInfo.InvariantCulture) : string.Empty,
+                N(k?.CostOfFailure), k?.ConsequenceClass is null ? string.Empty : N(k.TargetAnnualPf), k?.ConsequenceClass is null ? string.Empty : N(k.RatioToTarget), N(k?.ExpectedAnnualCost)));
             w.Write('\n');
         }
     }

@@ -20,6 +20,12 @@ public sealed record ReportRunOptions(DateOnly AsOf, AnnualTarget Target, bool S
     /// <summary>Accuracy and seed of the sampling route.</summary>
     public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
 
+    /// <summary>The branch plans assume after a detection.</summary>
+    public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
+
+    /// <summary>How the inspection calendar groups each site's due inspections in time (default: calendar months).</summary>
+    public CampaignWindow Calendar { get; init; } = CampaignWindow.Month;
+
     /// <summary>The owner's consequence classes, one line each, for the register page.</summary>
     public IReadOnlyList<string> ConsequenceClasses { get; init; } = [];
 
@@ -40,7 +46,7 @@ public static class ReportRun
             try
             {
                 var context = components[i]();
-                var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling };
+                var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling, AfterDetection = options.AfterDetection };
                 var outcome = ComponentAssessment.Assess(request, _ => { });
                 var method = options.Schedule ? context.DefaultPlanMethod : null;
                 // The component's consequence class chooses its target where the class names a preset; else the run's.
@@ -86,6 +92,7 @@ public static class ReportRun
                 $"Evidence up to {options.AsOf:yyyy-MM-dd}" + (knownOn is { } known ? $", register as recorded on {known:yyyy-MM-dd}" : string.Empty) + "; the current annual Pf is the updated ΔPf of the year ending at the first grid time at or after that date.",
                 "Years to target: from the evidence date until the updated annual Pf reaches the target without further inspection (the remaining life against the target).",
                 "Each component is assessed on its own; shared parameters across components are not pooled in this report.",
+                AfterDetectionAssumption(options.AfterDetection),
                 "Updating route: " + (options.Route switch
                 {
                     UpdatingRoute.FirstOrder => "first order only (linearized events); numbers the updater flags as unreliable are noted per step — check them with --route auto",
@@ -100,10 +107,10 @@ public static class ReportRun
         var calendar = CalendarEntries(runs);
         using (var w = new StreamWriter(Path.Combine(folder, InspectionCalendar.CsvName)))
         {
-            InspectionCalendar.WriteCsv(w, calendar, options.AsOf);
+            InspectionCalendar.WriteCsv(w, calendar, options.AsOf, options.Calendar);
         }
 
-        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections"));
+        File.WriteAllText(Path.Combine(folder, InspectionCalendar.IcsName), InspectionCalendar.Ics(calendar, options.AsOf, title + " — due inspections", options.Calendar));
         portfolio = portfolio with { Downloads = [CsvName, InspectionCalendar.CsvName, InspectionCalendar.IcsName, "register.json"] };
         var index = Path.Combine(folder, "index.html");
         File.WriteAllText(index, HtmlReportWriter.Portfolio(portfolio));
@@ -113,7 +120,10 @@ public static class ReportRun
         }
 
         File.WriteAllText(Path.Combine(folder, "register.json"), JsonSerializer.Serialize(new RegisterExport("inspection-update/register-export/1", title, options.AsOf,
-            ToolInfo.Version, fingerprint, options.Target.AnnualPf, options.DocumentControl with { Title = title }, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray()), ProfileExport.JsonOptions));
+            ToolInfo.Version, fingerprint, options.Target.AnnualPf, options.DocumentControl with { Title = title }, rows.Select(r => r with { YearsToTarget = r.YearsToTarget is { } y && double.IsFinite(y) ? y : r.YearsToTarget is null ? null : 1e9 }).ToArray())
+        {
+            AfterDetection = DetectionBranch.Key(options.AfterDetection),
+        }, ProfileExport.JsonOptions));
         return index;
     }
 
@@ -129,7 +139,7 @@ public static class ReportRun
         var safe = Safe(run.ComponentId);
         if (run.Context is null || run.Request is null || run.Outcome is null)
         {
-            return new PortfolioRow(run.ComponentId, "-", "-", null, "-", null, null, "not assessed: " + run.Error, null);
+            return new PortfolioRow(run.ComponentId, "-", "-", null, "-", null, null, "not assessed: " + run.Error, null) { AfterDetection = DetectionBranch.Key(options.AfterDetection) };
         }
 
         IReadOnlyList<string> notRequested = options.Schedule || run.Plan is null ? [] : [ScheduleNotRequested];
@@ -152,6 +162,7 @@ public static class ReportRun
             ConsequenceClass = run.Context.Consequence?.Class,
             CostOfFailure = run.Context.Consequence?.CostOfFailure,
             TargetAnnualPf = run.Plan?.Next.Target.AnnualPf ?? (run.Context.Consequence?.Target ?? options.Target).AnnualPf,
+            AfterDetection = DetectionBranch.Key(options.AfterDetection),
         };
     }
 
@@ -181,5 +192,13 @@ public static class ReportRun
     public static string Safe(string id) => string.Concat(id.Select(c => char.IsLetterOrDigit(c) || c is '-' or '_' or '.' ? c : '_'));
 
     private sealed record RegisterExport(string Format, string Title, DateOnly AssessedAsOf, string ToolVersion, string RegisterFingerprint, double TargetAnnualPf,
-        ReportDocumentControl DocumentControl, IReadOnlyList<PortfolioRow> Components);
+        ReportDocumentControl DocumentControl, IReadOnlyList<PortfolioRow> Components)
+    {
+        public string AfterDetection { get; init; } = "monitor";
+    }
+
+    /// <summary>The register pages' sentence on the branch plans assume after a detection.</summary>
+    public static string AfterDetectionAssumption(AfterDetection branch) => branch == AfterDetection.Repair
+        ? "After a detection not yet followed by a logged repair, plans assume repair on detection (--after-detection repair): the defect is repaired at the evidence date and the component restarts from its post-repair prior (the latest logged repair's, else the renewed inputs' original prior)."
+        : "After a detection not yet followed by a logged repair, plans assume the known defect stays in service and is monitored (--after-detection monitor): no repair is assumed.";
 }

@@ -14,7 +14,7 @@ namespace InspectionUpdate.Application;
 public static class ResultKeys
 {
     /// <summary>Canonical text of the options that change a component's numbers (part of the key and of the row's identity).</summary>
-    public static string Options(UpdatingRoute route, AnnualTarget target, double? horizonYears, SamplingSettings? sampling = null)
+    public static string Options(UpdatingRoute route, AnnualTarget target, double? horizonYears, SamplingSettings? sampling = null, AfterDetection afterDetection = AfterDetection.Monitor)
     {
         ArgumentNullException.ThrowIfNull(target);
         var routeText = route switch
@@ -24,7 +24,7 @@ public static class ResultKeys
             _ => "auto",
         };
         return string.Create(CultureInfo.InvariantCulture,
-            $"route={routeText};target={AnnualTarget.MeasureName(target.Measure)}:{target.AnnualPf:R};horizon={(horizonYears is { } h ? h.ToString("R", CultureInfo.InvariantCulture) : "model")};steps-per-year=1;schedule=none")
+            $"route={routeText};target={AnnualTarget.MeasureName(target.Measure)}:{target.AnnualPf:R};horizon={(horizonYears is { } h ? h.ToString("R", CultureInfo.InvariantCulture) : "model")};steps-per-year=1;schedule=none;after-detection={DetectionBranch.Key(afterDetection)}")
             + (route == UpdatingRoute.FirstOrder ? "" : ";sampling=" + (sampling ?? SamplingSettings.Default));
     }
 

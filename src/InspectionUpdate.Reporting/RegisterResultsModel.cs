@@ -57,4 +57,10 @@ public sealed record RegisterResultsReportData
 
     /// <summary>Document control (title, owner, author, checker, approver, revision, target source).</summary>
     public ReportDocumentControl DocumentControl { get; init; } = new();
+
+    /// <summary>The stored results as rows of the risk section: consequence class, its target, cost of failure, marks.</summary>
+    public IReadOnlyList<PortfolioRow> RiskRows { get; init; } = [];
+
+    /// <summary>The owner's consequence classes, one line each.</summary>
+    public IReadOnlyList<string> ConsequenceClasses { get; init; } = [];
 }

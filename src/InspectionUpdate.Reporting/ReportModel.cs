@@ -86,7 +86,14 @@ public sealed record ReportPlannedInspection(double TimeYears, DateOnly Date, st
 /// <param name="Status">One-line status, e.g. "next inspection due 2029-04-17".</param>
 /// <param name="Notes">Assumptions of the plan (e.g. "each planned inspection finds nothing").</param>
 public sealed record ReportPlan(double TargetAnnualPf, string TargetSource, IReadOnlyList<ReportPlannedInspection> Schedule,
-    string Status, IReadOnlyList<string> Notes);
+    string Status, IReadOnlyList<string> Notes)
+{
+    /// <summary>The branch assumed after a detection, as the option spells it: "monitor" or "repair".</summary>
+    public string AfterDetection { get; init; } = "monitor";
+
+    /// <summary>The sentence stating the branch when a detection is open since the last repair, else null.</summary>
+    public string? BranchNote { get; init; }
+}
 
 /// <summary>
 /// Document control of a report: what an owner signs. Null fields are not set (the page says "not set"); the register
@@ -217,6 +224,9 @@ public sealed record PortfolioRow(string ComponentId, string ComponentName, stri
 
     /// <summary>Cost of failure in the owner's currency, or null.</summary>
     public double? CostOfFailure { get; init; }
+
+    /// <summary>The branch the plan assumed after a detection: "monitor" or "repair" (the run's option).</summary>
+    public string AfterDetection { get; init; } = "monitor";
 
     /// <summary>The target this component was planned against (its class's, else the run's), or null.</summary>
     public double? TargetAnnualPf { get; init; }

@@ -114,6 +114,8 @@ public static class ComponentPage
                 .Append(E(Computation(plan.Next.Computation))).Append(")</span></dd>")
                 .Append("<dt>Remaining life</dt><dd>").Append(E(plan.RemainingLife.Message)).Append(" <span class=\"muted\">(")
                 .Append(E(Computation(plan.RemainingLife.Computation))).Append(")</span></dd>");
+            b.Append("<dt>After a detection</dt><dd id=\"after-detection\">").Append(E(plan.AfterDetection == AfterDetection.Repair ? "repair on detection" : "monitor"))
+                .Append(plan.BranchStatement is { } branch ? " – " + E(branch) : " <span class=\"muted\">(no detection since the last repair: changes no number)</span>").Append("</dd>");
         }
         else
         {

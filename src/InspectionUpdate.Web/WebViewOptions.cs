@@ -23,6 +23,9 @@ public sealed record WebViewOptions(string RegisterPath)
     /// <summary>Accuracy and seed of the sampling route.</summary>
     public SamplingSettings Sampling { get; init; } = SamplingSettings.Default;
 
+    /// <summary>The branch plans assume after a detection not yet repaired (default monitor).</summary>
+    public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
+
     /// <summary>Horizon in years since entry into service; null: the model's service life, else 40.</summary>
     public double? HorizonYears { get; init; }
 
@@ -34,7 +37,7 @@ public sealed record WebViewOptions(string RegisterPath)
 
     /// <summary>The run options as of <paramref name="today"/> (when no evidence date is fixed).</summary>
     public PortfolioOptions Run(DateOnly today) =>
-        new(AsOf ?? today, AnnualTarget.FromAnnualPf(TargetAnnualPf, AnnualMeasure.IntervalPf), Route, HorizonYears) { Sampling = Sampling, Parallelism = Parallelism };
+        new(AsOf ?? today, AnnualTarget.FromAnnualPf(TargetAnnualPf, AnnualMeasure.IntervalPf), Route, HorizonYears) { Sampling = Sampling, Parallelism = Parallelism, AfterDetection = AfterDetection };
 
     /// <summary>Reads the options from configuration (WebView:Register, WebView:AsOf, WebView:TargetAnnualPf, WebView:Route); bad values name the key.</summary>
     public static WebViewOptions From(IConfiguration configuration)
@@ -50,6 +53,14 @@ public sealed record WebViewOptions(string RegisterPath)
             {
                 AsOf = DateOnly.TryParseExact(asOf, "yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture, System.Globalization.DateTimeStyles.None, out var d)
                     ? d : throw new InvalidOperationException($"WebView:AsOf '{asOf}' is not an ISO 8601 date (yyyy-MM-dd)."),
+            };
+        }
+
+        if (section["AfterDetection"] is { } branch)
+        {
+            options = options with
+            {
+                AfterDetection = DetectionBranch.TryParse(branch, out var b) ? b : throw new InvalidOperationException($"WebView:AfterDetection '{branch}' must be monitor or repair."),
             };
         }
 

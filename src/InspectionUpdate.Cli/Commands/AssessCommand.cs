@@ -111,7 +111,7 @@ public sealed class PlanCommand(CliHost host) : CliCommand<PlanSettings>(host)
         var method = settings.Method is null ? context.DefaultPlanMethod
             : context.Methods.FirstOrDefault(m => m.Name == settings.Method) ?? throw CliException.BadInput("--method", settings.Method, "is not a known method.");
         if (method is null && !settings.NoSchedule) throw new CliException("No inspection method is known for the schedule: give --method, add a method, or use --no-schedule.");
-        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route)) with { Sampling = settings.Sampling() };
+        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route)) with { Sampling = settings.Sampling(), AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection) };
         var plan = ProgressRunner.Run(Host, settings.Json, $"Planning {context.Id}", p => ComponentAssessment.Plan(request, target, settings.NoSchedule ? null : method, p));
         var doc = ComponentStudy.PlanJson(context, request, plan);
         if (settings.Json)
@@ -122,6 +122,7 @@ public sealed class PlanCommand(CliHost host) : CliCommand<PlanSettings>(host)
         {
             Line($"{context.Id} — {context.Name}; target {target.Describe()}");
             Line($"Evidence to {asOf:yyyy-MM-dd}" + (context.KnownOn is { } known ? $"; register as known on {known:yyyy-MM-dd}." : "."));
+            if (plan.BranchStatement is { } branch) Line(branch);
             Line(plan.Next.Message);
             Line(plan.RemainingLife.Message);
             if (plan.Schedule is { } s)

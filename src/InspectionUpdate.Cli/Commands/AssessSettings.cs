@@ -118,6 +118,12 @@ public sealed class PlanSettings : AssessSettings
     [Description("Inspection method assumed for the planned inspections (default: the last one used).")]
     public string? Method { get; init; }
 
+    /// <summary>The branch plans assume after a detection.</summary>
+    [CommandOption("--after-detection <BRANCH>")]
+    [Description(AfterDetectionOption.Help)]
+    [DefaultValue("monitor")]
+    public string AfterDetection { get; init; } = "monitor";
+
     /// <summary>Skip the life-cycle schedule.</summary>
     [CommandOption("--no-schedule")]
     [Description("Only the next inspection and the remaining life, no life-cycle schedule (faster).")]
@@ -165,4 +171,15 @@ public abstract class SampledSettings : RegisterSettings
     /// <summary>The first problem with the sampling options as a validation error, or null.</summary>
     protected ValidationResult? SamplingProblem() =>
         Sampling().Problems() is { Count: > 0 } problems ? ValidationResult.Error(string.Join(" ", problems)) : null;
+}
+
+/// <summary>The <c>--after-detection</c> option of plan, report, register assess, register report and serve.</summary>
+public static class AfterDetectionOption
+{
+    /// <summary>Help text.</summary>
+    public const string Help = "Branch plans assume after a detection not yet repaired: monitor (the known defect stays in service and is monitored; default) or repair (repaired on detection: the component restarts from its post-repair prior). Changes numbers: part of the stored-results key.";
+
+    /// <summary>Parses the option's value; bad input names the option and the value.</summary>
+    public static Planning.AfterDetection Parse(string? value) =>
+        Planning.DetectionBranch.TryParse(value, out var branch) ? branch : throw Infrastructure.CliException.BadInput("--after-detection", value, "must be monitor or repair.");
 }

@@ -152,6 +152,12 @@ public sealed record RegisterChecked(string Register, int SchemaVersion, bool He
 /// <summary>Settings of <c>register assess</c>.</summary>
 public sealed class RegisterAssessSettings : SampledSettings
 {
+    /// <summary>The branch plans assume after a detection.</summary>
+    [CommandOption("--after-detection <BRANCH>")]
+    [Description(AfterDetectionOption.Help)]
+    [DefaultValue("monitor")]
+    public string AfterDetection { get; init; } = "monitor";
+
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
     [Description(AssessSettings.AsOfHelp)]
@@ -207,6 +213,7 @@ public sealed class RegisterAssessCommand(CliHost host) : CliCommand<RegisterAss
             Shard = shard,
             Parallelism = settings.Parallel,
             Sampling = settings.Sampling(),
+            AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection),
         };
         var registerPath = settings.RegisterPath(Host);
         // A shard only reads the register (its results go to their own file): a read-only register can be sharded.
@@ -364,8 +371,14 @@ public sealed class RegisterInventCommand(CliHost host) : CliCommand<RegisterInv
 public sealed record RegisterInvented(string Register, int Components, int Seed, DateOnly Recorded, string Note);
 
 /// <summary>Settings of <c>register report</c>.</summary>
-public sealed class RegisterReportSettings : SampledSettings
+public sealed class RegisterReportSettings : ReportRunSettings
 {
+    /// <summary>The branch plans assume after a detection.</summary>
+    [CommandOption("--after-detection <BRANCH>")]
+    [Description(AfterDetectionOption.Help)]
+    [DefaultValue("monitor")]
+    public string AfterDetection { get; init; } = "monitor";
+
     /// <summary>Evidence date.</summary>
     [CommandOption("--as-of <DATE>")]
     [Description("Evidence date of the stored results to report (as given to register assess). " + AssessSettings.AsOfHelp)]
@@ -428,7 +441,10 @@ public sealed class RegisterReportCommand(CliHost host) : CliCommand<RegisterRep
             PagesFor = codes,
             PagesForSite = settings.Site,
             PagesAboveAnnualPf = settings.Above,
+            DocumentControl = settings.DocumentControl(),
+            Calendar = settings.Campaign(),
             Sampling = settings.Sampling(),
+            AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection),
         };
         var registerPath = settings.RegisterPath(Host);
         using var store = RegisterAccess.Open(Host, registerPath, RegisterOpenMode.OpenExistingToRead);

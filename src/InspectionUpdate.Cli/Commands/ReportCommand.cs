@@ -11,8 +11,14 @@ using Spectre.Console.Cli;
 namespace InspectionUpdate.Cli.Commands;
 
 /// <summary>Settings of <c>report</c>.</summary>
-public sealed class ReportSettings : SampledSettings
+public sealed class ReportSettings : ReportRunSettings
 {
+    /// <summary>The branch plans assume after a detection.</summary>
+    [CommandOption("--after-detection <BRANCH>")]
+    [Description(AfterDetectionOption.Help)]
+    [DefaultValue("monitor")]
+    public string AfterDetection { get; init; } = "monitor";
+
     /// <summary>Only this component.</summary>
     [CommandArgument(0, "[COMPONENT]")]
     [Description("Only this component (default: every component).")]
@@ -50,6 +56,25 @@ public sealed class ReportSettings : SampledSettings
     [Description("Route: auto (sample set with first-order cross-check), first-order or simulation.")]
     [DefaultValue("auto")]
     public string Route { get; init; } = "auto";
+
+}
+
+/// <summary>
+/// The options of a report run (report, register report): the inspection calendar's campaign window, and the document
+/// control, each given field of which overrides the register's stored document control for this run only (the stored
+/// record is not changed).
+/// </summary>
+public abstract class ReportRunSettings : SampledSettings
+{
+    /// <summary>Campaign window of the inspection calendar.</summary>
+    [CommandOption("--campaign-window <WINDOW>")]
+    [Description("How calendar.csv and calendar.ics group each site's due inspections in time: month (default), quarter, or a number of days (1 to 3660: windows counted from the day after the evidence date, e.g. 90).")]
+    [DefaultValue("month")]
+    public string CampaignWindow { get; init; } = "month";
+
+    /// <summary>The campaign window of the options; bad input names the option and the value.</summary>
+    internal Reporting.Export.CampaignWindow Campaign() => Reporting.Export.CampaignWindow.TryParse(CampaignWindow)
+        ?? throw CliException.BadInput("--campaign-window", CampaignWindow, "must be month, quarter or a whole number of days from 1 to 3660.");
 
     /// <summary>Report title for this run.</summary>
     [CommandOption("--title <TEXT>")]
@@ -108,7 +133,9 @@ public sealed class ReportCommand(CliHost host) : CliCommand<ReportSettings>(hos
         var options = new ReportRunOptions(asOf, AnnualTarget.FromAnnualPf(settings.TargetAnnualPf, AnnualMeasure.IntervalPf), settings.Schedule, Study.Route(settings.Route), null)
         {
             Sampling = settings.Sampling(),
+            AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection),
             DocumentControl = settings.DocumentControl(),
+            Calendar = settings.Campaign(),
         };
         var knownOn = settings.KnownOn is null ? Host.Today() : RegisterAccess.Date("--known-on", settings.KnownOn);
         var result = Produce(Host, registerPath, settings.Component, Host.Resolve(settings.Out), options, settings.Json, Path.GetFileNameWithoutExtension(registerPath), knownOn);

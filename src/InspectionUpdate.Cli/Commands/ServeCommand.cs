@@ -12,6 +12,12 @@ namespace InspectionUpdate.Cli.Commands;
 /// <summary>Settings of <c>serve</c>.</summary>
 public sealed class ServeSettings : SampledSettings
 {
+    /// <summary>The branch plans assume after a detection.</summary>
+    [CommandOption("--after-detection <BRANCH>")]
+    [Description(AfterDetectionOption.Help)]
+    [DefaultValue("monitor")]
+    public string AfterDetection { get; init; } = "monitor";
+
     /// <summary>Address to listen on.</summary>
     [CommandOption("--listen <ADDRESS>")]
     [Description("IP address to listen on (default 127.0.0.1: this machine only). Any other address lets others on the network read and write the register, and is printed as a warning.")]
@@ -80,6 +86,7 @@ public sealed class ServeCommand(CliHost host) : CliCommand<ServeSettings>(host)
             TargetAnnualPf = settings.TargetAnnualPf,
             Route = Study.Route(settings.Route),
             Sampling = settings.Sampling(),
+            AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection),
             Schedule = settings.Schedule,
         };
         if (exposed)

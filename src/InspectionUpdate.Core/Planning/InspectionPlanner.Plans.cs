@@ -107,7 +107,7 @@ public sealed partial class InspectionPlanner
     {
         var start = request.EffectiveStartYears;
         var end = request.EndOfServiceYears;
-        var evidence = new List<InspectionOutcome>(request.Evidence);
+        var evidence = new List<InspectionOutcome>(DetectionBranch.PlanningEvidence(request));
         var curves = new List<AnnualMeasureCurve> { NewCurve(request, evidence, log) };
         foreach (var (t, k) in times.Select((t, k) => (t, k)))
         {

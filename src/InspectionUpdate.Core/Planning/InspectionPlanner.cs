@@ -46,7 +46,7 @@ public sealed partial class InspectionPlanner
         ArgumentNullException.ThrowIfNull(request);
         request.ThrowIfInvalid(nameof(request));
         var log = new EstimateLog();
-        var curve = NewCurve(request, request.Evidence, log);
+        var curve = NewCurve(request, DetectionBranch.PlanningEvidence(request), log);
         var target = request.Target;
         var start = request.EffectiveStartYears;
         var end = request.EndOfServiceYears;
@@ -158,7 +158,7 @@ public sealed partial class InspectionPlanner
         }
 
         var log = new EstimateLog();
-        var curve = NewCurve(request, request.Evidence, log);
+        var curve = NewCurve(request, DetectionBranch.PlanningEvidence(request), log);
         var target = request.Target;
         var annualText = Invariant($"annual {AnnualTarget.MeasureName(target.Measure)} ≤ {target.AnnualPf:0.0##E+000}");
         var annual = Limit(request, annualText, CrossingSearch.Forward(curve.Value, target.AnnualPf, start, horizon, request.Options), start);
@@ -198,7 +198,7 @@ public sealed partial class InspectionPlanner
         ArgumentNullException.ThrowIfNull(method);
         request.ThrowIfInvalid(nameof(request));
         var log = new EstimateLog();
-        return BuildSchedule(request, method, request.Evidence, request.EffectiveStartYears, request.Options.RepairBranchDepth, log, "");
+        return BuildSchedule(request, method, DetectionBranch.PlanningEvidence(request), request.EffectiveStartYears, request.Options.RepairBranchDepth, log, "");
     }
 
     /// <summary>Schedules with each of <paramref name="methods"/>, side by side: the number of inspections and the first three dates.</summary>
@@ -324,7 +324,7 @@ public sealed partial class InspectionPlanner
                     var repaired = new List<InspectionOutcome>(evidence)
                     {
                         new IndicationNotSized(tk, Invariant($"{referencePrefix}planned-{number}-indication"), method),
-                        new Repair(tk, Invariant($"{referencePrefix}planned-{number}-repair"), new Dictionary<string, RandomVariable>()),
+                        new Repair(tk, Invariant($"{referencePrefix}planned-{number}-repair"), DetectionBranch.PlannedRepairInputs(request)),
                     };
                     afterRepair = BuildSchedule(request, method, repaired, tk, depth - 1, log, Invariant($"{referencePrefix}after-repair-{number}/"));
                 }
@@ -466,6 +466,7 @@ public sealed partial class InspectionPlanner
             Invariant($"Due dates are the last time still under the target: a scan every {options.ScanStepYears:0.###} years brackets the first crossing and regula falsi narrows it to {options.ToleranceYears:0.####} years ({options.ToleranceYears * ServiceTime.DaysPerYear:0.0#} days); a crossing that starts and ends between two scan points would be missed."),
             Invariant($"Evidence used: {request.Evidence.Count} finding(s) and repair(s) up to {request.LatestEvidenceYears:0.###} years; service time is counted from {Iso(request.InServiceDate)} in years of 365.2425 days."),
         };
+        if (DetectionBranch.Statement(request, DateAt(request, request.EffectiveStartYears)) is { } branch) list.Add(branch);
         if (method is not null)
         {
             list.Add(Invariant($"Each planned inspection with {method.Name} is assumed to find nothing (a 'no indication' finding is appended to the evidence): the usual planning assumption."));

@@ -101,6 +101,22 @@ public sealed record PlanningRequest
     /// <summary>Numerical settings.</summary>
     public PlanningOptions Options { get; init; } = PlanningOptions.Default;
 
+    /// <summary>
+    /// The branch assumed after a detection not yet followed by a repair (default <see cref="Planning.AfterDetection.Monitor"/>,
+    /// the known defect left in service). <see cref="Planning.AfterDetection.Repair"/> plans the repaired component
+    /// (<see cref="DetectionBranch.PlanningEvidence"/>).
+    /// </summary>
+    public AfterDetection AfterDetection { get; init; } = AfterDetection.Monitor;
+
+    /// <summary>
+    /// Post-repair prior of the repairs the repair branch assumes: distributions of inputs the model renews on repair
+    /// (empty: the renewed inputs restart from their original prior). Used only on <see cref="Planning.AfterDetection.Repair"/>.
+    /// </summary>
+    public IReadOnlyDictionary<string, Probability.RandomVariable> AssumedRepairInputs { get; init; } = new Dictionary<string, Probability.RandomVariable>();
+
+    /// <summary>Where <see cref="AssumedRepairInputs"/> come from, in words (e.g. "of repair 3 rev 1"), for the plan's statement; or null.</summary>
+    public string? AssumedRepairSource { get; init; }
+
     /// <summary>The start actually used: <see cref="StartTimeYears"/> or the latest evidence time (0 without evidence).</summary>
     public double EffectiveStartYears => StartTimeYears ?? LatestEvidenceYears;
 
@@ -154,6 +170,19 @@ public sealed record PlanningRequest
         if (problems.Count == 0 && EffectiveStartYears >= EndOfServiceYears)
         {
             problems.Add(Invariant($"Planning starts at {EffectiveStartYears} years, at or after {nameof(EndOfServiceYears)} = {EndOfServiceYears}: nothing to plan."));
+        }
+
+        if (!Enum.IsDefined(AfterDetection)) problems.Add(Invariant($"{nameof(AfterDetection)} = {(int)AfterDetection} is not a known branch (monitor or repair)."));
+        if (AssumedRepairInputs is null)
+        {
+            problems.Add($"{nameof(AssumedRepairInputs)} is missing (use an empty dictionary).");
+        }
+        else if (Model is not null)
+        {
+            foreach (var key in AssumedRepairInputs.Keys.Where(k => !Model.RenewedOnRepair.Contains(k)))
+            {
+                problems.Add(Invariant($"{nameof(AssumedRepairInputs)} names '{key}', which model '{Model.Name}' does not renew on repair."));
+            }
         }
 
         if (Options is null) problems.Add($"{nameof(Options)} is missing.");

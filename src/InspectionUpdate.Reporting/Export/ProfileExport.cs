@@ -56,14 +56,14 @@ public static class ProfileExport
     {
         ArgumentNullException.ThrowIfNull(writer);
         ArgumentNullException.ThrowIfNull(plan);
-        writer.Write("component_id,sequence,date,time_years,method,basis,target_annual_pf\n");
+        writer.Write("component_id,sequence,date,time_years,method,basis,target_annual_pf,after_detection\n");
         for (var i = 0; i < plan.Schedule.Count; i++)
         {
             var s = plan.Schedule[i];
             string[] cells =
             [
                 componentId, (i + 1).ToString(CultureInfo.InvariantCulture), s.Date.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture),
-                R(s.TimeYears), s.Method, s.Basis, R(plan.TargetAnnualPf),
+                R(s.TimeYears), s.Method, s.Basis, R(plan.TargetAnnualPf), plan.AfterDetection,
             ];
             writer.Write(string.Join(',', cells.Select(Quote)));
             writer.Write('\n');
@@ -73,7 +73,7 @@ public static class ProfileExport
     /// <summary>Header of the register CSV of a report run, in column order.</summary>
     public static IReadOnlyList<string> RegisterCsvColumns { get; } =
     [
-        "component_id", "component_name", "site", "current_annual_pf", "current_year_ending", "route", "years_to_target", "next_due", "all_converged", "flags", "status",
+        "component_id", "component_name", "site", "current_annual_pf", "current_year_ending", "route", "years_to_target", "next_due", "all_converged", "flags", "status", "after_detection",
     ];
 
     /// <summary>Writes the register rows of a report run as CSV (one row per component, marks as <c>;</c>-separated keys).</summary>
@@ -90,7 +90,7 @@ public static class ProfileExport
                 r.ComponentId, r.ComponentName, r.Site, r.CurrentAnnualPf is { } p ? R(p) : string.Empty,
                 r.CurrentYearEnding?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? string.Empty, r.Route,
                 r.YearsToTarget is { } y ? R(y) : string.Empty, r.NextDue?.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture) ?? string.Empty,
-                r.AllConverged ? "true" : "false", ReportMarks.CsvCell(r.FlagSet), r.Status,
+                r.AllConverged ? "true" : "false", ReportMarks.CsvCell(r.FlagSet), r.Status, r.AfterDetection,
             ];
             writer.Write(string.Join(',', cells.Select(Quote)));
             writer.Write('\n');
@@ -108,7 +108,11 @@ public static class ProfileExport
             data.Prior is null ? null : ToExport(data.Prior),
             data.Updated is null ? null : ToExport(data.Updated),
             data.Plan is null ? null : new PlanExport(data.Plan.TargetAnnualPf, data.Plan.TargetSource, data.Plan.Status,
-                data.Plan.Schedule.Select(s => new PlannedExport(s.Date, s.TimeYears, s.Method, s.Basis)).ToArray(), data.Plan.Notes),
+                data.Plan.Schedule.Select(s => new PlannedExport(s.Date, s.TimeYears, s.Method, s.Basis)).ToArray(), data.Plan.Notes)
+            {
+                AfterDetection = data.Plan.AfterDetection,
+                AfterDetectionNote = data.Plan.BranchNote,
+            },
             data.NotAvailable, Cautions.Line)
         {
             Flags = ReportMarks.Keys(data.Flags),
@@ -150,7 +154,12 @@ public static class ProfileExport
         public ReportDocumentControl? DocumentControl { get; init; }
     }
 
-    private sealed record PlanExport(double TargetAnnualPf, string TargetSource, string Status, IReadOnlyList<PlannedExport> Schedule, IReadOnlyList<string> Notes);
+    private sealed record PlanExport(double TargetAnnualPf, string TargetSource, string Status, IReadOnlyList<PlannedExport> Schedule, IReadOnlyList<string> Notes)
+    {
+        public string AfterDetection { get; init; } = "monitor";
+
+        public string? AfterDetectionNote { get; init; }
+    }
 
     private sealed record PlannedExport(DateOnly Date, double TimeYears, string Method, string Basis);
 }

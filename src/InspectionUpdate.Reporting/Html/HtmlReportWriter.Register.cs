@@ -72,6 +72,10 @@ public static partial class HtmlReportWriter
             ranked.Select(r => FlagRowClass(r.Flags)).ToArray());
         EndSection(h);
 
+        Section(h, "risk", "Risk: probability and consequence");
+        RiskSection(h, data.RiskRows, data.ConsequenceClasses, data.Top);
+        EndSection(h);
+
         var due = rows.Where(r => r.NextDue is not null).OrderBy(r => r.NextDue).ThenBy(r => r.ComponentId, StringComparer.Ordinal).Take(data.Top).ToArray();
         Section(h, "due-dates", "Next due dates (soonest " + Count(due.Length) + " of " + Count(rows.Count(r => r.NextDue is not null)) + " planned)");
         SortableTable(h, ["next due", "component", "site", "annual Pf now", "years to target", "status", "marks"],

@@ -149,6 +149,12 @@ public static partial class HtmlReportWriter
             h.Append("<p><strong>").Append(T(data.Plan.Status)).Append("</strong></p>\n<p>Target annual failure probability ")
                 .Append(T(NumberText.Format(data.Plan.TargetAnnualPf))).Append(" per year (").Append(T(data.Plan.TargetSource)).Append(").</p>\n");
             h.Append("<p class=\"small\">").Append(T(PlanAnnualNote(data.InServiceDate, data.Provenance.AssessedAsOf, point))).Append("</p>\n");
+            h.Append("<p class=\"small\" id=\"after-detection\">After a detection: <strong>")
+                .Append(T(data.Plan.AfterDetection == "repair" ? "repair on detection" : "monitor"))
+                .Append("</strong> (").Append(T(data.Plan.BranchNote is null
+                    ? "no detection since the last repair: the choice changes no number of this plan"
+                    : data.Plan.AfterDetection == "repair" ? "the defect is assumed repaired and the component restarts from its post-repair prior; see the first note"
+                    : "the known defect stays in service and is monitored; see the first note")).Append(").</p>\n");
             if (data.Plan.Schedule.Count > 0)
             {
                 Table(h, ["#", "date", "time (years)", "method", "basis"],
@@ -219,7 +225,7 @@ public static partial class HtmlReportWriter
         EndSection(h);
 
         Section(h, "risk", "Risk: probability and consequence");
-        RiskSection(h, data);
+        RiskSection(h, data.Rows, data.ConsequenceClasses);
         EndSection(h);
 
         Section(h, "due-dates", "Next due dates");
@@ -265,13 +271,13 @@ public static partial class HtmlReportWriter
     /// The risk section: the owner's classes, the probability–consequence chart, and the components ranked by their
     /// annual Pf over their own class's target (then by expected annual cost of failure where a cost is given).
     /// </summary>
-    private static void RiskSection(StringBuilder h, PortfolioReportData data)
+    private static void RiskSection(StringBuilder h, IReadOnlyList<PortfolioRow> rows, IReadOnlyList<string> consequenceClasses, int top = int.MaxValue)
     {
-        var classified = data.Rows.Where(r => r.ConsequenceClass is not null).ToArray();
-        if (data.ConsequenceClasses.Count > 0)
+        var classified = rows.Where(r => r.ConsequenceClass is not null).ToArray();
+        if (consequenceClasses.Count > 0)
         {
             h.Append("<p>The owner's consequence classes (1 least to 5 most severe):</p>");
-            List(h, data.ConsequenceClasses);
+            List(h, consequenceClasses);
         }
 
         if (classified.Length == 0)
@@ -287,7 +293,12 @@ public static partial class HtmlReportWriter
         }
 
         var ranked = classified.OrderByDescending(r => r.RatioToTarget ?? -1).ThenByDescending(r => r.ExpectedAnnualCost ?? -1)
-            .ThenBy(r => r.ComponentId, StringComparer.Ordinal).ToArray();
+            .ThenBy(r => r.ComponentId, StringComparer.Ordinal).Take(top).ToArray();
+        if (ranked.Length < classified.Length)
+        {
+            h.Append("<p class=\"small\">The ").Append(Count(ranked.Length)).Append(" highest of ").Append(Count(classified.Length)).Append(" classified components; the exports have them all.</p>\n");
+        }
+
         SortableTable(h, ["risk rank", "component", "class", "annual Pf now", "target of its class", "ratio to target", "cost of failure", "expected cost per year", "marks"],
             ranked.Select((r, i) => new[]
             {

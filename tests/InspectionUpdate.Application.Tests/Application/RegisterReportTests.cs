@@ -27,8 +27,8 @@ public sealed class RegisterReportTests
             Assert.Empty(summary.Stale);
             Assert.Empty(summary.Missing);
             Assert.Empty(summary.Pages);
-            // No component page: the page, the CSV of every row and the calendar of the stored next due dates.
-            Assert.Equal(new[] { InspectionUpdate.Reporting.Export.InspectionCalendar.CsvName, InspectionUpdate.Reporting.Export.InspectionCalendar.IcsName, "index.html", RegisterReport.CsvName }, Directory.GetFiles(folder).Select(f => Path.GetFileName(f)).Order(StringComparer.Ordinal).ToArray());
+            // No component page: the page, the CSV of every row, its JSON export and the calendar of the stored next due dates.
+            Assert.Equal(new[] { InspectionUpdate.Reporting.Export.InspectionCalendar.CsvName, InspectionUpdate.Reporting.Export.InspectionCalendar.IcsName, "index.html", RegisterReport.CsvName, RegisterReport.JsonName }, Directory.GetFiles(folder).Select(f => Path.GetFileName(f)).Order(StringComparer.Ordinal).ToArray());
 
             // The CSV: every stored result, most urgent first, numbers as stored (round-trip format).
             var lines = File.ReadAllLines(summary.Csv);

@@ -53,6 +53,10 @@ public sealed class ComponentPageTests
         Assert.Equal(InspectionUpdate.Web.Html.D(direct.Stored.NextDue), PageHelpers.ById(html, "next-due"));
         Assert.Contains("first order", PageHelpers.ById(html, "annual-pf"), StringComparison.Ordinal);
         Assert.Contains("data:image/png;base64,", html, StringComparison.Ordinal);
+        // HR1-J112 has a sized indication (sample-data/findings.csv, 2022-08-15) and no repair since: the branch the plan
+        // assumes (monitor by default) is stated with the detection.
+        Assert.StartsWith("monitor", PageHelpers.ById(html, "after-detection"), StringComparison.Ordinal);
+        Assert.Contains("Branch assumed after the last detection (a defect sized at 1.1 mm", PageHelpers.ById(html, "after-detection"), StringComparison.Ordinal);
         // The run stored its result: the register page shows it without computing.
         var list = await factory.Client().GetStringAsync("/");
         var row = Regex.Match(list, "<tr data-code=\"HR1-J112\">(.*?)</tr>", RegexOptions.Singleline).Groups[1].Value;
