@@ -84,6 +84,7 @@ public static class PortfolioRun
         var inShard = index.Where(c => options.Shard is not { } s || s.Contains(c.Code)).ToArray();
         var active = inShard.Where(c => c.InstallDate <= options.AsOf).ToArray();
         var stored = options.Force ? new Dictionary<long, (string Key, ResultStatus Status)>() : store.ResultKeys(options.AsOf, optionsKey);
+        var consequences = OwnerRecords.Consequences(store, snapshot.Known);
 
         int assessed = 0, notConverged = 0, reused = 0, failed = 0, done = 0;
         var failures = new ConcurrentBag<PortfolioFailure>();
@@ -134,7 +135,7 @@ public static class PortfolioRun
                 new ParallelOptions { MaxDegreeOfParallelism = options.Parallelism ?? Environment.ProcessorCount, CancellationToken = stop.Token },
                 entry =>
                 {
-                    var result = One(snapshot, entry.Id, entry.Code, options, optionsKey, tool, stored);
+                    var result = One(snapshot, entry.Id, entry.Code, options, optionsKey, tool, stored, consequences);
                     if (result is null)
                     {
                         Interlocked.Increment(ref reused);
@@ -208,7 +209,7 @@ public static class PortfolioRun
 
     /// <summary>One component: null when its stored result's key still matches; else its new result (failed with the reason on error).</summary>
     private static StoredResult? One(RegisterSnapshot snapshot, long id, string code, PortfolioOptions options, string optionsKey, string tool,
-        IReadOnlyDictionary<long, (string Key, ResultStatus Status)> stored)
+        IReadOnlyDictionary<long, (string Key, ResultStatus Status)> stored, IReadOnlyDictionary<string, ComponentConsequence> consequences)
     {
         var store = snapshot.Store;
         var component = store.GetComponent(id, snapshot.Known)!;
@@ -219,7 +220,7 @@ public static class PortfolioRun
         var row = new StoredResult(id, code, site, options.AsOf, optionsKey, component.Model.Revision, fingerprint, tool, key, ResultStatus.Failed, null, DateTimeOffset.UtcNow);
         try
         {
-            var context = ComponentContexts.FromRegister(snapshot, component, fingerprint);
+            var context = ComponentContexts.FromRegister(snapshot, component, fingerprint) with { Consequence = consequences.GetValueOrDefault(code) };
             return Compute(context, options, row);
         }
         catch (Exception e) when (e is not OperationCanceledException)
@@ -242,8 +243,15 @@ public static class PortfolioRun
             PosteriorSummaries = false,
         };
         var outcome = ComponentAssessment.Assess(request, _ => { });
-        PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, options.Target, null, _ => { }) : null;
+        PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, PlanTarget(context, options.Target), null, _ => { }) : null;
         return ToStored(context, request, outcome, plan, row);
+    }
+
+    /// <summary>The target a component is planned against: its consequence class's where the class names one, else the run's.</summary>
+    public static AnnualTarget PlanTarget(ComponentContext context, AnnualTarget runTarget)
+    {
+        ArgumentNullException.ThrowIfNull(context);
+        return context.Consequence?.Target ?? runTarget;
     }
 
     /// <summary>The stored result of an assessment and plan: the numbers a register overview or report needs.</summary>

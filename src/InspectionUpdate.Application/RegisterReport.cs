@@ -114,16 +114,17 @@ public static class RegisterReport
 
         Directory.CreateDirectory(folder);
         var pages = WritePages(snapshot, folder, options, results, document, target);
+        // Consequence and risk: each component's class (as known on the evidence date), its class's target, else the run's
+        // (the target its stored plan was made against).
+        var consequences = OwnerRecords.Consequences(store, snapshot.Known);
         var rows = results.Select(r => new RegisterResultRow(r.ComponentCode, r.SiteCode, StatusText(r.Status), r.AnnualPf, r.AnnualPfYearEnding, r.Beta, r.Route,
             r.NextDue, r.YearsToTarget, r.TargetReached, r.Error)
         {
             ReportFile = pages.TryGetValue(r.ComponentCode, out var f) ? f : null,
             Flags = r.Status == ResultStatus.Failed ? ReportMark.None
-                : ReportMarks.Of(r.Status == ResultStatus.Assessed, r.AnnualPf, r.NextDue, options.Target.AnnualPf, options.AsOf),
+                : ReportMarks.Of(r.Status == ResultStatus.Assessed, r.AnnualPf, r.NextDue, (consequences.GetValueOrDefault(r.ComponentCode)?.Target ?? options.Target).AnnualPf, options.AsOf),
         }).ToArray();
 
-        // Consequence and risk: each component's class (as known on the evidence date), its class's target, else the run's.
-        var consequences = OwnerRecords.Consequences(store, snapshot.Known);
         var risk = rows.Where(r => r.Status != "failed").Select(r => RiskRow(r, consequences.GetValueOrDefault(r.ComponentId), options.Target)).ToArray();
         var csv = Path.Combine(folder, CsvName);
         WriteCsv(csv, rows, staleCodes.ToHashSet(StringComparer.Ordinal), DetectionBranch.Key(options.AfterDetection), risk.ToDictionary(r => r.ComponentId, StringComparer.Ordinal));

@@ -115,6 +115,9 @@ public sealed partial class RegisterStore
         ("repair_revision", "SELECT rr.repair_revision_id, rr.repair_id, rr.revision, rr.repair_date, rr.post_repair_prior_json, rr.withdrawn, rr.recorded_utc FROM repair_revision rr JOIN repair r ON r.repair_id = rr.repair_id WHERE r.component_id = $id AND rr.recorded_utc <= $asOf ORDER BY rr.repair_revision_id"),
         ("inspection_method", $"SELECT {MethodColumns} FROM inspection_method WHERE method_id IN (SELECT fr.method_id FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE f.component_id = $id AND fr.recorded_utc <= $asOf) ORDER BY method_id"),
         ("inspection_method_revision", $"SELECT method_id, revision, {MethodParameterColumns} FROM inspection_method_revision WHERE recorded_utc <= $asOf AND method_id IN (SELECT fr.method_id FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE f.component_id = $id AND fr.recorded_utc <= $asOf) ORDER BY method_revision_id"),
+        // The consequence class chooses the plan's target where its class names a preset: a new class or preset is a new key.
+        ("component_consequence", "SELECT component_consequence_id, class, cost_of_failure FROM component_consequence WHERE component_id = $id AND recorded_utc <= $asOf ORDER BY component_consequence_id"),
+        ("consequence_class", "SELECT consequence_class_id, class, target_preset FROM consequence_class WHERE recorded_utc <= $asOf AND class IN (SELECT class FROM component_consequence WHERE component_id = $id AND recorded_utc <= $asOf) ORDER BY consequence_class_id"),
     ], ("$id", componentId), ("$asOf", Sql.Utc(asOf))));
 
     private static string Hash(DbConnection c, DbTransaction t, string header, IReadOnlyList<(string Name, string Sql)> tables, params (string Name, object? Value)[] parameters)

@@ -1,4 +1,5 @@
 using InspectionUpdate.Application;
+using InspectionUpdate.Planning;
 using InspectionUpdate.Register;
 
 namespace InspectionUpdate.Tests.Application;
@@ -47,6 +48,38 @@ public sealed class PortfolioRunTests
         Assert.Equal(ResultKeys.Compute(row.ModelRevision, row.ComponentFingerprint, row.AsOf, options.OptionsKey, ToolInfo.ResultVersion), row.ResultKey);
         Assert.NotNull(row.ProfilesJson);
         Assert.Empty(StoredResults.Check(r.Store).Stale);
+    }
+
+    [Fact]
+    [Reference("JCSS Probabilistic Model Code Part 1 (2001), §7, Table 1 (the preset's annual target); design rule (issue 15): the consequence class chooses the target; issue 13: a result's key covers what its numbers depend on")]
+    public void A_whole_register_run_plans_a_component_against_its_class_preset_and_a_class_change_recomputes_it()
+    {
+        const int Few = 2;
+        using var r = new PortfolioRegister(Few);
+        var code = r.Store.Components().OrderBy(c => c.Code, StringComparer.Ordinal).First().Code;
+        var preset = TargetPresetKeys.Resolve("jcss-normal-large");
+        Assert.NotEqual(PortfolioRegister.Options.Target.AnnualPf, preset.AnnualPf);
+        r.Store.SetConsequenceClass(4, "large consequences (test)", "jcss-normal-large", "test", "class target");
+        r.Store.SetComponentConsequence(code, 4, null, "test", "class target");
+
+        PortfolioRun.Run(r.Store, r.Store, PortfolioRegister.Options);
+
+        // The stored due date is the one planned against the class's preset, not the run's target.
+        var known = Registers.AsKnownOn(PortfolioRegister.AsOf);
+        var component = r.Store.Components().Single(c => c.Code == code);
+        var context = ComponentContexts.FromRegister(r.Store, r.Store.GetComponent(component.Id, known)!, PortfolioRegister.AsOf);
+        var options = PortfolioRegister.Options;
+        var request = ComponentStudy.Request(context, options.AsOf, context.ServiceLifeYears ?? 40, 1, options.Route);
+        var byClass = ComponentAssessment.Plan(request, preset, null, _ => { });
+        var byRun = ComponentAssessment.Plan(request, options.Target, null, _ => { });
+        Assert.NotEqual(byRun.Next.Date, byClass.Next.Date);
+        Assert.Equal(byClass.Next.Date, r.Store.Results().Single(x => x.ComponentCode == code).NextDue);
+
+        // Moving the component to another class changes its key: the rerun recomputes it and reuses the other.
+        r.Store.SetComponentConsequence(code, 2, null, "test", "class changed");
+        var again = PortfolioRun.Run(r.Store, r.Store, PortfolioRegister.Options);
+        Assert.Equal(Few - 1, again.Reused);
+        Assert.Equal(byRun.Next.Date, r.Store.Results().Single(x => x.ComponentCode == code).NextDue);
     }
 
     [Fact]
