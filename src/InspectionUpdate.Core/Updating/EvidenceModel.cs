@@ -259,6 +259,9 @@ public sealed class EvidenceModel
         for (var i = 0; i < map.Length; i++) local[i] = x[map[i]];
     }
 
+    /// <summary>Where each input of the component's model sits in x during renewal period <paramref name="period"/> (a copy).</summary>
+    internal int[] PeriodMap(string componentId, int period) => (int[])LayoutOf(componentId).Epochs[period].Map.Clone();
+
     private Layout LayoutOf(string componentId) =>
         componentId is not null && _layouts.TryGetValue(componentId, out var layout)
             ? layout

@@ -55,6 +55,7 @@ internal sealed class ComponentSampleSet
     private readonly int[] _years;
     private readonly List<double>[] _logSurvival;
     private readonly Random _rng;
+    private readonly int[][] _periodMaps;
     private SamplingMixture _mixture = null!;
     private int[][]? _order;
 
@@ -96,6 +97,7 @@ internal sealed class ComponentSampleSet
             _years[e] = ServiceYears.EndedBy(_periodStart[e], _periodLength[e]);
         }
         _rng = new Random(seed);
+        _periodMaps = Enumerable.Range(0, periods).Select(e => model.PeriodMap(Id, e)).ToArray();
     }
 
     /// <summary>The augmented model and events.</summary>
@@ -260,24 +262,34 @@ internal sealed class ComponentSampleSet
         Draw(pilot, BaseWeights());
         Reweigh();
         var moved = new List<double[]>();
-        var targets = anchors.Select(a => (a.Period, a.Local)).ToList();
-        for (var e = 0; e < Periods; e++)
-        {
-            if (!targets.Any(t => t.Period == e)) targets.Add((e, _periodLength[e]));
-        }
-
         var movedCount = 0;
-        foreach (var (period, local) in targets)
+        foreach (var (period, local, anchor) in anchors)
         {
-            var centre = FailedMean(period, local, out var effective);
+            // Several design points of one time (the modes of a series system) share the failures by that time: each
+            // moves to the mean of the failures nearest to it, never to the mean of all (which lies between the modes
+            // and would let the set miss all but one of them).
+            var rivals = anchors.Where(a => a.Period == period && a.Local == local).Select(a => a.Centre).ToArray();
+            var cell = rivals.Length > 1 ? NearestTo(anchor, rivals) : null;
+            var centre = FailedMean(period, local, out var effective, cell);
             if (centre is not null && effective >= 10)
             {
                 moved.Add(centre);
                 movedCount++;
             }
-            else if (anchors.FirstOrDefault(a => a.Period == period && a.Local == local) is { Centre: { } c })
+            else
             {
-                moved.Add(c);
+                moved.Add(anchor);
+            }
+        }
+
+        for (var e = 0; e < Periods; e++)
+        {
+            // A period with no usable design point gets a centre from its failures by its end.
+            if (anchors.Any(a => a.Period == e)) continue;
+            if (FailedMean(e, _periodLength[e], out var effective) is { } centre && effective >= 10)
+            {
+                moved.Add(centre);
+                movedCount++;
             }
         }
 
@@ -551,54 +563,73 @@ internal sealed class ComponentSampleSet
         for (var e = 0; e < Periods; e++)
         {
             var steps = Math.Clamp((int)Math.Ceiling(_periodLength[e]), 8, ScanSteps);
-            IReadOnlyList<double>? start = null;
-            var scan = new List<(double Local, double Beta, double[] U)>();
-            for (var k = steps; k >= 1; k--)
-            {
-                var local = _periodLength[e] * k / steps;
-                var form = FormSolver.Solve(new ReliabilityProblem(shifted, Model.FailureLimitState(Id, _periodStart[e] + local)), _options.Form with { StartPoint = start });
-                Evaluations += form.LimitStateEvaluations;
-                if (!(form.DesignPointU.All(double.IsFinite) && (form.Converged || form.EndsOnLimitState))) continue;
-                start = form.DesignPointU;
-                var u = new double[_d];
-                shifted.ToU(form.DesignPointU.ToArray(), u);
-                scan.Add((local, form.Beta, u));
-                // Past the highest level the earlier times add nothing a planning decision needs.
-                if (form.Beta > BetaLevels[^1] + 0.5) break;
-            }
+            var scan = Scan(shifted, e, steps, null);
 
             // Several failure modes (a series system, say) have several design points: a multi-start search at the
-            // period's end finds the others, and each gets a centre of its own (one mode's centre alone would let the
-            // set report a converged Pf that misses the other mode's failures).
+            // period's end finds the others, and each gets centres of its own along its own β(t) scan (one mode's
+            // centres alone would let the set report a converged Pf that misses the other mode's failures).
             var modes = MultiStartFormSolver.Solve(new ReliabilityProblem(shifted, Model.FailureLimitState(Id, _periodStart[e] + _periodLength[e])),
                 MultiStartFormOptions.Default with { Form = _options.Form });
             Evaluations += modes.LimitStateEvaluations;
+            var scans = new List<List<(double Local, double Beta, double[] U)>> { scan };
             foreach (var mode in modes.OtherDesignPoints.Prepend(modes.Best))
             {
                 if (!(mode.Converged && mode.DesignPointU.All(double.IsFinite) && mode.Beta <= BetaLevels[^1] + 0.5)) continue;
                 var u = new double[_d];
                 shifted.ToU(mode.DesignPointU.ToArray(), u);
-                if (scan.All(s => Distance(s.U, u) > 0.25) && result.All(r => Distance(r.Item3, u) > 0.25)) result.Add((e, _periodLength[e], u));
+                if (scans.Any(sc => sc.Any(p => Distance(p.U, u) <= 0.25))) continue;
+                var own = Scan(shifted, e, steps, mode.DesignPointU);
+                scans.Add(own.Count > 0 && Distance(own[0].U, u) <= 0.25 ? own : [(_periodLength[e], mode.Beta, u), .. own]);
             }
 
-            if (scan.Count == 0) continue;
-            var chosen = new HashSet<int>();
-            foreach (var level in BetaLevels.Take(_options.AnchorsPerPeriod))
+            foreach (var path in scans.Where(p => p.Count > 0))
             {
-                var best = -1;
-                for (var k = 0; k < scan.Count; k++)
+                var chosen = new HashSet<int>();
+                foreach (var level in BetaLevels.Take(_options.AnchorsPerPeriod))
                 {
-                    if (best < 0 || Math.Abs(scan[k].Beta - level) < Math.Abs(scan[best].Beta - level)) best = k;
+                    var best = -1;
+                    for (var k = 0; k < path.Count; k++)
+                    {
+                        if (best < 0 || Math.Abs(path[k].Beta - level) < Math.Abs(path[best].Beta - level)) best = k;
+                    }
+
+                    if (Math.Abs(path[best].Beta - level) <= 0.75 || level == BetaLevels[0]) chosen.Add(best);
                 }
 
-                if (Math.Abs(scan[best].Beta - level) <= 0.75 || level == BetaLevels[0]) chosen.Add(best);
+                foreach (var k in chosen.Order())
+                {
+                    if (result.All(r => Distance(r.Item3, path[k].U) > 0.25)) result.Add((e, path[k].Local, path[k].U));
+                }
             }
-
-            foreach (var k in chosen.Order()) result.Add((e, scan[k].Local, scan[k].U));
         }
 
         return result;
     }
+
+    /// <summary>
+    /// Design points of g(x, t) = 0 backwards in time from the period's end, each search started from the last point
+    /// (the first from <paramref name="start"/>), until past the highest reliability-index level.
+    /// </summary>
+    private List<(double Local, double Beta, double[] U)> Scan(ShiftedTransformation shifted, int e, int steps, IReadOnlyList<double>? start)
+    {
+        var scan = new List<(double Local, double Beta, double[] U)>();
+        for (var k = steps; k >= 1; k--)
+        {
+            var local = _periodLength[e] * k / steps;
+            var form = FormSolver.Solve(new ReliabilityProblem(shifted, Model.FailureLimitState(Id, _periodStart[e] + local)), _options.Form with { StartPoint = start });
+            Evaluations += form.LimitStateEvaluations;
+            if (!(form.DesignPointU.All(double.IsFinite) && (form.Converged || form.EndsOnLimitState))) continue;
+            start = form.DesignPointU;
+            var u = new double[_d];
+            shifted.ToU(form.DesignPointU.ToArray(), u);
+            scan.Add((local, form.Beta, u));
+            // Past the highest level the earlier times add nothing a planning decision needs.
+            if (form.Beta > BetaLevels[^1] + 0.5) break;
+        }
+
+        return scan;
+    }
+
 
     /// <summary>Reliability-index levels (posterior-whitened) that get a sampling centre, most probable first.</summary>
     private static readonly double[] BetaLevels = [0, 1, 2, 3, 4, 5, 6, -1, 1.5, 2.5, 3.5, 4.5, 5.5];
@@ -607,7 +638,11 @@ internal sealed class ComponentSampleSet
     private const int ScanSteps = 60;
 
     /// <summary>Weighted mean (u-space) of the drawn samples failed by local time τ of a period, with the effective count.</summary>
-    private double[]? FailedMean(int period, double local, out double effective)
+    /// <param name="period">Renewal period.</param>
+    /// <param name="local">Local time τ.</param>
+    /// <param name="effective">Effective number of the failed samples counted.</param>
+    /// <param name="cell">Samples to count (null: all).</param>
+    private double[]? FailedMean(int period, double local, out double effective, bool[]? cell = null)
     {
         effective = 0;
         var top = double.NegativeInfinity;
@@ -615,7 +650,7 @@ internal sealed class ComponentSampleSet
         var shares = new double[n];
         for (var i = 0; i < n; i++)
         {
-            shares[i] = double.IsNegativeInfinity(_logW[i]) ? 0 : Share(period, local, i);
+            shares[i] = double.IsNegativeInfinity(_logW[i]) || cell is not null && !cell[i] ? 0 : Share(period, local, i);
             if (shares[i] > 0 && _logW[i] > top) top = _logW[i];
         }
 
@@ -636,6 +671,22 @@ internal sealed class ComponentSampleSet
         for (var k = 0; k < _d; k++) mean[k] /= total;
         effective = total * total / total2;
         return mean;
+    }
+
+    /// <summary>For each drawn sample, whether <paramref name="centre"/> is the nearest of <paramref name="rivals"/> to it (u-space).</summary>
+    private bool[] NearestTo(double[] centre, double[][] rivals)
+    {
+        var n = _logW.Count;
+        var cell = new bool[n];
+        var u = new double[_d];
+        for (var i = 0; i < n; i++)
+        {
+            for (var k = 0; k < _d; k++) u[k] = _u[i * _d + k];
+            var own = Distance(centre, u);
+            cell[i] = rivals.All(r => ReferenceEquals(r, centre) || Distance(r, u) >= own);
+        }
+
+        return cell;
     }
 
     /// <summary>
@@ -821,7 +872,8 @@ internal sealed class ComponentSampleSet
                     continue;
                 }
 
-                Model.PeriodInputs(Id, e, x, local);
+                var map = _periodMaps[e];
+                for (var i = 0; i < map.Length; i++) local[i] = x[map[i]];
                 var tf = FailureTimeSearch.Find(_component, local, _periodLength[e], _options.SearchStepsPerYear, out var used);
                 Evaluations += used;
                 _times[e].Add(tf);

@@ -141,7 +141,9 @@ internal sealed class SamplingMixture
 
     private static double Gaussian(Random rng)
     {
-        // Box–Muller, one value per call: the stream is simple to reproduce from the seed.
+        // Box–Muller, one value per call: the stream is simple to reproduce from the seed. (Using both values of each
+        // pair is faster, but on that stream the property test's series-system case 232 showed a sample set missing
+        // part of a late failure mode at 20 y, 4.3 standard errors low: kept on this stream until that is understood.)
         var u1 = 1.0 - rng.NextDouble();
         var u2 = rng.NextDouble();
         return Math.Sqrt(-2 * Math.Log(u1)) * Math.Cos(2 * Math.PI * u2);
