@@ -569,7 +569,7 @@ internal sealed class ComponentSampleSet
             // period's end finds the others, and each gets centres of its own along its own β(t) scan (one mode's
             // centres alone would let the set report a converged Pf that misses the other mode's failures).
             var modes = MultiStartFormSolver.Solve(new ReliabilityProblem(shifted, Model.FailureLimitState(Id, _periodStart[e] + _periodLength[e])),
-                MultiStartFormOptions.Default with { Form = _options.Form });
+                MultiStartFormOptions.Default with { Form = _options.Form, AdditionalStarts = 2 * _d + 4 });
             Evaluations += modes.LimitStateEvaluations;
             var scans = new List<List<(double Local, double Beta, double[] U)>> { scan };
             foreach (var mode in modes.OtherDesignPoints.Prepend(modes.Best))
