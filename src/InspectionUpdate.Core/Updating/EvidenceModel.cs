@@ -252,13 +252,6 @@ public sealed class EvidenceModel
     /// <summary>Index of the renewal period current at t (the period a finding dated exactly at a repair belongs to is the earlier one).</summary>
     internal int PeriodAt(string componentId, double timeYears) => LayoutOf(componentId).EpochIndexAt(timeYears);
 
-    /// <summary>Copies the model inputs of renewal period k out of an input (or augmented) vector, in the model's own order.</summary>
-    internal void PeriodInputs(string componentId, int period, ReadOnlySpan<double> x, Span<double> local)
-    {
-        var map = LayoutOf(componentId).Epochs[period].Map;
-        for (var i = 0; i < map.Length; i++) local[i] = x[map[i]];
-    }
-
     /// <summary>Where each input of the component's model sits in x during renewal period <paramref name="period"/> (a copy).</summary>
     internal int[] PeriodMap(string componentId, int period) => (int[])LayoutOf(componentId).Epochs[period].Map.Clone();
 

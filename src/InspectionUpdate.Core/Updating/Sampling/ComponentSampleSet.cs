@@ -56,6 +56,8 @@ internal sealed class ComponentSampleSet
     private readonly List<double>[] _logSurvival;
     private readonly Random _rng;
     private readonly int[][] _periodMaps;
+    // The last reweighting's further likelihoods (one reference, so a reader on another thread sees a whole pair).
+    private volatile ExtraLikelihoods? _lastExtra;
     private SamplingMixture _mixture = null!;
     private int[][]? _order;
 
@@ -167,26 +169,11 @@ internal sealed class ComponentSampleSet
         if (extra.Count == 0) return Weighted;
         var extendedModel = EvidenceModel.Build(UpdatingCase.Single(_component, extended), annualMaximumAsInput: true);
         if (extendedModel.InputModel.Variables.Count != _m) return null;
-        var extraEvents = extendedModel.Events.Where(ev => extra.Contains(ev.Outcome)).ToArray();
+        var delta = ExtraLogLikelihoods(extendedModel.Events.Where(ev => extra.Contains(ev.Outcome)).ToArray(), out evaluations);
+        _lastExtra = new ExtraLikelihoods(extended.ToArray(), delta);
         var n = _logW.Count;
         var logW = new double[n];
-        var x = new double[_m];
-        for (var i = 0; i < n; i++)
-        {
-            var l = _logW[i];
-            if (!double.IsNegativeInfinity(l))
-            {
-                for (var k = 0; k < _m; k++) x[k] = _x[i * _m + k];
-                foreach (var ev in extraEvents)
-                {
-                    l += ev.LogLikelihood(x);
-                    evaluations++;
-                    if (double.IsNegativeInfinity(l)) break;
-                }
-            }
-
-            logW[i] = l;
-        }
+        for (var i = 0; i < n; i++) logW[i] = _logW[i] + delta[i];
 
         return Weigh(logW);
     }
@@ -374,22 +361,20 @@ internal sealed class ComponentSampleSet
         if (model.InputModel.Variables.Count != _m || model.RenewalPeriods(Id) != Periods) return null;
         var child = new ComponentSampleSet(model, extended, _options, HorizonYears, unchecked(_options.Seed * 7919 + extended.Count));
         child.CopySamples(this);
-        var extraEvents = child._events.Where(ev => extra.Contains(ev.Outcome)).ToArray();
-        var x = new double[_m];
-        var logTarget = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(child._logTarget);
-        for (var i = 0; i < logTarget.Length; i++)
+        // The caller has usually just tried a reweighting with these findings: its likelihoods are reused, not recomputed.
+        double[] delta;
+        if (_lastExtra is { } last && last.Evidence.SequenceEqual(extended) && last.Delta.Length == child._logTarget.Count)
         {
-            if (double.IsNegativeInfinity(logTarget[i])) continue;
-            for (var k = 0; k < _m; k++) x[k] = _x[i * _m + k];
-            foreach (var ev in extraEvents)
-            {
-                logTarget[i] += ev.LogLikelihood(x);
-                child.Evaluations++;
-                if (double.IsNegativeInfinity(logTarget[i])) break;
-            }
-
-            if (double.IsNaN(logTarget[i])) logTarget[i] = double.NegativeInfinity;
+            delta = last.Delta;
         }
+        else
+        {
+            delta = ExtraLogLikelihoods(child._events.Where(ev => extra.Contains(ev.Outcome)).ToArray(), out var used);
+            child.Evaluations += used;
+        }
+
+        var logTarget = System.Runtime.InteropServices.CollectionsMarshal.AsSpan(child._logTarget);
+        for (var i = 0; i < logTarget.Length; i++) logTarget[i] += delta[i];
 
         child.Reweigh();
         child.Weighted = child.Weigh(child._logW.ToArray());
@@ -400,6 +385,36 @@ internal sealed class ComponentSampleSet
         child.DensityNote = DensityNote;
         return child;
     }
+
+    /// <summary>
+    /// Per sample, the summed log likelihood of further findings (0 for a sample already of zero weight, −∞ where a
+    /// finding rules the sample out): what a reweighting adds to ln w and an extension to ln target.
+    /// </summary>
+    private double[] ExtraLogLikelihoods(EvidenceEvent[] events, out long evaluations)
+    {
+        evaluations = 0;
+        var n = _logW.Count;
+        var delta = new double[n];
+        var x = new double[_m];
+        for (var i = 0; i < n; i++)
+        {
+            if (double.IsNegativeInfinity(_logW[i])) continue;
+            for (var k = 0; k < _m; k++) x[k] = _x[i * _m + k];
+            var l = 0.0;
+            foreach (var ev in events)
+            {
+                l += ev.LogLikelihood(x);
+                evaluations++;
+                if (double.IsNegativeInfinity(l)) break;
+            }
+
+            delta[i] = double.IsNaN(l) ? double.NegativeInfinity : l;
+        }
+
+        return delta;
+    }
+
+    private sealed record ExtraLikelihoods(InspectionOutcome[] Evidence, double[] Delta);
 
     /// <summary>Copies every sample, component and batch of <paramref name="parent"/> (same inputs and renewal periods).</summary>
     private void CopySamples(ComponentSampleSet parent)
@@ -906,7 +921,8 @@ internal sealed class ComponentSampleSet
             return 0;
         }
 
-        Model.PeriodInputs(Id, e, x, local);
+        var map = _periodMaps[e];
+        for (var i = 0; i < map.Length; i++) local[i] = x[map[i]];
         var span = curve.AsSpan(0, years);
         _annual!.LogSurvival(_component, local, _periodStart[e], span, out var used);
         Evaluations += used;
