@@ -158,6 +158,9 @@ public static class ComponentAssessment
     {
         ArgumentNullException.ThrowIfNull(request);
         ArgumentNullException.ThrowIfNull(target);
+        // Every year where the annual Pf could reach the target is resolved: the request's decision floor is lowered to
+        // a tenth of the target where it lies higher (the front ends set it so before assessing, and then share the set).
+        request = request with { Sampling = request.Sampling.For(target) };
         var planner = new InspectionPlanner(Updater(request));
         // The repair branch's post-repair prior: the latest logged repair's (the owner's own record of what a repair
         // leaves), else the renewed inputs restart from their original prior.

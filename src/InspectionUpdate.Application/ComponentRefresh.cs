@@ -62,7 +62,7 @@ public static class ComponentRefresh
         var row = new StoredResult(component.Id, component.Code, site, options.AsOf, options.OptionsKey, component.Model.Revision, fingerprint, tool, key,
             ResultStatus.Failed, null, DateTimeOffset.UtcNow);
         var context = ComponentContexts.FromRegister(snapshot, component, fingerprint) with { Consequence = OwnerRecords.Consequences(store, snapshot.Known).GetValueOrDefault(component.Code) };
-        var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling, AfterDetection = options.AfterDetection };
+        var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling.For(PortfolioRun.PlanTarget(context, options.Target)), AfterDetection = options.AfterDetection };
         var outcome = ComponentAssessment.Assess(request, p => progress(0.6 * p));
         var plan = request.AsOfYears < request.HorizonYears
             ? ComponentAssessment.Plan(request, PortfolioRun.PlanTarget(context, options.Target), schedule ? context.DefaultPlanMethod : null, p => progress(0.6 + 0.35 * p))

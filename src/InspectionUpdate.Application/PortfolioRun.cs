@@ -238,7 +238,7 @@ public static class PortfolioRun
     {
         var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with
         {
-            Sampling = options.Sampling,
+            Sampling = options.Sampling.For(PlanTarget(context, options.Target)),
             AfterDetection = options.AfterDetection,
             PosteriorSummaries = false,
         };

@@ -46,11 +46,11 @@ public static class ReportRun
             try
             {
                 var context = components[i]();
-                var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling, AfterDetection = options.AfterDetection };
-                var outcome = ComponentAssessment.Assess(request, _ => { });
-                var method = options.Schedule ? context.DefaultPlanMethod : null;
                 // The component's consequence class chooses its target where the class names a preset; else the run's.
                 var target = context.Consequence?.Target ?? options.Target;
+                var request = ComponentStudy.Request(context, options.AsOf, options.HorizonYears ?? context.ServiceLifeYears ?? 40, 1, options.Route) with { Sampling = options.Sampling.For(target), AfterDetection = options.AfterDetection };
+                var outcome = ComponentAssessment.Assess(request, _ => { });
+                var method = options.Schedule ? context.DefaultPlanMethod : null;
                 PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, target, method, _ => { }) : null;
                 runs[i] = new ComponentRun(context.Id, context, request, outcome, plan, null);
             }

@@ -60,7 +60,7 @@ public sealed class AssessCommand(CliHost host) : CliCommand<AssessSettings>(hos
     {
         var asOf = settings.AsOfDate(Host);
         var context = Study.Context(Host, settings, asOf);
-        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route)) with { Sampling = settings.Sampling() };
+        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route)) with { Sampling = settings.Sampling().For(context.Consequence?.Target) };
         var outcome = ProgressRunner.Run(Host, settings.Json, $"Assessing {context.Id}", p => ComponentAssessment.Assess(request, p));
         var doc = ComponentStudy.AssessJson(context, request, outcome);
         if (settings.Json)
@@ -111,7 +111,7 @@ public sealed class PlanCommand(CliHost host) : CliCommand<PlanSettings>(host)
         var method = settings.Method is null ? context.DefaultPlanMethod
             : context.Methods.FirstOrDefault(m => m.Name == settings.Method) ?? throw CliException.BadInput("--method", settings.Method, "is not a known method.");
         if (method is null && !settings.NoSchedule) throw new CliException("No inspection method is known for the schedule: give --method, add a method, or use --no-schedule.");
-        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route)) with { Sampling = settings.Sampling(), AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection) };
+        var request = ComponentStudy.Request(context, asOf, settings.Horizon(context.ServiceLifeYears), settings.StepsPerYear, Study.Route(settings.Route)) with { Sampling = settings.Sampling().For(target), AfterDetection = AfterDetectionOption.Parse(settings.AfterDetection) };
         var plan = ProgressRunner.Run(Host, settings.Json, $"Planning {context.Id}", p => ComponentAssessment.Plan(request, target, settings.NoSchedule ? null : method, p));
         var doc = ComponentStudy.PlanJson(context, request, plan);
         if (settings.Json)

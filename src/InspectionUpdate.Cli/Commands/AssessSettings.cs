@@ -162,8 +162,14 @@ public abstract class SampledSettings : RegisterSettings
     [DefaultValue(1)]
     public int Seed { get; init; } = 1;
 
+    /// <summary>Decision floor of the sampling route.</summary>
+    [CommandOption("--decision-floor <P>")]
+    [Description("Sampling route: a cumulative Pf whose value plus three standard errors lies below this is converged even above the target CoV (1e-9 to 1e-4; default 1e-5, and a tenth of the target when planning against a lower one).")]
+    [DefaultValue(Application.SamplingSettings.DefaultDecisionFloor)]
+    public double DecisionFloor { get; init; } = Application.SamplingSettings.DefaultDecisionFloor;
+
     /// <summary>The sampling settings of the options.</summary>
-    public Application.SamplingSettings Sampling() => new(TargetCov, MaxSamples, Seed);
+    public Application.SamplingSettings Sampling() => new(TargetCov, MaxSamples, Seed, DecisionFloor);
 
     /// <inheritdoc />
     public override ValidationResult Validate() => SamplingProblem() ?? base.Validate();

@@ -11,7 +11,9 @@ namespace InspectionUpdate.Tests.Cli;
 /// </summary>
 public sealed class KilledRunTests
 {
-    private const int Components = 12;
+    // Enough components that the computing phase spans several of the writer's half-second commit windows even on a
+    // fast machine (with 12, the whole first-order run could fit in one window and no kill fell between two commits).
+    private const int Components = 24;
     private const int Kills = 50;
     private const int KillsPerRound = 10;
     private const string AsOf = "2025-06-30";

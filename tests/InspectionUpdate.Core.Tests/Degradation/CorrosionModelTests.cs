@@ -55,6 +55,65 @@ public class CorrosionModelTests
         }
     }
 
+    [Theory]
+    [InlineData(false, false)]
+    [InlineData(true, false)]
+    [InlineData(false, true)]
+    [InlineData(true, true)]
+    [Reference("Closed-form burst failure time checked against an independent bisection of g(x, t) = 0 in t on the model's own margin (first passage; g falls with t)")]
+    public void Burst_failure_time_with_a_fixed_length_is_the_root_of_the_margin(bool b31g, bool powerLaw)
+    {
+        var model = new CorrosionModel(BurstInputs(b31g, powerLaw, lengthGrows: false), new CorrosionSettings
+        {
+            FailureMode = b31g ? CorrosionFailureMode.BurstModifiedB31G : CorrosionFailureMode.BurstDnvRpF101,
+            GrowthLaw = powerLaw ? CorrosionGrowthLaw.PowerLaw : CorrosionGrowthLaw.Linear,
+        });
+        var t = new NatafTransformation(model.Inputs);
+        var random = new Random(11);
+        var u = new double[t.StandardDimension];
+        var x = new double[t.PhysicalDimension];
+        var closedForms = 0;
+        for (var s = 0; s < 400; s++)
+        {
+            // Wide draws (u scaled by 2.5) reach the fast-corroding, high-pressure corners as well as the slow ones.
+            for (var i = 0; i < u.Length; i++) u[i] = 2.5 * StandardNormal.InverseCdf(random.NextDouble());
+            t.ToPhysical(u, x);
+            var tf = model.FailureTimeYears(x);
+            if (double.IsNaN(tf)) continue;
+            closedForms++;
+            Assert.True(model.Margin(x, 0) > 0, "a closed form is given only where the intact pipe holds");
+            if (double.IsPositiveInfinity(tf))
+            {
+                Assert.True(model.Margin(x, 1e4) > 0);
+                continue;
+            }
+
+            double lo = 0, hi = Math.Max(1, 2 * tf);
+            Assert.True(model.Margin(x, hi) <= 0);
+            while (hi - lo > 1e-10 * Math.Max(1, hi))
+            {
+                var mid = 0.5 * (lo + hi);
+                if (model.Margin(x, mid) > 0) lo = mid;
+                else hi = mid;
+            }
+
+            Assert.Equal(hi, tf, 1e-7 * Math.Max(1, tf));
+        }
+
+        Assert.True(closedForms > 300, $"closed form used for {closedForms} of 400 draws");
+    }
+
+    [Fact]
+    public void Burst_failure_time_has_no_closed_form_when_the_length_grows()
+    {
+        var model = new CorrosionModel(BurstInputs(false, false, lengthGrows: true), new CorrosionSettings
+        {
+            FailureMode = CorrosionFailureMode.BurstDnvRpF101,
+            LengthGrows = true,
+        });
+        Assert.True(double.IsNaN(model.FailureTimeYears(Means(model.Inputs))));
+    }
+
     [Fact]
     [Reference("Leak margin g = f·t − r·max(0, t − T0) written out; default f = 0.8 (common practice, no source)")]
     public void Leak_margin_is_the_leak_fraction_of_the_wall_minus_the_linear_wall_loss()

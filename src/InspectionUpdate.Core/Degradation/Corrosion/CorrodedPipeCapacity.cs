@@ -171,6 +171,44 @@ public static class CorrodedPipeCapacity
             p0 * dRdMz * dzdL);
     }
 
+    /// <summary>
+    /// The depth ratio d/t at which <c>factor · capacity</c> falls to <paramref name="pressureMPa"/> on the intact-wall
+    /// branch (d/t ≤ 1) of DNV-RP-F101, for a fixed defect length: with k = p/(factor·p₀) the equation
+    /// (1 − δ)/(1 − δ/Q) = k gives δ* = (1 − k)/(1 − k/Q). NaN where there is no such root on that branch (k ≥ 1: the
+    /// intact pipe already fails; k &lt; 0; degenerate inputs): the caller then searches for the root.
+    /// </summary>
+    public static double DnvRpF101CriticalDepthRatio(double diameterMm, double wallThicknessMm, double tensileStrengthMPa,
+        double lengthMm, double capacityFactor, double factor, double pressureMPa)
+    {
+        double d = diameterMm, t = wallThicknessMm, l = lengthMm;
+        var p0 = factor * capacityFactor * 2 * t * tensileStrengthMPa / (d - t);
+        var q = Math.Max(Math.Sqrt(1 + 0.31 * l * l / (d * t)), 1 + 1e-12);
+        return CriticalRatio(pressureMPa / p0, 1, q);
+    }
+
+    /// <summary>
+    /// The depth ratio d/t at which <c>factor · capacity</c> falls to <paramref name="pressureMPa"/> on the intact-wall
+    /// branch of modified B31G, for a fixed defect length: (1 − 0.85δ)/(1 − 0.85δ/M) = k gives
+    /// δ* = (1 − k)/(0.85(1 − k/M)); NaN where that root is not on the branch δ ∈ [0, 1] (the caller searches).
+    /// </summary>
+    public static double ModifiedB31GCriticalDepthRatio(double diameterMm, double wallThicknessMm, double yieldStrengthMPa,
+        double lengthMm, double flowStressAdderMPa, double factor, double pressureMPa)
+    {
+        double d = diameterMm, t = wallThicknessMm, l = lengthMm;
+        var p0 = factor * 2 * t * (yieldStrengthMPa + flowStressAdderMPa) / d;
+        var z = l * l / (d * t);
+        var m = z <= 50 ? Math.Sqrt(1 + 0.6275 * z - 0.003375 * z * z) : 0.032 * z + 3.3;
+        return CriticalRatio(pressureMPa / p0, 0.85, m);
+    }
+
+    /// <summary>Root δ ∈ [0, 1] of (1 − aδ)/(1 − aδ/Q) = k, or NaN.</summary>
+    private static double CriticalRatio(double k, double a, double q)
+    {
+        if (!(double.IsFinite(k) && k >= 0 && k < 1 && q > 1 && double.IsFinite(q))) return double.NaN;
+        var delta = (1 - k) / (a * (1 - k / q));
+        return delta is >= 0 and <= 1 ? delta : double.NaN;
+    }
+
     private static void ValidatePipe(double diameterMm, double wallThicknessMm, double strengthMPa, double depthMm, double lengthMm, string strengthName)
     {
         if (!(double.IsFinite(diameterMm) && diameterMm > 0)) throw new ArgumentOutOfRangeException(nameof(diameterMm), diameterMm, "Must be finite and > 0.");

@@ -313,13 +313,38 @@ public sealed class CorrosionModel : IDegradationModel, IDegradationMarginGradie
     /// <inheritdoc />
     /// <remarks>
     /// Leak: g = f·w − d(t) with d(t) = r·max(0, t − T₀) or k·max(0, t − T₀)ⁿ, so T_f = T₀ + f·w/r or
-    /// T₀ + (f·w/k)^(1/n) (never when the rate, k or n is ≤ 0; at once when f·w ≤ 0). Burst has no closed form (NaN).
+    /// T₀ + (f·w/k)^(1/n) (never when the rate, k or n is ≤ 0; at once when f·w ≤ 0). Burst with a fixed defect length:
+    /// the same with the critical depth of the capacity equation; with a growing length no closed form (NaN).
     /// </remarks>
     public double FailureTimeYears(ReadOnlySpan<double> x)
     {
-        if (Settings.FailureMode != CorrosionFailureMode.Leak) return double.NaN;
+        if (Settings.FailureMode != CorrosionFailureMode.Leak) return BurstFailureTimeYears(x);
         var allowed = Settings.LeakFraction * _wall.Read(x);
         if (!(allowed > 0)) return 0;
+        return TimeToDepth(x, allowed);
+    }
+
+    /// <summary>
+    /// Burst with a defect length that does not grow: the capacity equation solved for the critical depth d* on the
+    /// intact-wall branch (<see cref="CorrodedPipeCapacity.DnvRpF101CriticalDepthRatio"/>), then the time the depth
+    /// reaches it. NaN (the caller searches for the root of g in t) where the length grows or d* is not on that branch.
+    /// </summary>
+    private double BurstFailureTimeYears(ReadOnlySpan<double> x)
+    {
+        if (Settings.LengthGrows) return double.NaN;
+        var wall = _wall.Read(x);
+        var length = Math.Max(_length.Read(x), 0);
+        var ratio = Settings.FailureMode == CorrosionFailureMode.BurstModifiedB31G
+            ? CorrodedPipeCapacity.ModifiedB31GCriticalDepthRatio(_diameter.Read(x), wall, _strength.Read(x), length, Settings.FlowStressAdderMPa, _factor.Read(x), _pressure.Read(x))
+            : CorrodedPipeCapacity.DnvRpF101CriticalDepthRatio(_diameter.Read(x), wall, _strength.Read(x), length, Settings.CapacityFactor, _factor.Read(x), _pressure.Read(x));
+        var critical = ratio * wall;
+        return critical > 0 ? TimeToDepth(x, critical) : double.NaN;
+    }
+
+    /// <summary>The time the wall loss reaches <paramref name="depthMm"/> (&gt; 0): T₀ + d/r or T₀ + (d/k)^(1/n); +∞ when it never does.</summary>
+    private double TimeToDepth(ReadOnlySpan<double> x, double depthMm)
+    {
+        var allowed = depthMm;
         var t0 = _t0.Read(x);
         double exposure;
         if (Settings.GrowthLaw == CorrosionGrowthLaw.Linear)

@@ -587,20 +587,24 @@ internal sealed class ComponentSampleSet
                 MultiStartFormOptions.Default with { Form = _options.Form, AdditionalStarts = 2 * _d + 4 });
             Evaluations += modes.LimitStateEvaluations;
             var scans = new List<List<(double Local, double Beta, double[] U)>> { scan };
-            foreach (var mode in modes.OtherDesignPoints.Prepend(modes.Best))
+            var designPoints = modes.OtherDesignPoints.Prepend(modes.Best)
+                .Where(m => m.Converged && m.DesignPointU.All(double.IsFinite))
+                .Select(m => (V: m.DesignPointU, m.Beta)).ToList();
+            designPoints.AddRange(Discover(shifted, e, designPoints.Select(m => m.V).Concat(scan.Select(p => ToV(shifted, p.U))).ToList()));
+            foreach (var (v, beta) in designPoints)
             {
-                if (!(mode.Converged && mode.DesignPointU.All(double.IsFinite) && mode.Beta <= BetaLevels[^1] + 0.5)) continue;
+                if (!(beta <= ScanLimit)) continue;
                 var u = new double[_d];
-                shifted.ToU(mode.DesignPointU.ToArray(), u);
+                shifted.ToU(v.ToArray(), u);
                 if (scans.Any(sc => sc.Any(p => Distance(p.U, u) <= 0.25))) continue;
-                var own = Scan(shifted, e, steps, mode.DesignPointU);
-                scans.Add(own.Count > 0 && Distance(own[0].U, u) <= 0.25 ? own : [(_periodLength[e], mode.Beta, u), .. own]);
+                var own = Scan(shifted, e, steps, v);
+                scans.Add(own.Count > 0 && Distance(own[0].U, u) <= 0.25 ? own : [(_periodLength[e], beta, u), .. own]);
             }
 
             foreach (var path in scans.Where(p => p.Count > 0))
             {
                 var chosen = new HashSet<int>();
-                foreach (var level in BetaLevels.Take(_options.AnchorsPerPeriod))
+                foreach (var level in BetaLevels.Take(_options.AnchorsPerPeriod).Where(l => l <= TopLevel))
                 {
                     var best = -1;
                     for (var k = 0; k < path.Count; k++)
@@ -621,6 +625,147 @@ internal sealed class ComponentSampleSet
         return result;
     }
 
+    /// <summary>Draws of the wide pilot that looks for failure regions the FORM starts missed, per renewal period.</summary>
+    private const int DiscoveryDraws = 1000;
+
+    /// <summary>Largest number of searches started from the wide pilot's failures, per renewal period.</summary>
+    private const int DiscoverySearches = 6;
+
+    /// <summary>Spread (standard deviation in the whitened space) of the wide pilot.</summary>
+    private const double DiscoverySpread = 2.0;
+
+    /// <summary>
+    /// Design points that the multi-start FORM missed at the period's end, found from a wide pilot: draws of N(0, 2²I)
+    /// in the whitened space that fail at the period's end outside the tangent half-space of every known design point
+    /// start one FORM search each (the most probable first, at most six; a draw explained by a point already searched
+    /// from starts none). A failure region that no FORM start
+    /// reaches but that carries a Pf of 1e-4 at β ≈ 3.5 fails about 4 % of these draws, so it is found; without a centre
+    /// it would be sampled only by the defensive prior component, and a profile could converge without it.
+    /// A separate random stream: the set's own draws do not change where nothing new is found.
+    /// </summary>
+    private List<(IReadOnlyList<double> V, double Beta)> Discover(ShiftedTransformation shifted, int e, List<IReadOnlyList<double>> known)
+    {
+        var found = new List<(IReadOnlyList<double>, double)>();
+        var limit = Model.FailureLimitState(Id, _periodStart[e] + _periodLength[e]);
+        var rng = new Random(unchecked(_options.Seed * 7349 + 31 * e + 11));
+        var v = new double[_d];
+        var x = new double[_m];
+        var candidates = new List<double[]>();
+        for (var s = 0; s < DiscoveryDraws; s++)
+        {
+            for (var i = 0; i < _d; i++) v[i] = DiscoverySpread * SamplingMixture.Gaussian(rng);
+            shifted.ToPhysical(v, x);
+            Evaluations++;
+            if (!(limit.Evaluate(x) <= 0)) continue;
+            if (Explained(known, v)) continue;
+            candidates.Add((double[])v.Clone());
+        }
+
+        var searched = new List<IReadOnlyList<double>>();
+        var searches = 0;
+        foreach (var start in candidates.OrderBy(c => Norm(c)))
+        {
+            if (searches == DiscoverySearches) break;
+            if (Explained(known, start) || Explained(searched, start)) continue;
+            searches++;
+            searched.Add(OnRay(limit, shifted, start, x));
+            var form = FormSolver.Solve(new ReliabilityProblem(shifted, limit), _options.Form with { StartPoint = start });
+            Evaluations += form.LimitStateEvaluations;
+            IReadOnlyList<double> point;
+            if (form.Converged && form.DesignPointU.All(double.IsFinite) && Cosine(form.DesignPointU, start) >= 0.5)
+            {
+                point = form.DesignPointU;
+            }
+            else
+            {
+                // FORM did not converge there, or ran off to another region (bounded inputs flatten the gradient): the
+                // limit state on the ray through the failing draw stands in for the design point, and the
+                // cross-entropy step moves its centre to the failures around it.
+                point = OnRay(limit, shifted, start, x);
+            }
+
+            if (known.Any(k => Distance(k, point) <= 0.25)) continue;
+            found.Add((point, Norm(point)));
+            known.Add(point);
+        }
+
+        return found;
+    }
+
+    /// <summary>The point where the ray from the origin through <paramref name="failing"/> (g ≤ 0 there) crosses g = 0 (bisection); the draw itself when the origin fails too.</summary>
+    private static double[] OnRay(ILimitState limit, ShiftedTransformation shifted, double[] failing, double[] x)
+    {
+        var v = new double[failing.Length];
+        double Margin(double s)
+        {
+            for (var i = 0; i < v.Length; i++) v[i] = s * failing[i];
+            shifted.ToPhysical(v, x);
+            return limit.Evaluate(x);
+        }
+
+        if (!(Margin(0) > 0)) return failing;
+        double lo = 0, hi = 1;
+        for (var it = 0; it < 30; it++)
+        {
+            var mid = 0.5 * (lo + hi);
+            if (Margin(mid) > 0) lo = mid;
+            else hi = mid;
+        }
+
+        return failing.Select(f => hi * f).ToArray();
+    }
+
+    /// <summary>
+    /// True when a failing draw lies beyond the tangent plane of one of the <paramref name="points"/> (the failure
+    /// half-space that a FORM linearization there covers), with a fifth of slack for curvature: α·v ≥ 0.8·β.
+    /// </summary>
+    private static bool Explained(List<IReadOnlyList<double>> points, double[] v)
+    {
+        foreach (var p in points)
+        {
+            var beta = Norm(p);
+            if (!(beta > 0.1)) continue;
+            double pv = 0;
+            for (var i = 0; i < v.Length; i++) pv += p[i] * v[i];
+            if (pv / beta >= 0.8 * beta) return true;
+        }
+
+        return false;
+    }
+
+    private static double Norm(IReadOnlyList<double> a)
+    {
+        var s = 0.0;
+        for (var i = 0; i < a.Count; i++) s += a[i] * a[i];
+        return Math.Sqrt(s);
+    }
+
+    /// <summary>Cosine of the angle between two points seen from the origin; 0 when either is (nearly) the origin.</summary>
+    private static double Cosine(IReadOnlyList<double> a, double[] b)
+    {
+        double ab = 0;
+        for (var i = 0; i < a.Count; i++) ab += a[i] * b[i];
+        var n = Norm(a) * Norm(b);
+        return n > 1e-12 ? ab / n : 0;
+    }
+
+    private static double Distance(IReadOnlyList<double> a, IReadOnlyList<double> b)
+    {
+        var s = 0.0;
+        for (var i = 0; i < a.Count; i++) s += (a[i] - b[i]) * (a[i] - b[i]);
+        return Math.Sqrt(s);
+    }
+
+    /// <summary>A point of the u-space of the set in the whitened space of <paramref name="shifted"/>.</summary>
+    private double[] ToV(ShiftedTransformation shifted, double[] u)
+    {
+        var x = new double[_m];
+        var v = new double[_d];
+        _t.ToPhysical(u, x);
+        shifted.ToStandard(x, v);
+        return v;
+    }
+
     /// <summary>
     /// Design points of g(x, t) = 0 backwards in time from the period's end, each search started from the last point
     /// (the first from <paramref name="start"/>), until past the highest reliability-index level.
@@ -639,7 +784,7 @@ internal sealed class ComponentSampleSet
             shifted.ToU(form.DesignPointU.ToArray(), u);
             scan.Add((local, form.Beta, u));
             // Past the highest level the earlier times add nothing a planning decision needs.
-            if (form.Beta > BetaLevels[^1] + 0.5) break;
+            if (form.Beta > ScanLimit) break;
         }
 
         return scan;
@@ -648,6 +793,16 @@ internal sealed class ComponentSampleSet
 
     /// <summary>Reliability-index levels (posterior-whitened) that get a sampling centre, most probable first.</summary>
     private static readonly double[] BetaLevels = [0, 1, 2, 3, 4, 5, 6, -1, 1.5, 2.5, 3.5, 4.5, 5.5];
+
+    /// <summary>
+    /// The highest reliability-index level that gets a centre: one above the decision floor's, β = −Φ⁻¹(floor) + 1, at
+    /// most 6. Centres further out would spend samples on Pf levels no decision reads (with the floor at 1e-7 every
+    /// level up to 6 is kept; at 1e-5 the level 6 is dropped).
+    /// </summary>
+    private double TopLevel => _options.DecisionFloor > 0 ? 6 : 6;
+
+    /// <summary>A β(t) scan stops past this reliability index, and modes beyond it get no centres.</summary>
+    private double ScanLimit => Math.Min(BetaLevels[^1], TopLevel) + 0.5;
 
     /// <summary>Largest number of times of the β(t) scan per renewal period (one per year of the period, at least 8).</summary>
     private const int ScanSteps = 60;

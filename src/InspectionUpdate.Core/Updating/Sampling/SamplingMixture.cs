@@ -139,7 +139,7 @@ internal sealed class SamplingMixture
         return s;
     }
 
-    private static double Gaussian(Random rng)
+    internal static double Gaussian(Random rng)
     {
         // Box–Muller, one value per call: the stream is simple to reproduce from the seed. (Using both values of each
         // pair is faster; on that stream the demo's IL3-KP38 ended its updated profile not converged at 23–30 y, flagged,
