@@ -37,6 +37,10 @@ internal sealed class ComponentSampleSet
     private readonly double[] _periodStart;
     private readonly double[] _periodLength;
     private readonly EvidenceEvent[] _events;
+    // The events a drawn sample's likelihood evaluates: an in-service record inside its renewal period is left out, as
+    // the failure time enforces it (T_f > τ, first passage, implies g(x, τ) > 0): one limit-state evaluation less per
+    // record and sample.
+    private readonly EvidenceEvent[] _drawnEvents;
     private readonly List<double> _x = [];
     private readonly List<double> _logW = [];
     private readonly List<double> _u = [];
@@ -89,6 +93,8 @@ internal sealed class ComponentSampleSet
             var e = model.PeriodAt(Id, record.TimeYears);
             _survivedLocal[e] = Math.Max(_survivedLocal[e], record.TimeYears - _periodStart[e]);
         }
+
+        _drawnEvents = _events.Where(ev => !(ev.Outcome is SurvivedInService r && r.TimeYears - _periodStart[model.PeriodAt(Id, r.TimeYears)] > 0)).ToArray();
 
         _times = Enumerable.Range(0, periods).Select(_ => new List<double>()).ToArray();
         _logSurvival = Enumerable.Range(0, periods).Select(_ => new List<double>()).ToArray();
@@ -1016,7 +1022,7 @@ internal sealed class ComponentSampleSet
             _t.ToPhysical(u, x);
             var logTarget = SamplingMixture.LogPrior(u);
             _logPrior.Add(logTarget);
-            foreach (var ev in _events)
+            foreach (var ev in _drawnEvents)
             {
                 logTarget += ev.LogLikelihood(x);
                 Evaluations++;
