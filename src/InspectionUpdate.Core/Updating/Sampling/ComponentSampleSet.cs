@@ -596,7 +596,7 @@ internal sealed class ComponentSampleSet
             var designPoints = modes.OtherDesignPoints.Prepend(modes.Best)
                 .Where(m => m.Converged && m.DesignPointU.All(double.IsFinite))
                 .Select(m => (V: m.DesignPointU, m.Beta)).ToList();
-            designPoints.AddRange(Discover(shifted, e, designPoints.Select(m => m.V).Concat(scan.Select(p => ToV(shifted, p.U))).ToList()));
+            var discovered = Discover(shifted, e, designPoints.Select(m => m.V).Concat(scan.Select(p => ToV(shifted, p.U))).ToList());
             foreach (var (v, beta) in designPoints)
             {
                 if (!(beta <= ScanLimit)) continue;
@@ -605,6 +605,20 @@ internal sealed class ComponentSampleSet
                 if (scans.Any(sc => sc.Any(p => Distance(p.U, u) <= 0.25))) continue;
                 var own = Scan(shifted, e, steps, v);
                 scans.Add(own.Count > 0 && Distance(own[0].U, u) <= 0.25 ? own : [(_periodLength[e], beta, u), .. own]);
+            }
+
+            // A region the wide pilot found gets one centre at the period's end (no β(t) scan: the refinement aims at
+            // its earlier years where they matter), if it can matter: its first-order Pf at the period's end reaches
+            // the decision floor and a thousandth of the most probable region's.
+            var mostProbable = scan.Count > 0 ? scan.Min(p => p.Beta) : designPoints.Count > 0 ? designPoints.Min(m => m.Beta) : double.PositiveInfinity;
+            foreach (var (v, beta) in discovered)
+            {
+                var pf = StandardNormal.Ccdf(beta);
+                if (!(pf >= _options.DecisionFloor && pf >= 1e-3 * StandardNormal.Ccdf(mostProbable))) continue;
+                var u = new double[_d];
+                shifted.ToU(v.ToArray(), u);
+                if (scans.Any(sc => sc.Any(p => Distance(p.U, u) <= 0.25))) continue;
+                scans.Add([(_periodLength[e], beta, u)]);
             }
 
             foreach (var path in scans.Where(p => p.Count > 0))
