@@ -43,7 +43,11 @@ public static class ComponentContexts
     /// <param name="snapshot">The register as known on the evidence date.</param>
     /// <param name="component">The component, as known then.</param>
     /// <param name="componentFingerprint">Its fingerprint when the caller has it already; computed when null.</param>
-    public static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component, string? componentFingerprint = null)
+    public static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component, string? componentFingerprint = null) =>
+        FromRegister(snapshot, component, componentFingerprint, registerFingerprint: true);
+
+    /// <summary>As the public overload; without <paramref name="registerFingerprint"/> the context's register fingerprint is left empty (the whole register is not hashed).</summary>
+    internal static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component, string? componentFingerprint, bool registerFingerprint)
     {
         ArgumentNullException.ThrowIfNull(snapshot);
         ArgumentNullException.ThrowIfNull(component);
@@ -75,7 +79,7 @@ public static class ComponentContexts
                 .Select(f => Finding(f, component.InstallDate, f.Revision < latest[f.FindingId] || f.Withdrawn)).ToArray(),
             Repairs = store.Repairs(component.Id, known).Select(r => new ReportRepair(r.RepairDate, ServiceTime.YearsSince(component.InstallDate, r.RepairDate), r.Description)).ToArray(),
             Methods = methods.OrderBy(m => used.Contains(m.Name) ? 0 : 1).Select(m => m.ToInspectionMethod()).ToArray(),
-            Fingerprint = snapshot.Fingerprint,
+            Fingerprint = registerFingerprint ? snapshot.Fingerprint : string.Empty,
             ComponentFingerprint = componentFingerprint ?? store.ComponentFingerprint(component.Id, known),
             Source = store.Path,
             KnownOn = snapshot.KnownOn,

@@ -162,6 +162,12 @@ public interface IRegister : IResultSink, IDisposable
     /// <summary>SHA-256 (hex) of what one component's numbers rest on, as known on <paramref name="asOf"/>.</summary>
     string ComponentFingerprint(long componentId, DateTimeOffset asOf);
 
+    /// <summary>
+    /// The fingerprint (as <see cref="ComponentFingerprint"/>) and latest model revision of every component recorded by
+    /// <paramref name="asOf"/>, by component id, read in one pass.
+    /// </summary>
+    IReadOnlyDictionary<long, ComponentStamp> ComponentFingerprints(DateTimeOffset asOf);
+
     /// <summary>The audit trail, oldest first.</summary>
     IReadOnlyList<AuditEntry> AuditTrail(DateTimeOffset? since = null, string? entity = null);
 
