@@ -55,9 +55,8 @@ public static class ComponentContexts
         var known = snapshot.Known;
         var (model, definition) = BuildModel(component.Model.DefinitionJson, "component " + component.Code);
         var site = snapshot.Sites.FirstOrDefault(s => s.Id == component.SiteId);
-        var findings = store.Findings(component.Id, known, includeWithdrawn: true)
-            .SelectMany(f => store.FindingHistory(f.FindingId).Where(r => r.Recorded.RecordedUtc <= known))
-            .ToList();
+        // Each finding's revisions recorded by then, in one read (not one read per finding).
+        var findings = store.FindingRevisions(component.Id, known).ToList();
         var latest = findings.GroupBy(f => f.FindingId).ToDictionary(g => g.Key, g => g.Max(r => r.Revision));
         var methods = snapshot.Methods;
         var used = findings.Select(f => f.MethodName).Where(n => n is not null).Distinct().ToHashSet();

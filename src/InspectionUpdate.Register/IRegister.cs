@@ -116,6 +116,9 @@ public interface IRegister : IResultSink, IDisposable
     /// <summary>Every revision of a finding, oldest first.</summary>
     IReadOnlyList<FindingRevision> FindingHistory(long findingId);
 
+    /// <summary>Every revision of every finding of a component recorded by <paramref name="asOf"/> (withdrawals included), by finding and revision.</summary>
+    IReadOnlyList<FindingRevision> FindingRevisions(long componentId, DateTimeOffset asOf);
+
     /// <summary>The latest revision of a finding recorded on or before <paramref name="asOf"/>, or null.</summary>
     FindingRevision? GetFinding(long findingId, DateTimeOffset? asOf = null);
 
