@@ -43,7 +43,11 @@ public static class ComponentContexts
     /// <param name="snapshot">The register as known on the evidence date.</param>
     /// <param name="component">The component, as known then.</param>
     /// <param name="componentFingerprint">Its fingerprint when the caller has it already; computed when null.</param>
-    public static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component, string? componentFingerprint = null)
+    public static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component, string? componentFingerprint = null) =>
+        FromRegister(snapshot, component, componentFingerprint, registerFingerprint: true);
+
+    /// <summary>As the public overload; without <paramref name="registerFingerprint"/> the context's register fingerprint is left empty (the whole register is not hashed).</summary>
+    internal static ComponentContext FromRegister(RegisterSnapshot snapshot, InspectionUpdate.Register.Component component, string? componentFingerprint, bool registerFingerprint)
     {
         ArgumentNullException.ThrowIfNull(snapshot);
         ArgumentNullException.ThrowIfNull(component);
@@ -51,9 +55,8 @@ public static class ComponentContexts
         var known = snapshot.Known;
         var (model, definition) = BuildModel(component.Model.DefinitionJson, "component " + component.Code);
         var site = snapshot.Sites.FirstOrDefault(s => s.Id == component.SiteId);
-        var findings = store.Findings(component.Id, known, includeWithdrawn: true)
-            .SelectMany(f => store.FindingHistory(f.FindingId).Where(r => r.Recorded.RecordedUtc <= known))
-            .ToList();
+        // Each finding's revisions recorded by then, in one read (not one read per finding).
+        var findings = store.FindingRevisions(component.Id, known).ToList();
         var latest = findings.GroupBy(f => f.FindingId).ToDictionary(g => g.Key, g => g.Max(r => r.Revision));
         var methods = snapshot.Methods;
         var used = findings.Select(f => f.MethodName).Where(n => n is not null).Distinct().ToHashSet();
@@ -75,7 +78,7 @@ public static class ComponentContexts
                 .Select(f => Finding(f, component.InstallDate, f.Revision < latest[f.FindingId] || f.Withdrawn)).ToArray(),
             Repairs = store.Repairs(component.Id, known).Select(r => new ReportRepair(r.RepairDate, ServiceTime.YearsSince(component.InstallDate, r.RepairDate), r.Description)).ToArray(),
             Methods = methods.OrderBy(m => used.Contains(m.Name) ? 0 : 1).Select(m => m.ToInspectionMethod()).ToArray(),
-            Fingerprint = snapshot.Fingerprint,
+            Fingerprint = registerFingerprint ? snapshot.Fingerprint : string.Empty,
             ComponentFingerprint = componentFingerprint ?? store.ComponentFingerprint(component.Id, known),
             Source = store.Path,
             KnownOn = snapshot.KnownOn,

@@ -84,9 +84,30 @@ public static class PortfolioRun
         var inShard = index.Where(c => options.Shard is not { } s || s.Contains(c.Code)).ToArray();
         var active = inShard.Where(c => c.InstallDate <= options.AsOf).ToArray();
         var stored = options.Force ? new Dictionary<long, (string Key, ResultStatus Status)>() : store.ResultKeys(options.AsOf, optionsKey);
-        var consequences = OwnerRecords.Consequences(store, snapshot.Known);
 
-        int assessed = 0, notConverged = 0, reused = 0, failed = 0, done = 0;
+        // Every key first, from one bulk read of the fingerprints: a component whose stored key still matches is
+        // reused without reading anything else of it, and only the rest go to the workers.
+        var stamps = store.ComponentFingerprints(snapshot.Known);
+        var due = new List<(long Id, string Code, ComponentStamp? Stamp)>();
+        var reused = 0;
+        foreach (var c in active)
+        {
+            ComponentStamp? stamp = stamps.TryGetValue(c.Id, out var s) ? s : null;
+            if (stamp is { ModelRevision: { } revision } && stored.TryGetValue(c.Id, out var old) && old.Status != ResultStatus.Failed
+                && old.Key == ResultKeys.Compute(revision, stamp.Value.Fingerprint, options.AsOf, optionsKey, tool))
+            {
+                reused++;
+            }
+            else
+            {
+                due.Add((c.Id, c.Code, stamp));
+            }
+        }
+
+        var consequences = due.Count == 0 ? new Dictionary<string, ComponentConsequence>() : OwnerRecords.Consequences(store, snapshot.Known);
+
+        int assessed = 0, notConverged = 0, failed = 0, done = reused;
+        if (reused > 0) progress?.Report(new PortfolioProgress(done, active.Length, 0, reused, 0));
         var failures = new ConcurrentBag<PortfolioFailure>();
         var downgraded = new List<ResultStatus>(); // computed results the store refused: counted as failed (writer thread only)
         using var queue = new BlockingCollection<StoredResult>(boundedCapacity: Math.Max(16, options.BatchSize * 4));
@@ -126,32 +147,24 @@ public static class PortfolioRun
         void Report(int computed)
         {
             var d = Interlocked.Increment(ref done);
-            progress?.Report(new PortfolioProgress(d, active.Length, computed, Volatile.Read(ref reused), Volatile.Read(ref failed)));
+            progress?.Report(new PortfolioProgress(d, active.Length, computed, reused, Volatile.Read(ref failed)));
         }
 
         try
         {
-            Parallel.ForEach(System.Collections.Concurrent.Partitioner.Create(active, System.Collections.Concurrent.EnumerablePartitionerOptions.NoBuffering),
+            Parallel.ForEach(System.Collections.Concurrent.Partitioner.Create(due, System.Collections.Concurrent.EnumerablePartitionerOptions.NoBuffering),
                 new ParallelOptions { MaxDegreeOfParallelism = options.Parallelism ?? Environment.ProcessorCount, CancellationToken = stop.Token },
                 entry =>
                 {
-                    var result = One(snapshot, entry.Id, entry.Code, options, optionsKey, tool, stored, consequences);
-                    if (result is null)
+                    var result = One(snapshot, entry.Id, entry.Code, entry.Stamp?.Fingerprint, options, optionsKey, tool, consequences);
+                    _ = result.Status switch
                     {
-                        Interlocked.Increment(ref reused);
-                    }
-                    else
-                    {
-                        _ = result.Status switch
-                        {
-                            ResultStatus.Assessed => Interlocked.Increment(ref assessed),
-                            ResultStatus.NotConverged => Interlocked.Increment(ref notConverged),
-                            _ => Interlocked.Increment(ref failed),
-                        };
-                        if (result.Status == ResultStatus.Failed) failures.Add(new PortfolioFailure(entry.Code, result.Error!));
-                        queue.Add(result, stop.Token);
-                    }
-
+                        ResultStatus.Assessed => Interlocked.Increment(ref assessed),
+                        ResultStatus.NotConverged => Interlocked.Increment(ref notConverged),
+                        _ => Interlocked.Increment(ref failed),
+                    };
+                    if (result.Status == ResultStatus.Failed) failures.Add(new PortfolioFailure(entry.Code, result.Error!));
+                    queue.Add(result, stop.Token);
                     Report(Volatile.Read(ref assessed) + Volatile.Read(ref notConverged));
                 });
         }
@@ -207,20 +220,21 @@ public static class PortfolioRun
         }
     }
 
-    /// <summary>One component: null when its stored result's key still matches; else its new result (failed with the reason on error).</summary>
-    private static StoredResult? One(RegisterSnapshot snapshot, long id, string code, PortfolioOptions options, string optionsKey, string tool,
-        IReadOnlyDictionary<long, (string Key, ResultStatus Status)> stored, IReadOnlyDictionary<string, ComponentConsequence> consequences)
+    /// <summary>One component whose key changed (or that failed before): its new result (failed with the reason on error).</summary>
+    /// <param name="fingerprint">The component's fingerprint from the run's bulk read; read here when null.</param>
+    private static StoredResult One(RegisterSnapshot snapshot, long id, string code, string? fingerprint, PortfolioOptions options, string optionsKey, string tool,
+        IReadOnlyDictionary<string, ComponentConsequence> consequences)
     {
         var store = snapshot.Store;
         var component = store.GetComponent(id, snapshot.Known)!;
-        var fingerprint = store.ComponentFingerprint(id, snapshot.Known);
+        fingerprint ??= store.ComponentFingerprint(id, snapshot.Known);
         var key = ResultKeys.Compute(component.Model.Revision, fingerprint, options.AsOf, optionsKey, tool);
-        if (stored.TryGetValue(id, out var old) && old.Key == key && old.Status != ResultStatus.Failed) return null;
         var site = snapshot.Sites.FirstOrDefault(s => s.Id == component.SiteId)?.Code ?? "?";
         var row = new StoredResult(id, code, site, options.AsOf, optionsKey, component.Model.Revision, fingerprint, tool, key, ResultStatus.Failed, null, DateTimeOffset.UtcNow);
         try
         {
-            var context = ComponentContexts.FromRegister(snapshot, component, fingerprint) with { Consequence = consequences.GetValueOrDefault(code) };
+            // A stored result does not carry the register's fingerprint: the whole register is not hashed for it.
+            var context = ComponentContexts.FromRegister(snapshot, component, fingerprint, registerFingerprint: false) with { Consequence = consequences.GetValueOrDefault(code) };
             return Compute(context, options, row);
         }
         catch (Exception e) when (e is not OperationCanceledException)

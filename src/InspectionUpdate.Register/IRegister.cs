@@ -116,6 +116,9 @@ public interface IRegister : IResultSink, IDisposable
     /// <summary>Every revision of a finding, oldest first.</summary>
     IReadOnlyList<FindingRevision> FindingHistory(long findingId);
 
+    /// <summary>Every revision of every finding of a component recorded by <paramref name="asOf"/> (withdrawals included), by finding and revision.</summary>
+    IReadOnlyList<FindingRevision> FindingRevisions(long componentId, DateTimeOffset asOf);
+
     /// <summary>The latest revision of a finding recorded on or before <paramref name="asOf"/>, or null.</summary>
     FindingRevision? GetFinding(long findingId, DateTimeOffset? asOf = null);
 
@@ -161,6 +164,12 @@ public interface IRegister : IResultSink, IDisposable
 
     /// <summary>SHA-256 (hex) of what one component's numbers rest on, as known on <paramref name="asOf"/>.</summary>
     string ComponentFingerprint(long componentId, DateTimeOffset asOf);
+
+    /// <summary>
+    /// The fingerprint (as <see cref="ComponentFingerprint"/>) and latest model revision of every component recorded by
+    /// <paramref name="asOf"/>, by component id, read in one pass.
+    /// </summary>
+    IReadOnlyDictionary<long, ComponentStamp> ComponentFingerprints(DateTimeOffset asOf);
 
     /// <summary>The audit trail, oldest first.</summary>
     IReadOnlyList<AuditEntry> AuditTrail(DateTimeOffset? since = null, string? entity = null);

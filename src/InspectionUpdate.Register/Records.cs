@@ -110,6 +110,11 @@ public sealed record NewComponent(
 /// <summary>One revision of a component's model definition.</summary>
 public sealed record ComponentModelRevision(long RevisionId, long ComponentId, int Revision, string DefinitionJson, string ModelVersion, Provenance Recorded);
 
+/// <summary>What a stored result's key rests on for one component, as known at the time of the read.</summary>
+/// <param name="ModelRevision">Latest revision of the component's model recorded by then, or null when none was.</param>
+/// <param name="Fingerprint">The component's fingerprint (<see cref="RegisterStore.ComponentFingerprint"/>).</param>
+public readonly record struct ComponentStamp(int? ModelRevision, string Fingerprint);
+
 /// <summary>A component with its model definition as known at the time of the read.</summary>
 public sealed record Component(
     long Id,

@@ -120,6 +120,130 @@ public sealed partial class RegisterStore
         ("consequence_class", "SELECT consequence_class_id, class, target_preset FROM consequence_class WHERE recorded_utc <= $asOf AND class IN (SELECT class FROM component_consequence WHERE component_id = $id AND recorded_utc <= $asOf) ORDER BY consequence_class_id"),
     ], ("$id", componentId), ("$asOf", Sql.Utc(asOf))));
 
+    /// <summary>
+    /// <see cref="ComponentFingerprint"/> of every component recorded by <paramref name="asOf"/>, with the latest model
+    /// revision recorded by then, by component id: the same values as one call per component, read in one transaction
+    /// with one query per table (a whole-register run compares every stored key with these before computing anything).
+    /// </summary>
+    public IReadOnlyDictionary<long, ComponentStamp> ComponentFingerprints(DateTimeOffset asOf) => Read((c, t) => ComponentFingerprintsIn(c, t, asOf));
+
+    /// <summary>
+    /// The text <see cref="ComponentFingerprint"/> hashes, built for all components at once: each table is read once,
+    /// ordered by component, and each component's rows are appended to its own running hash in the same order and the
+    /// same canonical form as the per-component queries. The methods and consequence classes a component names are
+    /// taken from its own finding and consequence rows, as the per-component subqueries take them.
+    /// </summary>
+    private Dictionary<long, ComponentStamp> ComponentFingerprintsIn(DbConnection c, DbTransaction t, DateTimeOffset asOf)
+    {
+        var at = ("$asOf", (object?)Sql.Utc(asOf));
+        var ids = Sql.Query(c, t, "SELECT component_id FROM component WHERE recorded_utc <= $asOf ORDER BY component_id", r => Id(r.GetValue(0)), at);
+        var index = new Dictionary<long, int>(ids.Count);
+        for (var i = 0; i < ids.Count; i++) index[ids[i]] = i;
+        var hashes = new IncrementalHash[ids.Count];
+        var revisions = new int?[ids.Count];
+        var methodsUsed = new HashSet<long>?[ids.Count];
+        var classesNamed = new HashSet<string>?[ids.Count];
+        var text = new StringBuilder();
+        try
+        {
+            var start = Encoding.UTF8.GetBytes("inspection-update component schema " + SchemaVersion.ToString(CultureInfo.InvariantCulture) + "\n");
+            for (var i = 0; i < hashes.Length; i++)
+            {
+                hashes[i] = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
+                hashes[i].AppendData(start);
+            }
+
+            // Rows ordered by component id (column 0, not hashed), then as the per-component query orders them.
+            void Section(string name, string sql, Action<int, DbDataReader>? seen = null)
+            {
+                var header = Encoding.UTF8.GetBytes("# " + name + "\n");
+                int next = 0, open = -1;
+                void Flush()
+                {
+                    if (open < 0) return;
+                    hashes[open].AppendData(Encoding.UTF8.GetBytes(text.ToString()));
+                    text.Clear();
+                    open = -1;
+                }
+
+                using (var command = Sql.Command(c, t, sql, at))
+                using (var reader = command.ExecuteReader())
+                {
+                    while (reader.Read())
+                    {
+                        if (!index.TryGetValue(Id(reader.GetValue(0)), out var i)) continue;
+                        if (i != open)
+                        {
+                            if (i < next) throw new InvalidOperationException($"Rows of section {name} are not ordered by component.");
+                            Flush();
+                            while (next <= i) hashes[next++].AppendData(header);
+                            open = i;
+                        }
+
+                        AppendRow(text, reader, 1);
+                        seen?.Invoke(i, reader);
+                    }
+                }
+
+                Flush();
+                while (next < hashes.Length) hashes[next++].AppendData(header);
+            }
+
+            // Rows shared by many components (methods, consequence classes): each component takes those it names.
+            void Shared<TName>(string name, IReadOnlyList<(TName Name, string Row)> rows, Func<int, TName, bool> names)
+            {
+                var header = "# " + name + "\n";
+                for (var i = 0; i < hashes.Length; i++)
+                {
+                    text.Clear().Append(header);
+                    foreach (var (n, row) in rows)
+                    {
+                        if (names(i, n)) text.Append(row);
+                    }
+
+                    hashes[i].AppendData(Encoding.UTF8.GetBytes(text.ToString()));
+                }
+
+                text.Clear();
+            }
+
+            List<(TName, string)> Rows<TName>(string sql, Func<DbDataReader, TName> name) => Sql.Query(c, t, sql, r =>
+            {
+                var row = new StringBuilder();
+                AppendRow(row, r, 1);
+                return (name(r), row.ToString());
+            }, at);
+
+            Section("component", "SELECT component_id, component_id, site_id, code, install_date, wall_thickness_mm, parameter_group FROM component WHERE recorded_utc <= $asOf ORDER BY component_id");
+            Section("component_model_revision", "SELECT component_id, model_revision_id, revision, definition_json, model_version FROM component_model_revision WHERE recorded_utc <= $asOf ORDER BY component_id, revision",
+                (i, r) => revisions[i] = Convert.ToInt32(r.GetValue(2), CultureInfo.InvariantCulture));
+            Section("finding_revision", "SELECT f.component_id, fr.finding_revision_id, fr.finding_id, fr.revision, fr.inspection_date, fr.kind, fr.method_id, fr.measured_size_mm, fr.remaining_wall_mm, fr.location, fr.note, fr.withdrawn, fr.recorded_utc FROM finding_revision fr JOIN finding f ON f.finding_id = fr.finding_id WHERE fr.recorded_utc <= $asOf ORDER BY f.component_id, fr.finding_revision_id",
+                (i, r) =>
+                {
+                    if (!r.IsDBNull(6)) (methodsUsed[i] ??= []).Add(Id(r.GetValue(6)));
+                });
+            Section("repair_revision", "SELECT r.component_id, rr.repair_revision_id, rr.repair_id, rr.revision, rr.repair_date, rr.post_repair_prior_json, rr.withdrawn, rr.recorded_utc FROM repair_revision rr JOIN repair r ON r.repair_id = rr.repair_id WHERE rr.recorded_utc <= $asOf ORDER BY r.component_id, rr.repair_revision_id");
+            Shared("inspection_method", Rows($"SELECT method_id, {MethodColumns} FROM inspection_method ORDER BY method_id", r => Id(r.GetValue(0))), (i, m) => methodsUsed[i]?.Contains(m) == true);
+            Shared("inspection_method_revision", Rows($"SELECT method_id, method_id, revision, {MethodParameterColumns} FROM inspection_method_revision WHERE recorded_utc <= $asOf ORDER BY method_revision_id", r => Id(r.GetValue(0))), (i, m) => methodsUsed[i]?.Contains(m) == true);
+            Section("component_consequence", "SELECT component_id, component_consequence_id, class, cost_of_failure FROM component_consequence WHERE recorded_utc <= $asOf ORDER BY component_id, component_consequence_id",
+                (i, r) =>
+                {
+                    if (!r.IsDBNull(2)) (classesNamed[i] ??= new HashSet<string>(StringComparer.Ordinal)).Add(Canonical(r.GetValue(2)));
+                });
+            Shared("consequence_class", Rows("SELECT class, consequence_class_id, class, target_preset FROM consequence_class WHERE recorded_utc <= $asOf ORDER BY consequence_class_id", r => Canonical(r.GetValue(0))), (i, k) => classesNamed[i]?.Contains(k) == true);
+
+            var stamps = new Dictionary<long, ComponentStamp>(ids.Count);
+            for (var i = 0; i < ids.Count; i++) stamps[ids[i]] = new ComponentStamp(revisions[i], Convert.ToHexStringLower(hashes[i].GetHashAndReset()));
+            return stamps;
+        }
+        finally
+        {
+            foreach (var h in hashes) h?.Dispose();
+        }
+    }
+
+    private static long Id(object value) => Convert.ToInt64(value, CultureInfo.InvariantCulture);
+
     private static string Hash(DbConnection c, DbTransaction t, string header, IReadOnlyList<(string Name, string Sql)> tables, params (string Name, object? Value)[] parameters)
     {
         var text = new StringBuilder();
@@ -131,21 +255,28 @@ public sealed partial class RegisterStore
             using var reader = command.ExecuteReader();
             while (reader.Read())
             {
-                for (var i = 0; i < reader.FieldCount; i++)
-                {
-                    if (i > 0)
-                    {
-                        text.Append('\t');
-                    }
-
-                    text.Append(Canonical(reader.GetValue(i)));
-                }
-
-                text.Append('\n');
+                AppendRow(text, reader, 0);
             }
         }
 
         return Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(text.ToString())));
+    }
+
+    /// <summary>One row of a fingerprint: the columns from <paramref name="first"/> on, canonical, tab-separated, then a line end.</summary>
+    private static void AppendRow(StringBuilder text, DbDataReader reader, int first)
+    {
+        var count = reader.FieldCount;
+        for (var i = first; i < count; i++)
+        {
+            if (i > first)
+            {
+                text.Append('\t');
+            }
+
+            text.Append(Canonical(reader.GetValue(i)));
+        }
+
+        text.Append('\n');
     }
 
     private static string Canonical(object value) => value switch
@@ -153,6 +284,7 @@ public sealed partial class RegisterStore
         DBNull => "\\N",
         double d => d.ToString("R", CultureInfo.InvariantCulture),
         long l => l.ToString(CultureInfo.InvariantCulture),
+        string s when s.AsSpan().IndexOfAny("\\\t\n\r") < 0 => s,
         string s => s.Replace("\\", "\\\\", StringComparison.Ordinal).Replace("\t", "\\t", StringComparison.Ordinal).Replace("\n", "\\n", StringComparison.Ordinal).Replace("\r", "\\r", StringComparison.Ordinal),
         _ => Convert.ToString(value, CultureInfo.InvariantCulture) ?? "",
     };

@@ -163,6 +163,14 @@ public sealed partial class RegisterStore
     public IReadOnlyList<FindingRevision> FindingHistory(long findingId) =>
         Read((c, t) => ReadRevisions(c, t, "fr.finding_id = $id ORDER BY fr.revision", ("$id", findingId)));
 
+    /// <summary>
+    /// Every revision of every finding of a component recorded on or before <paramref name="asOf"/> (withdrawals
+    /// included), by finding and revision: each finding's history as known then, in one read.
+    /// </summary>
+    public IReadOnlyList<FindingRevision> FindingRevisions(long componentId, DateTimeOffset asOf) =>
+        Read((c, t) => ReadRevisions(c, t, "f.component_id = $component AND fr.recorded_utc <= $asOf ORDER BY fr.finding_id, fr.revision",
+            ("$component", componentId), ("$asOf", Sql.Utc(asOf))));
+
     /// <summary>The latest revision of a finding recorded on or before <paramref name="asOf"/>, or null.</summary>
     public FindingRevision? GetFinding(long findingId, DateTimeOffset? asOf = null) =>
         Read((c, t) => ReadRevisions(c, t, $"fr.finding_id = $id AND {LatestAsOf}", ("$id", findingId), ("$asOf", AsOfText(asOf))).SingleOrDefault());

@@ -110,6 +110,36 @@ public sealed class PortfolioRunTests
     }
 
     [Fact]
+    [Reference("Design rule (issue 13): progress counts every component of the run once, reused ones included, ending at the total")]
+    public void A_reruns_progress_counts_reused_components_and_ends_at_the_total()
+    {
+        const int Few = 3;
+        using var r = new PortfolioRegister(Few);
+        PortfolioRun.Run(r.Store, r.Store, PortfolioRegister.Options);
+        var changed = r.Store.Components()[2];
+        r.Store.AddFinding(new NewFinding(changed.Code, new DateOnly(2024, 11, 2), FindingKind.NoIndication, "INV-UT", Location: "dig 2"), "tester", "new dig").Require();
+        var reports = new List<PortfolioProgress>();
+        var rerun = PortfolioRun.Run(r.Store, r.Store, PortfolioRegister.Options, new SyncProgress(reports.Add));
+
+        Assert.Equal(Few - 1, rerun.Reused);
+        Assert.Equal(new PortfolioProgress(Few, Few, rerun.Assessed + rerun.NotConverged, Few - 1, 0), reports[^1]);
+        Assert.All(reports, p => Assert.Equal(Few - 1, p.Reused));
+        // One component is computed, so the workers report once, after the reused ones.
+        Assert.Equal([Few - 1, Few], reports.Select(p => p.Done));
+    }
+
+    /// <summary>Reports on the calling thread, one at a time (workers report concurrently).</summary>
+    private sealed class SyncProgress(Action<PortfolioProgress> report) : IProgress<PortfolioProgress>
+    {
+        private readonly Lock _gate = new();
+
+        public void Report(PortfolioProgress value)
+        {
+            lock (_gate) report(value);
+        }
+    }
+
+    [Fact]
     [Reference("Design rule (issue 13): a sharded run merged equals the single-process run (same numbers, same keys)")]
     public void Four_shards_merged_equal_the_single_process_run()
     {

@@ -14,6 +14,35 @@ public abstract class RevisionTests
         "site", "component", "component_model_revision", "inspection_method", "finding", "finding_revision", "repair", "repair_revision", "audit_log", "import_batch",
     };
 
+    [SkippableFact]
+    [Reference("Independent computation in the test: each finding's history (FindingHistory) cut at the instant, for every finding of the component")]
+    public void A_components_finding_revisions_are_each_findings_history_as_known_then()
+    {
+        using var r = new TestRegister(Kind);
+        var instants = new List<DateTimeOffset> { r.Clock.UtcNow.AddHours(-1) };
+        var first = r.Store.AddFinding(Sized(2.0), "inspector A", "report IR-1").Require();
+        r.Store.AddFinding(new(TestRegister.Component, new DateOnly(2018, 5, 4), FindingKind.NoIndication, TestRegister.Mpi), "inspector A", "report IR-0").Require();
+        r.Store.AddFinding(new("P-101-W4", new DateOnly(2018, 5, 4), FindingKind.NoIndication, TestRegister.Mpi), "inspector A", "other weld").Require();
+        instants.Add(r.Clock.UtcNow);
+        r.Clock.Advance(TimeSpan.FromHours(1));
+        r.Store.ReviseFinding(first.FindingId, Sized(2.4), "engineer B", "re-read").Require();
+        instants.Add(r.Clock.UtcNow);
+        r.Clock.Advance(TimeSpan.FromHours(1));
+        r.Store.WithdrawFinding(first.FindingId, "engineer B", "wrong weld").Require();
+        instants.Add(r.Clock.UtcNow);
+
+        foreach (var at in instants)
+        {
+            var expected = r.Store.Findings(r.ComponentId, at, includeWithdrawn: true)
+                .SelectMany(f => r.Store.FindingHistory(f.FindingId).Where(x => x.Recorded.RecordedUtc <= at))
+                .OrderBy(x => x.FindingId).ThenBy(x => x.Revision).ToList();
+            Assert.Equal(expected, r.Store.FindingRevisions(r.ComponentId, at));
+        }
+
+        Assert.Equal([1, 1], r.Store.FindingRevisions(r.ComponentId, instants[1]).Select(x => x.Revision));
+        Assert.Equal([1, 2, 3, 1], r.Store.FindingRevisions(r.ComponentId, instants[3]).Select(x => x.Revision));
+    }
+
     [SkippableTheory]
     [MemberData(nameof(AppendOnlyTables), MemberType = typeof(RevisionTests))]
     [Reference("Design rule (DESIGN.md §5): nothing is deleted or overwritten, enforced by triggers as well as by the API")]
