@@ -177,7 +177,10 @@ public sealed class UpdatingSession
             var fo = _firstOrder.Estimate(componentId, timeYears, warm);
             if (fo.Failure.Converged) _warm[key] = fo.Failure.PointU;
             var flags = fo.Flags.Count == 0 ? null : string.Join(" ", fo.Flags);
-            if (_options.Route == UpdatingRoute.FirstOrder || fo.Reliable && fo.Converged)
+            // A Pf that is not a number (P(findings) underflowing to 0 in the conditioning, say) is never reported: the
+            // step is simulated instead, on the first-order route too, and the note says why.
+            var finite = double.IsFinite(fo.Pf) && fo.Pf is >= 0 and <= 1;
+            if (finite && (_options.Route == UpdatingRoute.FirstOrder || fo.Reliable && fo.Converged))
             {
                 var note = (fo.Joint ? "linearized at the joint design points" : null) is { } j
                     ? j + (flags is null ? "" : "; " + flags)
@@ -198,7 +201,9 @@ public sealed class UpdatingSession
                 }, fo.Failure.Alpha, x, fo.Evaluations);
             }
 
-            flagNote = "first order flagged unreliable, simulated instead: " + (fo.Problem ?? flags ?? "not converged");
+            flagNote = finite
+                ? "first order flagged unreliable, simulated instead: " + (fo.Problem ?? flags ?? "not converged")
+                : FormattableString.Invariant($"first order gave no probability ({fo.Pf}), simulated instead") + (fo.Problem is null ? "" : ": " + fo.Problem);
             if (!_simulateFrom.TryGetValue(key, out var known) || timeYears < known) _simulateFrom[key] = timeYears;
         }
 
