@@ -314,7 +314,8 @@ public sealed class CorrosionModel : IDegradationModel, IDegradationMarginGradie
     /// <remarks>
     /// Leak: g = f·w − d(t) with d(t) = r·max(0, t − T₀) or k·max(0, t − T₀)ⁿ, so T_f = T₀ + f·w/r or
     /// T₀ + (f·w/k)^(1/n) (never when the rate, k or n is ≤ 0; at once when f·w ≤ 0). Burst with a fixed defect length:
-    /// the same with the critical depth of the capacity equation; with a growing length no closed form (NaN).
+    /// the same with the critical depth of the capacity equation; with a growing length a one-dimensional root between
+    /// two such closed forms (<see cref="GrowingLengthExposure"/>).
     /// </remarks>
     public double FailureTimeYears(ReadOnlySpan<double> x)
     {
@@ -331,37 +332,98 @@ public sealed class CorrosionModel : IDegradationModel, IDegradationMarginGradie
     /// </summary>
     private double BurstFailureTimeYears(ReadOnlySpan<double> x)
     {
-        if (Settings.LengthGrows) return double.NaN;
-        var wall = _wall.Read(x);
         var length = Math.Max(_length.Read(x), 0);
-        var ratio = Settings.FailureMode == CorrosionFailureMode.BurstModifiedB31G
-            ? CorrodedPipeCapacity.ModifiedB31GCriticalDepthRatio(_diameter.Read(x), wall, _strength.Read(x), length, Settings.FlowStressAdderMPa, _factor.Read(x), _pressure.Read(x))
-            : CorrodedPipeCapacity.DnvRpF101CriticalDepthRatio(_diameter.Read(x), wall, _strength.Read(x), length, Settings.CapacityFactor, _factor.Read(x), _pressure.Read(x));
-        var critical = ratio * wall;
-        return critical > 0 ? TimeToDepth(x, critical) : double.NaN;
+        var critical = CriticalDepthMm(x, length);
+        if (!(critical > 0)) return double.NaN;
+        if (!Settings.LengthGrows) return TimeToDepth(x, critical);
+        var exposure = GrowingLengthExposure(x, length, critical);
+        return double.IsNaN(exposure) ? double.NaN : Math.Max(0, _t0.Read(x) + exposure);
     }
 
-    /// <summary>The time the wall loss reaches <paramref name="depthMm"/> (&gt; 0): T₀ + d/r or T₀ + (d/k)^(1/n); +∞ when it never does.</summary>
-    private double TimeToDepth(ReadOnlySpan<double> x, double depthMm)
+    /// <summary>The depth at which the capacity of a defect of <paramref name="lengthMm"/> falls to the pressure (intact-wall branch), or NaN.</summary>
+    private double CriticalDepthMm(ReadOnlySpan<double> x, double lengthMm)
     {
-        var allowed = depthMm;
-        var t0 = _t0.Read(x);
-        double exposure;
+        var wall = _wall.Read(x);
+        var ratio = Settings.FailureMode == CorrosionFailureMode.BurstModifiedB31G
+            ? CorrodedPipeCapacity.ModifiedB31GCriticalDepthRatio(_diameter.Read(x), wall, _strength.Read(x), lengthMm, Settings.FlowStressAdderMPa, _factor.Read(x), _pressure.Read(x))
+            : CorrodedPipeCapacity.DnvRpF101CriticalDepthRatio(_diameter.Read(x), wall, _strength.Read(x), lengthMm, Settings.CapacityFactor, _factor.Read(x), _pressure.Read(x));
+        return ratio * wall;
+    }
+
+    /// <summary>
+    /// Exposure τ_f at burst when the length grows, L(τ) = L₀ + r_L·τ with r_L ≥ 0: the root of
+    /// h(τ) = d(τ) − d*(L(τ)), d* the critical depth of a fixed length. d* falls as L grows (the bulging factor grows),
+    /// so τ_f lies between τ_lo = d⁻¹(d*(L(τ_hi))) and τ_hi = d⁻¹(d*(L₀)), both closed forms, and h rises from ≤ 0 to
+    /// ≥ 0 across that bracket; Illinois regula falsi on it needs a few critical depths instead of a dozen margins.
+    /// NaN (the caller searches on g itself) where r_L &lt; 0, the depth does not grow, or a critical depth leaves the
+    /// intact-wall branch.
+    /// </summary>
+    private double GrowingLengthExposure(ReadOnlySpan<double> x, double length0, double critical0)
+    {
+        var rateL = _lengthRate.Read(x);
+        if (!(rateL >= 0)) return double.NaN;
+        double lo, hi;
+        hi = ExposureToDepth(x, critical0);
+        if (!double.IsFinite(hi)) return double.NaN;
+        var criticalHi = CriticalDepthMm(x, length0 + rateL * hi);
+        if (!(criticalHi > 0)) return double.NaN;
+        lo = ExposureToDepth(x, criticalHi);
+        if (!(lo >= 0 && lo <= hi)) return double.NaN;
+        // h(τ_hi) = d*(L₀) − d*(L(τ_hi)) and h(τ_lo) = d*(L(τ_hi)) − d*(L(τ_lo)): the depths at the bracket's ends are
+        // the critical depths that defined them.
+        var criticalLo = CriticalDepthMm(x, length0 + rateL * lo);
+        if (!(criticalLo > 0)) return double.NaN;
+        double hLo = criticalHi - criticalLo, hHi = critical0 - criticalHi;
+        if (hLo == 0) return lo;
+        var side = 0;
+        for (var it = 0; it < 100 && hi - lo > 1e-9 * Math.Max(1, hi); it++)
+        {
+            var tau = hHi > hLo ? hi - hHi * (hi - lo) / (hHi - hLo) : 0.5 * (lo + hi);
+            if (!(tau > lo && tau < hi)) tau = 0.5 * (lo + hi);
+            var c = CriticalDepthMm(x, length0 + rateL * tau);
+            if (!(c > 0)) return double.NaN;
+            var h = DepthAtExposure(x, tau) - c;
+            // Regula falsi closes on the root from one side; stop there once depth and critical depth agree to
+            // rounding (1e-12 mm is far below 1e-7 years of growth) instead of waiting for the far end to move.
+            if (Math.Abs(h) <= 1e-12 * Math.Max(1, c)) return tau;
+            if (h < 0)
+            {
+                lo = tau;
+                hLo = h;
+                if (side == -1) hHi *= 0.5;
+                side = -1;
+            }
+            else
+            {
+                hi = tau;
+                hHi = h;
+                if (side == 1) hLo *= 0.5;
+                side = 1;
+            }
+        }
+
+        // The upper end: a failed exposure, as the general root search returns.
+        return hi;
+    }
+
+    private double DepthAtExposure(ReadOnlySpan<double> x, double tau) =>
+        Settings.GrowthLaw == CorrosionGrowthLaw.Linear ? _rate.Read(x) * tau : tau > 0 ? _k.Read(x) * Math.Pow(tau, _n.Read(x)) : 0;
+
+    /// <summary>The time the wall loss reaches <paramref name="depthMm"/> (&gt; 0): T₀ + d/r or T₀ + (d/k)^(1/n), at least 0; +∞ when it never does.</summary>
+    private double TimeToDepth(ReadOnlySpan<double> x, double depthMm) => Math.Max(0, _t0.Read(x) + ExposureToDepth(x, depthMm));
+
+    /// <summary>The exposure τ at which the wall loss reaches <paramref name="depthMm"/> (&gt; 0): d/r or (d/k)^(1/n); +∞ when it never does.</summary>
+    private double ExposureToDepth(ReadOnlySpan<double> x, double depthMm)
+    {
         if (Settings.GrowthLaw == CorrosionGrowthLaw.Linear)
         {
             var r = _rate.Read(x);
-            if (!(r > 0)) return double.PositiveInfinity;
-            exposure = allowed / r;
-        }
-        else
-        {
-            var k = _k.Read(x);
-            var n = _n.Read(x);
-            if (!(k > 0) || !(n > 0)) return double.PositiveInfinity;
-            exposure = Math.Pow(allowed / k, 1 / n);
+            return r > 0 ? depthMm / r : double.PositiveInfinity;
         }
 
-        return Math.Max(0, t0 + exposure);
+        var k = _k.Read(x);
+        var n = _n.Read(x);
+        return k > 0 && n > 0 ? Math.Pow(depthMm / k, 1 / n) : double.PositiveInfinity;
     }
 
     /// <inheritdoc />

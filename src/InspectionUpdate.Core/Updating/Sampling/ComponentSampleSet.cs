@@ -104,7 +104,7 @@ internal sealed class ComponentSampleSet
         {
             _years[e] = ServiceYears.EndedBy(_periodStart[e], _periodLength[e]);
         }
-        _rng = new Random(seed);
+        _rng = new Xoshiro256StarStar(seed);
         _periodMaps = Enumerable.Range(0, periods).Select(e => model.PeriodMap(Id, e)).ToArray();
     }
 
@@ -667,13 +667,15 @@ internal sealed class ComponentSampleSet
     {
         var found = new List<(IReadOnlyList<double>, double)>();
         var limit = Model.FailureLimitState(Id, _periodStart[e] + _periodLength[e]);
-        var rng = new Random(unchecked(_options.Seed * 7349 + 31 * e + 11));
+        var rng = new Xoshiro256StarStar(unchecked(_options.Seed * 7349 + 31 * e + 11));
         var v = new double[_d];
         var x = new double[_m];
         var candidates = new List<double[]>();
+        var normals = new double[DiscoveryDraws * _d];
+        VectorKernels.StandardNormals(rng, normals);
         for (var s = 0; s < DiscoveryDraws; s++)
         {
-            for (var i = 0; i < _d; i++) v[i] = DiscoverySpread * SamplingMixture.Gaussian(rng);
+            for (var i = 0; i < _d; i++) v[i] = DiscoverySpread * normals[s * _d + i];
             shifted.ToPhysical(v, x);
             Evaluations++;
             if (!(limit.Evaluate(x) <= 0)) continue;
@@ -1030,9 +1032,14 @@ internal sealed class ComponentSampleSet
         var x = new double[_m];
         var local = new double[_localDimension];
         var curve = new double[_years.Length == 0 ? 0 : _years.Max()];
+        // The batch's uniforms for the component picks, then its normals, in one block each (vector lanes).
+        var picks = new double[count];
+        for (var s = 0; s < count; s++) picks[s] = _rng.NextDouble();
+        var normals = new double[count * _d];
+        VectorKernels.StandardNormals(_rng, normals);
         for (var s = 0; s < count; s++)
         {
-            _mixture.Draw(_rng, cumulative, u);
+            _mixture.FromNormals(SamplingMixture.Pick(picks[s], cumulative), normals.AsSpan(s * _d, _d), u, z);
             _t.ToPhysical(u, x);
             var logTarget = SamplingMixture.LogPrior(u);
             _logPrior.Add(logTarget);
@@ -1045,7 +1052,6 @@ internal sealed class ComponentSampleSet
 
             if (double.IsNaN(logTarget)) logTarget = double.NegativeInfinity;
             for (var k = 0; k < _d; k++) _u.Add(u[k]);
-            _mixture.Whiten(u, z);
             for (var k = 0; k < _d; k++) _whitened.Add(z[k]);
             for (var k = 0; k < _m; k++) _x.Add(x[k]);
             for (var e = 0; e < Periods; e++)

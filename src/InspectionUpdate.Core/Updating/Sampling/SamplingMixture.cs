@@ -53,17 +53,24 @@ internal sealed class SamplingMixture
         return _centres.Count - 1;
     }
 
-    /// <summary>Draws u from the mixture with the given cumulative component weights (last entry 1).</summary>
-    public void Draw(Random rng, ReadOnlySpan<double> cumulativeWeights, Span<double> u)
+    /// <summary>The component a uniform <paramref name="pick"/> selects under the cumulative weights (last entry 1).</summary>
+    public static int Pick(double pick, ReadOnlySpan<double> cumulativeWeights)
     {
-        var pick = rng.NextDouble();
         var j = 0;
         while (j < cumulativeWeights.Length - 1 && pick >= cumulativeWeights[j]) j++;
-        Span<double> z = stackalloc double[_d];
-        for (var i = 0; i < _d; i++) z[i] = Gaussian(rng);
+        return j;
+    }
+
+    /// <summary>
+    /// u = cⱼ + L·z from standard normals z, and its whitened coordinates L⁻¹u: for a non-prior component simply
+    /// L⁻¹cⱼ + z, so only prior draws (u = z) need the triangular solve.
+    /// </summary>
+    public void FromNormals(int j, ReadOnlySpan<double> z, Span<double> u, Span<double> whitened)
+    {
         if (_centres[j] is not { } c)
         {
             z.CopyTo(u);
+            Whiten(u, whitened);
             return;
         }
 
@@ -73,6 +80,9 @@ internal sealed class SamplingMixture
             for (var k = 0; k <= i; k++) s += _lower[i, k] * z[k];
             u[i] = s;
         }
+
+        var m = WhiteCentre(j);
+        for (var i = 0; i < _d; i++) whitened[i] = m[i] + z[i];
     }
 
     /// <summary>ln of component j's density at u.</summary>
@@ -139,13 +149,4 @@ internal sealed class SamplingMixture
         return s;
     }
 
-    internal static double Gaussian(Random rng)
-    {
-        // Box–Muller, one value per call: the stream is simple to reproduce from the seed. (Using both values of each
-        // pair is faster; on that stream the demo's IL3-KP38 ended its updated profile not converged at 23–30 y, flagged,
-        // where this stream converges: kept until the set's refinement is less sensitive to the stream.)
-        var u1 = 1.0 - rng.NextDouble();
-        var u2 = rng.NextDouble();
-        return Math.Sqrt(-2 * Math.Log(u1)) * Math.Cos(2 * Math.PI * u2);
-    }
 }
