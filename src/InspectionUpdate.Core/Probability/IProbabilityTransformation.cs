@@ -26,4 +26,12 @@ public interface IProbabilityTransformation
     /// variables are zero). The gradient in u is ∇ᵤG = Jᵀ ∇ₓg.
     /// </summary>
     void JacobianPhysicalByStandard(ReadOnlySpan<double> u, Span<double> jacobian);
+
+    /// <summary>
+    /// Where u's coordinate k moves x only through one physical entry (independent inputs), sets that entry of
+    /// <paramref name="x"/> (a physical vector of some u) to its value at uₖ = <paramref name="uk"/> and returns true;
+    /// otherwise leaves x alone and returns false. Lets a finite-difference gradient transform one entry per step
+    /// instead of the whole vector, with the same numbers.
+    /// </summary>
+    bool TryMoveStandardCoordinate(int k, double uk, Span<double> x) => false;
 }

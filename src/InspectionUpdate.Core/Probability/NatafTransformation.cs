@@ -118,6 +118,15 @@ public sealed class NatafTransformation : IProbabilityTransformation
     }
 
     /// <summary>zₖ = (L₀u)ₖ, the k-th correlated standard normal coordinate (uₖ itself when independent).</summary>
+    /// <inheritdoc />
+    public bool TryMoveStandardCoordinate(int k, double uk, Span<double> x)
+    {
+        if (_l0 is not null) return false;
+        var i = _randomIndices[k];
+        x[i] = _variables[i].FromStandardNormal(uk);
+        return true;
+    }
+
     private double Correlated(ReadOnlySpan<double> u, int k)
     {
         if (_l0 is null) return u[k];

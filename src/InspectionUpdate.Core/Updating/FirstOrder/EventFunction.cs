@@ -8,6 +8,7 @@ internal sealed class EventFunction
 {
     private readonly IProbabilityTransformation _transformation;
     private readonly double[] _x;
+    private readonly double[] _xStep;
     private readonly ILimitState? _limitState;
 
     public EventFunction(string name, bool isEquality, LimitStateFunction function, IProbabilityTransformation transformation, ILimitState? limitState = null)
@@ -18,6 +19,7 @@ internal sealed class EventFunction
         Function = function;
         _transformation = transformation;
         _x = new double[transformation.PhysicalDimension];
+        _xStep = new double[transformation.PhysicalDimension];
     }
 
     public string Name { get; }
@@ -41,6 +43,22 @@ internal sealed class EventFunction
     {
         const double step = 1e-5;
         var h = ValueAtU(u);
+        if (_transformation.TryMoveStandardCoordinate(0, u[0], _xStep))
+        {
+            for (var i = 0; i < u.Length; i++)
+            {
+                _x.CopyTo(_xStep, 0);
+                _transformation.TryMoveStandardCoordinate(i, u[i] + step, _xStep);
+                var hp = Function(_xStep);
+                _transformation.TryMoveStandardCoordinate(i, u[i] - step, _xStep);
+                var hm = Function(_xStep);
+                Evaluations += 2;
+                gradient[i] = (hp - hm) / (2 * step);
+            }
+
+            return h;
+        }
+
         var work = (double[])u.Clone();
         for (var i = 0; i < u.Length; i++)
         {
@@ -60,6 +78,20 @@ internal sealed class EventFunction
     {
         const double step = 1e-6;
         var h = ValueAtU(u);
+        if (_transformation.TryMoveStandardCoordinate(0, u[0], _xStep))
+        {
+            // Independent inputs: each step moves one entry of x, so only that entry is transformed again.
+            for (var i = 0; i < u.Length; i++)
+            {
+                _x.CopyTo(_xStep, 0);
+                _transformation.TryMoveStandardCoordinate(i, u[i] + step, _xStep);
+                Evaluations++;
+                gradient[i] = (Function(_xStep) - h) / step;
+            }
+
+            return h;
+        }
+
         var work = (double[])u.Clone();
         for (var i = 0; i < u.Length; i++)
         {
