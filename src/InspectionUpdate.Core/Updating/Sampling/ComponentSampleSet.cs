@@ -52,6 +52,12 @@ internal sealed class ComponentSampleSet
     private readonly List<double> _whitened = [];
     private readonly List<List<double>> _ratio = [];
     private readonly List<int> _failureCentres = [];
+
+    /// <summary>Every point of the β(t) scans (design points of failure by a time), kept for refinements that find too few failures to aim at.</summary>
+    private readonly List<(int Period, double Local, double[] U)> _scanPoints = [];
+
+    /// <summary>Scan points already aimed at by a refinement (indices into <see cref="_scanPoints"/>).</summary>
+    private readonly HashSet<int> _scanPointsUsed = [];
     private int _posterior = -1;
     private readonly List<double>[] _times;
     private readonly double[] _survivedLocal;
@@ -318,6 +324,20 @@ internal sealed class ComponentSampleSet
                 centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(Weighted, missed.Period, missed.Local), 0.2, out effective);
             }
 
+            if ((centre is null || effective < 3) && ScanPointFor(missed.Period, missed.Local) is { } scanned)
+            {
+                // Still too few failures to aim at: the design point of failure by the nearest scanned time at or
+                // after the missed one is where such failures are most likely (first order), so a quarter batch goes
+                // there before the set falls back to doubling its base draw. Each scan point is tried once.
+                var nearest = Nearest(scanned);
+                var aim = nearest.Distance > 0.25 ? AddFailureCentre(scanned) : nearest.Index;
+                if (nearest.Distance > 0.25) refinements++;
+                Draw(Math.Min(_options.Samples / 4, _options.MaxSamples - _logW.Count), AimedWeights(aim));
+                Reweigh();
+                Weighted = Weigh(_logW.ToArray());
+                continue;
+            }
+
             // While too few failures lie behind that time to judge it, a batch only has to find them (a quarter of the
             // base count). Once they are found, the CoV falls like 1/√N: the batch is what the set's own samples would
             // need to meet the target, (CoV/target)² − 1 times the samples drawn, with a fifth more for safety (an
@@ -434,6 +454,7 @@ internal sealed class ComponentSampleSet
         _batches.AddRange(parent._batches);
         foreach (var column in parent._ratio) _ratio.Add([.. column]);
         _failureCentres.AddRange(parent._failureCentres);
+        _scanPoints.AddRange(parent._scanPoints);
         _posterior = parent._posterior;
         for (var e = 0; e < Periods; e++)
         {
@@ -619,6 +640,11 @@ internal sealed class ComponentSampleSet
                 shifted.ToU(v.ToArray(), u);
                 if (scans.Any(sc => sc.Any(p => Distance(p.U, u) <= 0.25))) continue;
                 scans.Add([(_periodLength[e], beta, u)]);
+            }
+
+            foreach (var path in scans)
+            {
+                foreach (var point in path) _scanPoints.Add((e, point.Local, point.U));
             }
 
             foreach (var path in scans.Where(p => p.Count > 0))
@@ -908,6 +934,28 @@ internal sealed class ComponentSampleSet
         }
 
         return null;
+    }
+
+    /// <summary>The first unused scan point of the period at or after the local time (else the latest before it), marked used; null when none is left.</summary>
+    private double[]? ScanPointFor(int period, double local)
+    {
+        var best = -1;
+        for (var k = 0; k < _scanPoints.Count; k++)
+        {
+            var (e, at, _) = _scanPoints[k];
+            if (e != period || _scanPointsUsed.Contains(k)) continue;
+            if (best < 0) { best = k; continue; }
+            var current = _scanPoints[best].Local;
+            // Prefer times at or after the missed one, the nearest of them; else the latest before it.
+            var better = at >= local - 1e-9
+                ? current < local - 1e-9 || at < current
+                : current < local - 1e-9 && at > current;
+            if (better) best = k;
+        }
+
+        if (best < 0) return null;
+        _scanPointsUsed.Add(best);
+        return _scanPoints[best].U;
     }
 
     /// <summary>p + 3·se at the first later time of the period with enough effective failure samples; 1 when none.</summary>
