@@ -1,7 +1,7 @@
 namespace InspectionUpdate.Reliability.Simulation;
 
 /// <summary>
-/// A seeded stream of uniform and standard normal numbers: xoshiro256** (Blackman &amp; Vigna 2018) seeded through
+/// A seeded stream of uniform and standard normal numbers: xoshiro256** (Blackman &amp; Vigna 2018; ACM TOMS 47(4), 2021) seeded through
 /// SplitMix64 (Steele, Lea &amp; Flood 2014), normals by the Box–Muller transform (Box &amp; Muller 1958).
 /// </summary>
 /// <remarks>Not thread-safe: one stream per block. Its output is fixed by the seed on every platform.</remarks>
