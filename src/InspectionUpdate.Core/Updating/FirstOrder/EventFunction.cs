@@ -9,6 +9,7 @@ internal sealed class EventFunction
     private readonly IProbabilityTransformation _transformation;
     private readonly double[] _x;
     private readonly double[] _xStep;
+    private readonly bool _oneEntryPerStep;
     private readonly ILimitState? _limitState;
 
     public EventFunction(string name, bool isEquality, LimitStateFunction function, IProbabilityTransformation transformation, ILimitState? limitState = null)
@@ -20,6 +21,8 @@ internal sealed class EventFunction
         _transformation = transformation;
         _x = new double[transformation.PhysicalDimension];
         _xStep = new double[transformation.PhysicalDimension];
+        // Independent inputs: a step in one coordinate of u moves one entry of x, transformed alone.
+        _oneEntryPerStep = transformation.StandardDimension > 0 && transformation.TryMoveStandardCoordinate(0, 0, _xStep);
     }
 
     public string Name { get; }
@@ -43,7 +46,7 @@ internal sealed class EventFunction
     {
         const double step = 1e-5;
         var h = ValueAtU(u);
-        if (_transformation.TryMoveStandardCoordinate(0, u[0], _xStep))
+        if (_oneEntryPerStep)
         {
             for (var i = 0; i < u.Length; i++)
             {
@@ -78,9 +81,8 @@ internal sealed class EventFunction
     {
         const double step = 1e-6;
         var h = ValueAtU(u);
-        if (_transformation.TryMoveStandardCoordinate(0, u[0], _xStep))
+        if (_oneEntryPerStep)
         {
-            // Independent inputs: each step moves one entry of x, so only that entry is transformed again.
             for (var i = 0; i < u.Length; i++)
             {
                 _x.CopyTo(_xStep, 0);

@@ -1,3 +1,4 @@
+using InspectionUpdate.Reliability.Simulation;
 using System.Globalization;
 using InspectionUpdate.Degradation;
 using InspectionUpdate.Probability;
@@ -64,7 +65,7 @@ internal sealed class ComponentSampleSet
     private readonly AnnualMaxima? _annual;
     private readonly int[] _years;
     private readonly List<double>[] _logSurvival;
-    private readonly Random _rng;
+    private readonly SampleStream _rng;
     private readonly int[][] _periodMaps;
     // The last reweighting's further likelihoods (one reference, so a reader on another thread sees a whole pair).
     private volatile ExtraLikelihoods? _lastExtra;
@@ -110,7 +111,7 @@ internal sealed class ComponentSampleSet
         {
             _years[e] = ServiceYears.EndedBy(_periodStart[e], _periodLength[e]);
         }
-        _rng = new Xoshiro256StarStar(seed);
+        _rng = new SampleStream(unchecked((ulong)(uint)seed));
         _periodMaps = Enumerable.Range(0, periods).Select(e => model.PeriodMap(Id, e)).ToArray();
     }
 
@@ -324,18 +325,15 @@ internal sealed class ComponentSampleSet
                 centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(Weighted, missed.Period, missed.Local), 0.2, out effective);
             }
 
-            if ((centre is null || effective < 3) && ScanPointFor(missed.Period, missed.Local) is { } scanned)
+            var aimable = centre is not null && effective >= 3;
+            if (!aimable && ScanPointFor(missed.Period, missed.Local) is { } scanned)
             {
                 // Still too few failures to aim at: the design point of failure by the nearest scanned time at or
-                // after the missed one is where such failures are most likely (first order), so a quarter batch goes
-                // there before the set falls back to doubling its base draw. Each scan point is tried once.
-                var nearest = Nearest(scanned);
-                var aim = nearest.Distance > 0.25 ? AddFailureCentre(scanned) : nearest.Index;
-                if (nearest.Distance > 0.25) refinements++;
-                Draw(Math.Min(_options.Samples / 4, _options.MaxSamples - _logW.Count), AimedWeights(aim));
-                Reweigh();
-                Weighted = Weigh(_logW.ToArray());
-                continue;
+                // after the missed one is where such failures are most likely (first order), so the batch (a quarter
+                // of the base count, as for every time with too few failures) goes there before the set falls back to
+                // doubling its base draw. Each scan point is tried once.
+                centre = scanned;
+                aimable = true;
             }
 
             // While too few failures lie behind that time to judge it, a batch only has to find them (a quarter of the
@@ -348,13 +346,13 @@ internal sealed class ComponentSampleSet
                 ? _options.Samples / 4
                 : (int)Math.Clamp(1.2 * drawn * (Math.Pow(missedPf.CoefficientOfVariation / _options.TargetCoefficientOfVariation, 2) - 1), _options.Samples / 4, Math.Max(_options.Samples / 2, drawn / 2));
             count = Math.Min(count, _options.MaxSamples - _logW.Count);
-            if (centre is not null && effective >= 3)
+            if (aimable)
             {
-                var nearest = Nearest(centre);
+                var nearest = Nearest(centre!);
                 var aim = nearest.Index;
                 if (nearest.Distance > 0.25)
                 {
-                    aim = AddFailureCentre(centre);
+                    aim = AddFailureCentre(centre!);
                     refinements++;
                 }
 
@@ -693,7 +691,7 @@ internal sealed class ComponentSampleSet
     {
         var found = new List<(IReadOnlyList<double>, double)>();
         var limit = Model.FailureLimitState(Id, _periodStart[e] + _periodLength[e]);
-        var rng = new Xoshiro256StarStar(unchecked(_options.Seed * 7349 + 31 * e + 11));
+        var rng = new SampleStream(unchecked((ulong)(uint)(_options.Seed * 7349 + 31 * e + 11)));
         var v = new double[_d];
         var x = new double[_m];
         var candidates = new List<double[]>();
@@ -1082,7 +1080,7 @@ internal sealed class ComponentSampleSet
         var curve = new double[_years.Length == 0 ? 0 : _years.Max()];
         // The batch's uniforms for the component picks, then its normals, in one block each (vector lanes).
         var picks = new double[count];
-        for (var s = 0; s < count; s++) picks[s] = _rng.NextDouble();
+        for (var s = 0; s < count; s++) picks[s] = _rng.NextUniform();
         var normals = new double[count * _d];
         VectorKernels.StandardNormals(_rng, normals);
         for (var s = 0; s < count; s++)
