@@ -1,9 +1,9 @@
-using InspectionUpdate.Reliability.Simulation;
 using System.Globalization;
 using InspectionUpdate.Degradation;
 using InspectionUpdate.Probability;
 using InspectionUpdate.Probability.Numerics;
 using InspectionUpdate.Reliability;
+using InspectionUpdate.Reliability.Simulation;
 using InspectionUpdate.Updating.Simulation;
 
 namespace InspectionUpdate.Updating.Sampling;

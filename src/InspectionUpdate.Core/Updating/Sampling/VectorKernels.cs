@@ -1,6 +1,6 @@
-using InspectionUpdate.Reliability.Simulation;
 using System.Runtime.InteropServices;
 using System.Runtime.Intrinsics;
+using InspectionUpdate.Reliability.Simulation;
 
 namespace InspectionUpdate.Updating.Sampling;
 
