@@ -61,6 +61,9 @@ internal sealed class ComponentSampleSet
     private readonly HashSet<int> _scanPointsUsed = [];
     private int _posterior = -1;
     private readonly List<double>[] _times;
+    // Per period: whether every stored failure time is T_f itself even past the period's end (closed forms, roots found
+    // within it), so that Pf at a later time, a bound on every earlier one, can be read from the same samples.
+    private readonly bool[] _exactPastEnd;
     private readonly double[] _survivedLocal;
     private readonly AnnualMaxima? _annual;
     private readonly int[] _years;
@@ -104,6 +107,7 @@ internal sealed class ComponentSampleSet
         _drawnEvents = _events.Where(ev => !(ev.Outcome is SurvivedInService r && r.TimeYears - _periodStart[model.PeriodAt(Id, r.TimeYears)] > 0)).ToArray();
 
         _times = Enumerable.Range(0, periods).Select(_ => new List<double>()).ToArray();
+        _exactPastEnd = Enumerable.Repeat(_annual is null, periods).ToArray();
         _logSurvival = Enumerable.Range(0, periods).Select(_ => new List<double>()).ToArray();
         // Whole years of service ending in each period (yearly failure events of an annual-maximum load).
         _years = new int[periods];
@@ -293,11 +297,21 @@ internal sealed class ComponentSampleSet
             }
         }
 
-        Reset(scaled, scaledLogDet, smooth ? mean : null, moved);
+        // The pilot's draws stay in the set: its centres remain components of the mixture with no share in later batches,
+        // and every sample is weighed against the density of all batches together (the balance heuristic, below), so
+        // they are as valid as any later draw. The first estimate rests on the base count of samples, pilot included.
+        var pilotCentres = _failureCentres.ToArray();
+        _failureCentres.Clear();
+        foreach (var c in Distinct(moved))
+        {
+            var same = pilotCentres.FirstOrDefault(j => Distance(_mixture.Centre(j), c) == 0, -1);
+            _failureCentres.Add(same >= 0 ? same : AddComponent(c));
+        }
+
         // Room for a typical refined set at once (refinements usually end within five times the first draw): the
         // columns are then copied on growth once at most.
         Reserve(Math.Min(_options.MaxSamples, 5 * _options.Samples));
-        Draw(_options.Samples, BaseWeights());
+        Draw(Math.Max(_options.Samples - pilot, _options.Samples / 4), BaseWeights());
         Reweigh();
         Weighted = Weigh(_logW.ToArray());
         var refinements = Refine();
@@ -318,14 +332,30 @@ internal sealed class ComponentSampleSet
             // weighed against the sampling density of all batches together (the balance heuristic of multiple
             // importance sampling, Veach & Guibas 1995), so earlier draws stay valid.
             var centre = FailedMean(missed.Period, missed.Local, out var effective);
-            if (centre is null || effective < 3)
+            var heavy = false;
+            if (centre is not null && HeaviestFailure(missed.Period, missed.Local) is { Share: > HeavyFailureShare } heaviest
+                && Distance(heaviest.U, centre) > 1)
+            {
+                // One sample carries a large part of the failures' weight far from their mean: the failures form more
+                // than one mode and the mean lies between them, where a component would not lower that sample's
+                // weight. Aim at the failures nearer to that sample than to the mean instead (however few they are).
+                var cell = NearestTo(heaviest.U, [heaviest.U, centre]);
+                if (FailedMean(missed.Period, missed.Local, out var cellEffective, cell) is { } near)
+                {
+                    centre = near;
+                    effective = cellEffective;
+                    heavy = true;
+                }
+            }
+
+            if (!heavy && (centre is null || effective < 3))
             {
                 // Too few failures by that time to aim at it: one cross-entropy rung instead, the mean of the earliest
                 // fifth (by weight) of the failures by the next covered time, a step towards the earlier, rarer failures.
                 centre = EarliestFailuresMean(missed.Period, CoveredTimeAfter(Weighted, missed.Period, missed.Local), 0.2, out effective);
             }
 
-            var aimable = centre is not null && effective >= 3;
+            var aimable = heavy || centre is not null && effective >= 3;
             if (!aimable && ScanPointFor(missed.Period, missed.Local) is { } scanned)
             {
                 // Still too few failures to aim at: the design point of failure by the nearest scanned time at or
@@ -457,6 +487,7 @@ internal sealed class ComponentSampleSet
         for (var e = 0; e < Periods; e++)
         {
             _times[e].AddRange(parent._times[e]);
+            _exactPastEnd[e] = parent._exactPastEnd[e];
             _logSurvival[e].AddRange(parent._logSurvival[e]);
         }
 
@@ -479,6 +510,7 @@ internal sealed class ComponentSampleSet
         _failureCentres.Clear();
         _order = null;
         foreach (var list in _times) list.Clear();
+        Array.Fill(_exactPastEnd, _annual is null);
         foreach (var list in _logSurvival) list.Clear();
         _mixture = new SamplingMixture(lower, logDet);
         _ratio.Add([]);
@@ -889,6 +921,37 @@ internal sealed class ComponentSampleSet
         return mean;
     }
 
+    /// <summary>A failed sample whose share of the failed weight exceeds this dominates the estimate (see <see cref="Refine"/>).</summary>
+    private const double HeavyFailureShare = 0.1;
+
+    /// <summary>The failed sample (by a local time of a period) with the largest weight, and its share of all failed weight; null when none failed.</summary>
+    private (double[] U, double Share)? HeaviestFailure(int period, double local)
+    {
+        var n = _logW.Count;
+        var top = double.NegativeInfinity;
+        var heaviest = -1;
+        var shares = new double[n];
+        for (var i = 0; i < n; i++)
+        {
+            if (double.IsNegativeInfinity(_logW[i])) continue;
+            shares[i] = Share(period, local, i);
+            if (shares[i] > 0 && _logW[i] + Math.Log(shares[i]) > top)
+            {
+                top = _logW[i] + Math.Log(shares[i]);
+                heaviest = i;
+            }
+        }
+
+        if (heaviest < 0) return null;
+        var total = 0.0;
+        for (var i = 0; i < n; i++)
+        {
+            if (shares[i] > 0) total += Math.Exp(_logW[i] + Math.Log(shares[i]) - top);
+        }
+
+        return (_u.GetRange(heaviest * _d, _d).ToArray(), 1 / total);
+    }
+
     /// <summary>For each drawn sample, whether <paramref name="centre"/> is the nearest of <paramref name="rivals"/> to it (u-space).</summary>
     private bool[] NearestTo(double[] centre, double[][] rivals)
     {
@@ -960,21 +1023,27 @@ internal sealed class ComponentSampleSet
     private double CoveredBoundAfter(WeightedFailureTimes weighted, int period, double local) =>
         CoveredAfter(weighted, period, local) is { } covered ? covered.Probability.Value + 3 * covered.Probability.StandardError : 1;
 
-    /// <summary>The first later time of the period with enough effective failure samples, else the period's end.</summary>
+    /// <summary>The first later time of the period with enough effective failure samples (past its end where <see cref="CoveredAfter"/> reads there), else the period's end.</summary>
     private double CoveredTimeAfter(WeightedFailureTimes weighted, int period, double local) =>
         CoveredAfter(weighted, period, local)?.Local ?? _periodLength[period];
 
     /// <summary>Steps of the search for the first covered time after a given one (a sixteenth of a year).</summary>
     private const double CoverageStepYears = 1.0 / 16;
 
+    /// <summary>How far past a period's end a bound may be read where every failure time is exact there (years).</summary>
+    private const double BoundPastEndYears = 10;
+
     /// <summary>
-    /// The first time after <paramref name="local"/> (sixteenths of a year, to the period's end) at which the sampled
-    /// Pf of the period rests on at least the minimum number of effective failure samples, with that Pf; null when
-    /// none. Pf never falls with time within a period, so p + 3·se there bounds every earlier Pf from above.
+    /// The first time after <paramref name="local"/> (sixteenths of a year) at which the sampled Pf of the period rests
+    /// on at least the minimum number of effective failure samples, with that Pf; null when none. Pf never falls with
+    /// time, so p + 3·se there bounds every earlier Pf from above. The search runs to the period's end, and on up to
+    /// <see cref="BoundPastEndYears"/> past it where the set holds every sample's T_f itself beyond the end (a closed
+    /// form or a root found): P(T_f ≤ τ) for a τ past the end is then as honest an estimate as any within the period
+    /// and bounds the last years, which otherwise have no later time to be bounded by.
     /// </summary>
     public (double Local, SampledProbability Probability)? CoveredAfter(WeightedFailureTimes weighted, int period, double local)
     {
-        var end = _periodLength[period];
+        var end = _periodLength[period] + (_exactPastEnd[period] ? BoundPastEndYears : 0);
         for (var k = Math.Floor(local / CoverageStepYears) + 1; ; k++)
         {
             var at = Math.Min(k * CoverageStepYears, end);
@@ -1116,9 +1185,10 @@ internal sealed class ComponentSampleSet
 
                 var map = _periodMaps[e];
                 for (var i = 0; i < map.Length; i++) local[i] = x[map[i]];
-                var tf = FailureTimeSearch.Find(_component, local, _periodLength[e], _options.SearchStepsPerYear, out var used);
+                var tf = FailureTimeSearch.Find(_component, local, _periodLength[e], _options.SearchStepsPerYear, out var used, out var exact);
                 Evaluations += used;
                 _times[e].Add(tf);
+                if (!exact) _exactPastEnd[e] = false;
                 // The in-service record means no failure before it (first passage), not only a positive margin then.
                 if (RecordedInServiceAt(e, tf)) logTarget = double.NegativeInfinity;
             }

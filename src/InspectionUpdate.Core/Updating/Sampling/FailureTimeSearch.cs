@@ -16,15 +16,29 @@ internal static class FailureTimeSearch
 {
     private const double ToleranceYears = 1e-7;
 
-    public static double Find(IDegradationModel model, ReadOnlySpan<double> x, double horizonYears, int stepsPerYear, out int evaluations)
+    /// <summary>
+    /// T_f(x), with <c>exact</c> true when the time is T_f itself wherever it lies (a closed form, or a root found within
+    /// the horizon) and false when the search stopped at the horizon with g still positive, so that its +∞ only says
+    /// "not by the horizon".
+    /// </summary>
+    public static double Find(IDegradationModel model, ReadOnlySpan<double> x, double horizonYears, int stepsPerYear, out int evaluations, out bool exact)
+    {
+        var t = Search(model, x, horizonYears, stepsPerYear, out evaluations, out var closedForm);
+        exact = closedForm || t <= horizonYears;
+        return t;
+    }
+
+    private static double Search(IDegradationModel model, ReadOnlySpan<double> x, double horizonYears, int stepsPerYear, out int evaluations, out bool closedForm)
     {
         evaluations = 0;
+        closedForm = false;
         var closed = model as IFailureTimeModel;
         if (closed is not null)
         {
             var t = closed.FailureTimeYears(x);
             evaluations = 1;
-            if (!double.IsNaN(t)) return t;
+            closedForm = !double.IsNaN(t);
+            if (closedForm) return t;
         }
 
         var g0 = model.Margin(x, 0);
