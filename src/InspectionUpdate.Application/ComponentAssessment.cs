@@ -149,6 +149,30 @@ public static class ComponentAssessment
         return new AssessmentOutcome(prior, updated, posterior, note) { Samples = samples };
     }
 
+    /// <summary>
+    /// The profile that describes the component now, alone: the updated profile where there are findings (no prior set
+    /// is built for it: a whole-register run stores the current state, and a component's report still shows both),
+    /// else the prior. The same numbers as <see cref="Assess"/>'s current profile: each set has its own stream.
+    /// </summary>
+    public static ReliabilityProfile CurrentProfile(AssessmentRequest request)
+    {
+        ArgumentNullException.ThrowIfNull(request);
+        var grid = TimeGrid.Yearly(request.HorizonYears, request.StepsPerYear);
+        if (Updater(request) is SampleSetUpdater sampled)
+        {
+            return request.Evidence.Count == 0
+                ? sampled.Profile(request.Model, [], grid.TimesYears, "prior")
+                : sampled.Profile(request.Model, request.Evidence, grid.TimesYears, UpdatedLabel(request));
+        }
+
+        if (request.Evidence.Count == 0)
+        {
+            return TimeVariantReliability.Profile(request.Model, grid, ProfileOptions.Default with { Label = "prior", Fallback = new ImportanceSamplingFallback() });
+        }
+
+        return FirstOrderUpdater.Prepare(request.Model, request.Evidence).Profile(UpdatingCase.SingleComponentId, grid.TimesYears, UpdatedLabel(request));
+    }
+
     private const string PosteriorNotRequested = "posterior summaries not requested in this run";
 
     private static string UpdatedLabel(AssessmentRequest request) => $"updated with {request.Evidence.Count} record(s) to {request.AsOf:yyyy-MM-dd}";

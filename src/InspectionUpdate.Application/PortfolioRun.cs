@@ -3,6 +3,7 @@ using System.Diagnostics;
 using System.Text.Json;
 using InspectionUpdate.Planning;
 using InspectionUpdate.Register;
+using InspectionUpdate.Reliability;
 using InspectionUpdate.Reporting.Export;
 using InspectionUpdate.Time;
 using InspectionUpdate.Updating;
@@ -256,9 +257,10 @@ public static class PortfolioRun
             AfterDetection = options.AfterDetection,
             PosteriorSummaries = false,
         };
-        var outcome = ComponentAssessment.Assess(request, _ => { });
+        // The current profile only: the prior of a component with findings is not part of a whole-register result.
+        var current = ComponentAssessment.CurrentProfile(request);
         PlanOutcome? plan = request.AsOfYears < request.HorizonYears ? ComponentAssessment.Plan(request, PlanTarget(context, options.Target), null, _ => { }) : null;
-        return ToStored(context, request, outcome, plan, row);
+        return ToStored(context, request, request.Evidence.Count == 0 ? current : null, request.Evidence.Count == 0 ? null : current, plan, row);
     }
 
     /// <summary>The target a component is planned against: its consequence class's where the class names one, else the run's.</summary>
@@ -269,11 +271,15 @@ public static class PortfolioRun
     }
 
     /// <summary>The stored result of an assessment and plan: the numbers a register overview or report needs.</summary>
-    internal static StoredResult ToStored(ComponentContext context, AssessmentRequest request, AssessmentOutcome outcome, PlanOutcome? plan, StoredResult row)
+    internal static StoredResult ToStored(ComponentContext context, AssessmentRequest request, AssessmentOutcome outcome, PlanOutcome? plan, StoredResult row) =>
+        ToStored(context, request, outcome.Prior, outcome.Updated, plan, row);
+
+    /// <summary>The stored result from the profiles computed (the prior may be absent where the updated one is there).</summary>
+    private static StoredResult ToStored(ComponentContext context, AssessmentRequest request, ReliabilityProfile? prior, ReliabilityProfile? updated, PlanOutcome? plan, StoredResult row)
     {
-        var current = ComponentStudy.Current(outcome.Current, request.AsOfYears);
-        var converged = outcome.AllConverged && (plan?.AllConverged ?? true);
-        var profiles = JsonSerializer.Serialize(new StoredProfiles(ProfileExport.ToExport(outcome.Prior), outcome.Updated is null ? null : ProfileExport.ToExport(outcome.Updated)), ProfileExport.JsonOptions);
+        var current = ComponentStudy.Current((updated ?? prior)!, request.AsOfYears);
+        var converged = (prior?.AllConverged ?? true) && (updated?.AllConverged ?? true) && (plan?.AllConverged ?? true);
+        var profiles = JsonSerializer.Serialize(new StoredProfiles(prior is null ? null : ProfileExport.ToExport(prior), updated is null ? null : ProfileExport.ToExport(updated)), ProfileExport.JsonOptions);
         var target = plan?.RemainingLife.UntilAnnualTarget;
         return row with
         {
@@ -295,5 +301,6 @@ public static class PortfolioRun
         };
     }
 
-    private sealed record StoredProfiles(ProfileExportDocument Prior, ProfileExportDocument? Updated);
+    /// <summary>The profiles a result stores: a whole-register run stores the current one (updated where there are findings, else the prior); a single component's refresh stores both.</summary>
+    private sealed record StoredProfiles(ProfileExportDocument? Prior, ProfileExportDocument? Updated);
 }

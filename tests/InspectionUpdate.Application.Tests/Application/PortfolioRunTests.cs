@@ -14,6 +14,37 @@ public sealed class PortfolioRunTests
         store.Results(withProfiles: true).Select(r => r with { ComputedUtc = default }).ToArray();
 
     [Fact]
+    [Reference("Design rule (issue 13): a whole-register result equals what assess computes for the component on its own, on the sampled route too, where the run builds no prior set")]
+    public void A_sampled_run_stores_the_current_profile_alone_with_the_numbers_of_a_full_assessment()
+    {
+        using var r = new PortfolioRegister(1);
+        var options = PortfolioRegister.Options with { Route = InspectionUpdate.Updating.UpdatingRoute.Auto };
+        PortfolioRun.Run(r.Store, r.Store, options);
+
+        var row = Assert.Single(r.Store.Results(withProfiles: true));
+        var known = Registers.AsKnownOn(PortfolioRegister.AsOf);
+        var context = ComponentContexts.FromRegister(r.Store, r.Store.GetComponent(row.ComponentId, known)!, PortfolioRegister.AsOf);
+        var request = ComponentStudy.Request(context, options.AsOf, context.ServiceLifeYears ?? 40, 1, options.Route) with
+        {
+            Sampling = options.Sampling.For(options.Target),
+        };
+        Assert.NotEmpty(request.Evidence);
+        var outcome = ComponentAssessment.Assess(request, _ => { });
+        var current = ComponentStudy.Current(outcome.Current, request.AsOfYears)!;
+        Assert.Equal(current.AnnualPf, row.AnnualPf);
+        Assert.Equal(current.CumulativePf, row.CumulativePf);
+        Assert.Equal(current.Cov, row.Cov);
+
+        // The stored profiles: the updated one, every point equal to the full assessment's; no prior (none was computed).
+        using var profiles = System.Text.Json.JsonDocument.Parse(row.ProfilesJson!);
+        Assert.Equal(System.Text.Json.JsonValueKind.Null, profiles.RootElement.GetProperty("prior").ValueKind);
+        var points = profiles.RootElement.GetProperty("updated").GetProperty("points");
+        Assert.Equal(outcome.Updated!.Points.Count, points.GetArrayLength());
+        var last = points[points.GetArrayLength() - 1];
+        Assert.Equal(outcome.Updated.Points[^1].CumulativePf, last.GetProperty("cumulative_pf").GetDouble());
+    }
+
+    [Fact]
     [Reference("Design rule (issue 13): stored results are results, not evidence; each equals what assess computes for the component on its own")]
     public void A_run_stores_one_result_per_component_equal_to_the_single_component_route_and_changes_no_finding()
     {
