@@ -982,13 +982,32 @@ internal sealed class ComponentSampleSet
             // The times profiles are read at: whole years since entry into service, and the period's end.
             var first = ServiceYears.First(_periodStart[e]);
             var steps = Math.Max(1, (int)Math.Ceiling(_periodStart[e] + _periodLength[e] - 1e-9) - first + 1);
+            // The first covered time after one year is the first after every later year before it: one scan per
+            // period, not one per year (the planner asks this of every extended set it probes).
+            (double Local, SampledProbability Probability)? covered = null;
+            var noneCovered = false;
             for (var k = 0; k < steps; k++)
             {
                 var local = Math.Min(first + k - _periodStart[e], _periodLength[e]);
                 if (RecordedInServiceAt(e, local)) continue;
                 var p = weighted.Cumulative(e, local);
                 // Where the failures drawn are too few to judge, the next covered value bounds this one (Pf never falls).
-                var bound = p.EffectiveEvents >= _options.MinimumFailureSamples ? p.Value + 3 * p.StandardError : CoveredBoundAfter(weighted, e, local);
+                double bound;
+                if (p.EffectiveEvents >= _options.MinimumFailureSamples)
+                {
+                    bound = p.Value + 3 * p.StandardError;
+                }
+                else
+                {
+                    if (!noneCovered && !(covered is { } known && known.Local > local))
+                    {
+                        covered = CoveredAfter(weighted, e, local);
+                        noneCovered = covered is null;
+                    }
+
+                    bound = covered is { } c ? c.Probability.Value + 3 * c.Probability.StandardError : 1;
+                }
+
                 if (!(bound >= _options.DecisionFloor)) continue;
                 if (p.CoefficientOfVariation > _options.TargetCoefficientOfVariation || p.EffectiveEvents < _options.MinimumFailureSamples) return (e, local);
             }
@@ -1018,10 +1037,6 @@ internal sealed class ComponentSampleSet
         _scanPointsUsed.Add(best);
         return _scanPoints[best].U;
     }
-
-    /// <summary>p + 3·se at the first later time of the period with enough effective failure samples; 1 when none.</summary>
-    private double CoveredBoundAfter(WeightedFailureTimes weighted, int period, double local) =>
-        CoveredAfter(weighted, period, local) is { } covered ? covered.Probability.Value + 3 * covered.Probability.StandardError : 1;
 
     /// <summary>The first later time of the period with enough effective failure samples (past its end where <see cref="CoveredAfter"/> reads there), else the period's end.</summary>
     private double CoveredTimeAfter(WeightedFailureTimes weighted, int period, double local) =>
