@@ -21,25 +21,16 @@ public class FailureTimeSearchTests
         Assert.True(exact);
     }
 
-    [Fact]
-    public void A_root_found_within_the_horizon_is_exact()
+    [Theory]
+    [InlineData(20, 10, true)] // the search's root within the horizon: T_f itself
+    [InlineData(8, double.PositiveInfinity, false)] // g still positive at the horizon: +∞ says only "not by 8 y"
+    public void A_searched_time_is_exact_only_when_the_search_found_the_root(double horizonYears, double expected, bool expectedExact)
     {
-        // depth 1 + 0.5·t reaches 6 mm at t = 10 y (no closed form: the search's root).
+        // depth 1 + 0.5·t reaches 6 mm at t = 10 y (a model without a closed form: the search's root).
         var model = TestModels.LinearDepth(1, 0.1, 0.5, 0.05, 6);
         double[] x = [1, 0.5];
-        var t = FailureTimeSearch.Find(model, x, 20, 4, out _, out var exact);
-        Assert.Equal(10, t, 5);
-        Assert.True(exact);
-    }
-
-    [Fact]
-    public void A_search_that_reaches_the_horizon_with_a_positive_margin_is_not_exact()
-    {
-        // The same depth reaches 6 mm at 10 y, after a 8-year horizon: +∞ says only "not by 8 y".
-        var model = TestModels.LinearDepth(1, 0.1, 0.5, 0.05, 6);
-        double[] x = [1, 0.5];
-        var t = FailureTimeSearch.Find(model, x, 8, 4, out _, out var exact);
-        Assert.Equal(double.PositiveInfinity, t);
-        Assert.False(exact);
+        var t = FailureTimeSearch.Find(model, x, horizonYears, 4, out _, out var exact);
+        Assert.Equal(expected, t, 5);
+        Assert.Equal(expectedExact, exact);
     }
 }
