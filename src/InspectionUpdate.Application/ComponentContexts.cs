@@ -85,6 +85,9 @@ public static class ComponentContexts
         };
     }
 
+    /// <summary>A method file's method name: its file name in capitals (<c>ut-grid.method.json</c> → <c>UT-GRID</c>).</summary>
+    private static string MethodName(string file) => Path.GetFileName(file)[..^".method.json".Length].ToUpperInvariant();
+
     /// <summary>
     /// A component from a model file, with an optional findings CSV and the method files (*.method.json) of the
     /// model's folder. The findings go through a temporary register so that they are validated and mapped exactly as
@@ -108,8 +111,7 @@ public static class ComponentContexts
             Registers.Require(store.AddComponent(new NewComponent("FILE", code, definition.Name, inService, model.MaximumSizeMm is { } w && double.IsFinite(w) ? w : null, json, "file"), actor), "what-if component");
             foreach (var file in methodFiles)
             {
-                var name = Path.GetFileName(file)[..^".method.json".Length].ToUpperInvariant();
-                Registers.Require(store.AddMethod(MethodFile.Read(file, name), actor), "method file " + Path.GetFileName(file));
+                Registers.Require(store.AddMethod(MethodFile.Read(file, MethodName(file)), actor), "method file " + Path.GetFileName(file));
                 hash.Append(File.ReadAllText(file));
             }
 
@@ -119,7 +121,14 @@ public static class ComponentContexts
                 hash.Append(csv);
                 // The file names the component by the model file's name; rewrite nothing: rows must use that code.
                 var result = store.ImportFindingsCsv(new StringReader(csv), Path.GetFileName(findingsPath), actor, "what-if");
-                if (!result.Succeeded) throw Registers.Problems("findings file " + Path.GetFileName(findingsPath), result.Problems);
+                if (!result.Succeeded)
+                {
+                    // Say where a what-if run takes the component code and the methods from: the rows name them.
+                    var refused = Registers.Problems("findings file " + Path.GetFileName(findingsPath), result.Problems);
+                    var names = methodFiles.Length == 0 ? "none" : string.Join(", ", methodFiles.Select(MethodName));
+                    var hint = $"Without a register the component code is '{code}' (the model file's name) and the methods are the *.method.json files beside the model file (here: {names}).";
+                    throw new ApplicationFailureException(FailureKind.BadInput, refused.Message, [.. refused.Problems, hint]);
+                }
             }
 
             var component = store.FindComponent(code)!;
