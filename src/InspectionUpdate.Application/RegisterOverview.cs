@@ -40,12 +40,15 @@ public static class RegisterOverview
         ArgumentNullException.ThrowIfNull(options);
         var snapshot = new RegisterSnapshot(store, options.AsOf);
         var sites = snapshot.Sites.ToDictionary(s => s.Id);
-        var results = store.Results(options.AsOf, options.OptionsKey).ToDictionary(r => r.ComponentId);
+        var stored = store.Results(options.AsOf, options.OptionsKey);
+        var results = stored.ToDictionary(r => r.ComponentId);
+        var reasons = StoredResults.WhyStale(store, stored);
+        var staleness = stored.Select((r, i) => (r.ComponentId, Why: reasons[i])).ToDictionary(x => x.ComponentId, x => x.Why);
         var rows = store.ComponentsInService(snapshot.Known).Where(c => c.InstallDate <= options.AsOf).OrderBy(c => c.Code, StringComparer.Ordinal).Select(c =>
         {
             var site = sites.GetValueOrDefault(c.SiteId);
             var result = results.GetValueOrDefault(c.Id);
-            var stale = result is null ? null : StoredResults.WhyStale(store, result);
+            var stale = result is null ? null : staleness[result.ComponentId];
             var above = result?.AnnualPf is { } pf && pf > options.Target.AnnualPf;
             var overdue = result is not null && (result.NextStatus == "already_exceeded" || (result.NextDue is { } due && due <= options.AsOf));
             return new OverviewRow(c.Code, c.Description, site?.Code ?? "?", site?.Name ?? "?", c.InstallDate, result, stale, above, overdue,

@@ -104,13 +104,9 @@ public static class RegisterReport
         var inService = store.ComponentIndex(snapshot.Known).Where(c => c.InstallDate <= options.AsOf).Select(c => c.Code);
         var missing = inService.Where(c => !byCode.ContainsKey(c)).ToArray();
 
-        // Each stored key checked against the register now (component rows only; in parallel).
-        var stale = new ConcurrentBag<string>();
-        Parallel.ForEach(results, r =>
-        {
-            if (StoredResults.WhyStale(store, r) is not null) stale.Add(r.ComponentCode);
-        });
-        var staleCodes = stale.Order(StringComparer.Ordinal).ToArray();
+        // Each stored key checked against the register now (one bulk read of the component index and fingerprints).
+        var reasons = StoredResults.WhyStale(store, results);
+        var staleCodes = results.Where((_, i) => reasons[i] is not null).Select(r => r.ComponentCode).Order(StringComparer.Ordinal).ToArray();
 
         Directory.CreateDirectory(folder);
         var pages = WritePages(snapshot, folder, options, results, document, target);

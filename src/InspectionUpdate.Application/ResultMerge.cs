@@ -29,19 +29,49 @@ public static class StoredResults
     {
         ArgumentNullException.ThrowIfNull(store);
         ArgumentNullException.ThrowIfNull(row);
+        var known = Registers.AsKnownOn(row.AsOf);
+        var component = store.FindComponent(row.ComponentCode, known);
+        return WhyStale(row, component is null ? null : (component.Id, component.Model.Revision), id => store.ComponentFingerprint(id, known));
+    }
+
+    /// <summary>
+    /// Why each of <paramref name="rows"/> no longer holds (null where its key matches), in their order: the answers of
+    /// <see cref="WhyStale(IRegister, StoredResult)"/> from one bulk read of the component index and the fingerprints
+    /// per evidence date instead of two reads per row (a register report checks every stored result).
+    /// </summary>
+    public static string?[] WhyStale(IRegister store, IReadOnlyList<StoredResult> rows)
+    {
+        ArgumentNullException.ThrowIfNull(store);
+        ArgumentNullException.ThrowIfNull(rows);
+        var reasons = new string?[rows.Count];
+        foreach (var date in Enumerable.Range(0, rows.Count).GroupBy(i => rows[i].AsOf))
+        {
+            var known = Registers.AsKnownOn(date.Key);
+            var ids = store.ComponentIndex(known).ToDictionary(c => c.Code, c => c.Id, StringComparer.Ordinal);
+            var stamps = store.ComponentFingerprints(known);
+            foreach (var i in date)
+            {
+                (long, int?)? component = ids.TryGetValue(rows[i].ComponentCode, out var id) ? (id, stamps.TryGetValue(id, out var s) ? s.ModelRevision : null) : null;
+                reasons[i] = WhyStale(rows[i], component, id => stamps.TryGetValue(id, out var stamp) ? stamp.Fingerprint : null);
+            }
+        }
+
+        return reasons;
+    }
+
+    /// <summary>The rule: the row's own key, then the component (id, model revision as known then), the build, the fingerprint.</summary>
+    private static string? WhyStale(StoredResult row, (long Id, int? ModelRevision)? component, Func<long, string?> fingerprint)
+    {
         if (row.ResultKey != ResultKeys.Compute(row.ModelRevision, row.ComponentFingerprint, row.AsOf, row.OptionsKey, row.ToolVersion))
         {
             return "its key does not match its own fields (the row was altered)";
         }
 
-        var known = Registers.AsKnownOn(row.AsOf);
-        var component = store.FindComponent(row.ComponentCode, known);
-        if (component is null) return $"component {row.ComponentCode} is not in the register as known on {row.AsOf:yyyy-MM-dd}";
-        if (component.Id != row.ComponentId) return $"component {row.ComponentCode} has id {component.Id} in the register, not {row.ComponentId}";
+        if (component is not { } c) return $"component {row.ComponentCode} is not in the register as known on {row.AsOf:yyyy-MM-dd}";
+        if (c.Id != row.ComponentId) return $"component {row.ComponentCode} has id {c.Id} in the register, not {row.ComponentId}";
         if (row.ToolVersion != ToolInfo.ResultVersion) return $"computed by {row.ToolVersion}, not by this build ({ToolInfo.ResultVersion})";
-        if (component.Model.Revision != row.ModelRevision) return $"model revision {row.ModelRevision} was superseded by revision {component.Model.Revision}";
-        var fingerprint = store.ComponentFingerprint(component.Id, known);
-        return fingerprint == row.ComponentFingerprint ? null : "the component's findings, repairs, model or methods changed since it was computed";
+        if (c.ModelRevision != row.ModelRevision) return $"model revision {row.ModelRevision} was superseded by revision {c.ModelRevision}";
+        return fingerprint(c.Id) == row.ComponentFingerprint ? null : "the component's findings, repairs, model or methods changed since it was computed";
     }
 
     /// <summary>Checks every stored result of the register against its key.</summary>
@@ -49,7 +79,8 @@ public static class StoredResults
     {
         ArgumentNullException.ThrowIfNull(store);
         var rows = store.Results();
-        var stale = rows.Select(r => (Row: r, Why: WhyStale(store, r))).Where(x => x.Why is not null)
+        var reasons = WhyStale(store, rows);
+        var stale = rows.Select((r, i) => (Row: r, Why: reasons[i])).Where(x => x.Why is not null)
             .Select(x => new StaleResult(store.Path, x.Row.ComponentCode, x.Row.AsOf, x.Row.OptionsKey, x.Why!)).ToArray();
         return new StoredResultsCheck(rows.Count, stale);
     }

@@ -129,6 +129,10 @@ public sealed class PortfolioRunTests
         var check = StoredResults.Check(r.Store);
         Assert.Equal(Few, check.Stored);
         Assert.Equal(changed.Code, Assert.Single(check.Stale).ComponentId);
+        // The bulk check (one read of the index and fingerprints) gives every row the reason the row-by-row check gives.
+        var rows = r.Store.Results();
+        Assert.Equal(rows.Select(x => StoredResults.WhyStale(r.Store, x)).ToArray(), StoredResults.WhyStale(r.Store, rows));
+        Assert.Single(StoredResults.WhyStale(r.Store, rows), why => why is not null);
 
         var rerun = PortfolioRun.Run(r.Store, r.Store, PortfolioRegister.Options);
         Assert.Equal(Few - 1, rerun.Reused);
