@@ -120,11 +120,7 @@ public static class ComponentAssessment
             return new AssessmentOutcome(priorSampled, updatedSampled, summary, null) { Samples = draws };
         }
 
-        var prior = TimeVariantReliability.Profile(request.Model, grid, ProfileOptions.Default with
-        {
-            Label = "prior",
-            Fallback = new ImportanceSamplingFallback(),
-        });
+        var prior = FirstOrderPrior(request, grid);
         progress(request.Evidence.Count == 0 ? 1.0 : 0.4);
         if (request.Evidence.Count == 0) return new AssessmentOutcome(prior, null, null, "no findings: the prior stands");
 
@@ -167,11 +163,15 @@ public static class ComponentAssessment
 
         if (request.Evidence.Count == 0)
         {
-            return TimeVariantReliability.Profile(request.Model, grid, ProfileOptions.Default with { Label = "prior", Fallback = new ImportanceSamplingFallback() });
+            return FirstOrderPrior(request, grid);
         }
 
         return FirstOrderUpdater.Prepare(request.Model, request.Evidence).Profile(UpdatingCase.SingleComponentId, grid.TimesYears, UpdatedLabel(request));
     }
+
+    /// <summary>The prior profile of the first-order route (importance sampling where first order cannot stand).</summary>
+    private static ReliabilityProfile FirstOrderPrior(AssessmentRequest request, TimeGrid grid) =>
+        TimeVariantReliability.Profile(request.Model, grid, ProfileOptions.Default with { Label = "prior", Fallback = new ImportanceSamplingFallback() });
 
     private const string PosteriorNotRequested = "posterior summaries not requested in this run";
 

@@ -331,10 +331,9 @@ internal sealed class ComponentSampleSet
             // mean of the failures by that time (a new component, or the nearest existing one). All samples are then
             // weighed against the sampling density of all batches together (the balance heuristic of multiple
             // importance sampling, Veach & Guibas 1995), so earlier draws stay valid.
-            var centre = FailedMean(missed.Period, missed.Local, out var effective);
+            var centre = FailedMean(missed.Period, missed.Local, out var effective, out var largest);
             var heavy = false;
-            if (centre is not null && HeaviestFailure(missed.Period, missed.Local) is { Share: > HeavyFailureShare } heaviest
-                && Distance(heaviest.U, centre) > 1)
+            if (centre is not null && largest is { Share: > HeavyFailureShare } heaviest && Distance(heaviest.U, centre) > 1)
             {
                 // One sample carries a large part of the failures' weight far from their mean: the failures form more
                 // than one mode and the mean lies between them, where a component would not lower that sample's
@@ -890,9 +889,14 @@ internal sealed class ComponentSampleSet
     /// <param name="local">Local time τ.</param>
     /// <param name="effective">Effective number of the failed samples counted.</param>
     /// <param name="cell">Samples to count (null: all).</param>
-    private double[]? FailedMean(int period, double local, out double effective, bool[]? cell = null)
+    private double[]? FailedMean(int period, double local, out double effective, bool[]? cell = null) =>
+        FailedMean(period, local, out effective, out _, cell);
+
+    /// <summary>As above, with the failed sample of the largest weight (its u and its share of the failed weight).</summary>
+    private double[]? FailedMean(int period, double local, out double effective, out (double[] U, double Share)? heaviest, bool[]? cell = null)
     {
         effective = 0;
+        heaviest = null;
         var top = double.NegativeInfinity;
         var n = _logW.Count;
         var shares = new double[n];
@@ -904,7 +908,8 @@ internal sealed class ComponentSampleSet
 
         if (!double.IsFinite(top)) return null;
         var mean = new double[_d];
-        double total = 0, total2 = 0;
+        double total = 0, total2 = 0, largest = 0;
+        var largestAt = -1;
         for (var i = 0; i < n; i++)
         {
             if (!(shares[i] > 0)) continue;
@@ -912,45 +917,24 @@ internal sealed class ComponentSampleSet
             if (w == 0) continue;
             total += w;
             total2 += w * w;
+            if (w > largest)
+            {
+                largest = w;
+                largestAt = i;
+            }
+
             for (var k = 0; k < _d; k++) mean[k] += w * _u[i * _d + k];
         }
 
         if (!(total > 0)) return null;
         for (var k = 0; k < _d; k++) mean[k] /= total;
         effective = total * total / total2;
+        heaviest = (_u.GetRange(largestAt * _d, _d).ToArray(), largest / total);
         return mean;
     }
 
     /// <summary>A failed sample whose share of the failed weight exceeds this dominates the estimate (see <see cref="Refine"/>).</summary>
     private const double HeavyFailureShare = 0.1;
-
-    /// <summary>The failed sample (by a local time of a period) with the largest weight, and its share of all failed weight; null when none failed.</summary>
-    private (double[] U, double Share)? HeaviestFailure(int period, double local)
-    {
-        var n = _logW.Count;
-        var top = double.NegativeInfinity;
-        var heaviest = -1;
-        var shares = new double[n];
-        for (var i = 0; i < n; i++)
-        {
-            if (double.IsNegativeInfinity(_logW[i])) continue;
-            shares[i] = Share(period, local, i);
-            if (shares[i] > 0 && _logW[i] + Math.Log(shares[i]) > top)
-            {
-                top = _logW[i] + Math.Log(shares[i]);
-                heaviest = i;
-            }
-        }
-
-        if (heaviest < 0) return null;
-        var total = 0.0;
-        for (var i = 0; i < n; i++)
-        {
-            if (shares[i] > 0) total += Math.Exp(_logW[i] + Math.Log(shares[i]) - top);
-        }
-
-        return (_u.GetRange(heaviest * _d, _d).ToArray(), 1 / total);
-    }
 
     /// <summary>For each drawn sample, whether <paramref name="centre"/> is the nearest of <paramref name="rivals"/> to it (u-space).</summary>
     private bool[] NearestTo(double[] centre, double[][] rivals)
